@@ -1,0 +1,1 @@
+export { filterSignal } from "./filter-signal";
