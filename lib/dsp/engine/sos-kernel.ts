@@ -1,0 +1,98 @@
+/**
+ * Inner loops for a cascade of second-order sections in direct form II transposed, with the
+ * arithmetic order of scipy.signal `sosfilt` (per section: t = b0·x + z0;
+ * z0 = b1·x − a1·t + z1; z1 = b2·x − a2·t), so results agree bit for bit on IEEE-754 doubles.
+ * A kernel filters x[start..end) into y[start..end) and carries 2 states per section in `z`.
+ */
+export type SosKernel = (
+  x: Float64Array,
+  y: Float64Array,
+  start: number,
+  end: number,
+  z: Float64Array,
+) => void;
+
+/** Above this many sections the generic loop is used (generated source grows linearly). */
+export const MAX_UNROLLED_SECTIONS = 48;
+
+/** Bound on cached generated kernels; the oldest is dropped first. */
+const KERNEL_CACHE_SIZE = 512;
+const kernelCache = new Map<string, SosKernel>();
+
+/** A JavaScript literal for a finite double, exact on parse (round-trip shortest form). */
+function numberLiteral(v: number): string {
+  if (typeof v !== "number" || !Number.isFinite(v)) {
+    throw new Error(`kernel coefficient must be a finite number (got ${String(v)})`);
+  }
+  return Object.is(v, -0) ? "(-0)" : `(${String(v)})`;
+}
+
+/**
+ * Source of a kernel whose coefficients are literal constants and whose states are locals, so
+ * the JIT keeps them in registers; states are written back once per block. Only numbers that
+ * passed Number.isFinite are interpolated.
+ */
+function unrolledSource(packed: Float64Array): string {
+  const sections = packed.length / 5;
+  const lines: string[] = [];
+  for (let s = 0; s < sections; s++) lines.push(`let p${s} = z[${2 * s}], q${s} = z[${2 * s + 1}];`);
+  lines.push("for (let n = start; n < end; n++) {", "let c = x[n], t;");
+  for (let s = 0; s < sections; s++) {
+    const [b0, b1, b2, a1, a2] = Array.from(packed.subarray(s * 5, s * 5 + 5), numberLiteral);
+    lines.push(
+      `t = ${b0} * c + p${s};`,
+      `p${s} = ${b1} * c - ${a1} * t + q${s};`,
+      `q${s} = ${b2} * c - ${a2} * t;`,
+      "c = t;",
+    );
+  }
+  lines.push("y[n] = c;", "}");
+  for (let s = 0; s < sections; s++) lines.push(`z[${2 * s}] = p${s}; z[${2 * s + 1}] = q${s};`);
+  return lines.join("\n");
+}
+
+/** Generic loop over sections, for very long cascades or where code generation is refused. */
+export function genericSosKernel(packed: Float64Array): SosKernel {
+  const coeffs = Float64Array.from(packed);
+  const sections = coeffs.length / 5;
+  return (x, y, start, end, z) => {
+    for (let n = start; n < end; n++) {
+      let c = x[n];
+      for (let s = 0, k = 0; s < sections; s++, k += 5) {
+        const t = coeffs[k] * c + z[2 * s];
+        z[2 * s] = coeffs[k + 1] * c - coeffs[k + 3] * t + z[2 * s + 1];
+        z[2 * s + 1] = coeffs[k + 2] * c - coeffs[k + 4] * t;
+        c = t;
+      }
+      y[n] = c;
+    }
+  };
+}
+
+function compile(source: string): SosKernel | undefined {
+  try {
+    return new Function("x", "y", "start", "end", "z", source) as SosKernel;
+  } catch (error) {
+    // A Content-Security-Policy without 'unsafe-eval' refuses code generation with EvalError.
+    if (error instanceof EvalError) return undefined;
+    throw error;
+  }
+}
+
+/**
+ * The fastest kernel available for these packed sections ([b0, b1, b2, a1, a2] per section):
+ * a generated, cached one up to MAX_UNROLLED_SECTIONS, otherwise the generic loop.
+ */
+export function sosKernel(packed: Float64Array): SosKernel {
+  if (packed.length === 0 || packed.length % 5 !== 0) {
+    throw new Error(`packed sections need 5 coefficients each (got ${packed.length})`);
+  }
+  if (packed.length / 5 > MAX_UNROLLED_SECTIONS) return genericSosKernel(packed);
+  const source = unrolledSource(packed);
+  const cached = kernelCache.get(source);
+  if (cached) return cached;
+  const kernel = compile(source) ?? genericSosKernel(packed);
+  if (kernelCache.size >= KERNEL_CACHE_SIZE) kernelCache.delete(kernelCache.keys().next().value as string);
+  kernelCache.set(source, kernel);
+  return kernel;
+}

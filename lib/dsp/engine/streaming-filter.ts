@@ -1,0 +1,92 @@
+import type { FilterDesign } from "../types";
+import { FirState } from "./fir-state";
+import { packSos, packTaps } from "./sos-coefficients";
+import { SosState } from "./sos-state";
+
+/** 'zero': start at rest. 'step': start at the steady state of the first sample (scipy.signal sosfilt_zi / lfilter_zi × x[0]). */
+export type InitialState = "zero" | "step";
+
+export interface StreamingFilterOptions {
+  initial?: InitialState;
+}
+
+/**
+ * A filter that keeps its state between blocks: any split of a signal into blocks gives output
+ * bit-identical to one pass. A NaN or ±Infinity input sample counts as a fault, gives NaN output
+ * for that sample and restarts the state: at rest for 'zero'; for 'step', at the steady state of
+ * the next finite sample (exactly what a fresh filter would do from there).
+ */
+export interface StreamingFilter {
+  /** Filter a block (same units as the input). `out`, if given, must have x.length entries; it may be x itself. */
+  process(x: Float64Array, out?: Float64Array): Float64Array;
+  /** Back to the initial condition, as if just built; the fault count is kept. */
+  reset(): void;
+  /** Non-finite input samples seen so far. */
+  readonly faults: number;
+}
+
+interface FilterState {
+  clear(): void;
+  settle(v: number): void;
+  run(x: Float64Array, y: Float64Array, start: number, end: number): void;
+}
+
+function buildState(design: FilterDesign, withStep: boolean): FilterState {
+  const hasSos = design.sos !== undefined;
+  const hasTaps = design.taps !== undefined;
+  if (hasSos === hasTaps) throw new Error("a FilterDesign must have exactly one of sos and taps");
+  return design.sos ? new SosState(packSos(design.sos), withStep) : new FirState(packTaps(design.taps ?? []));
+}
+
+/** Index of the first non-finite sample in x[from..), or x.length if none (v − v ≠ 0 exactly for NaN and ±∞). */
+function firstNonFinite(x: Float64Array, from: number): number {
+  let i = from;
+  while (i < x.length && x[i] - x[i] === 0) i++;
+  return i;
+}
+
+/** Build a streaming filter for an SOS or FIR design (DF2T per section, scipy.signal sosfilt order). */
+export function createStreamingFilter(design: FilterDesign, opts: StreamingFilterOptions = {}): StreamingFilter {
+  const initial = opts.initial ?? "zero";
+  if (initial !== "zero" && initial !== "step") {
+    throw new Error(`initial must be 'zero' or 'step' (got ${String(initial)})`);
+  }
+  const step = initial === "step";
+  const state = buildState(design, step);
+  let awaitingSample = step;
+  let faults = 0;
+
+  function process(x: Float64Array, out?: Float64Array): Float64Array {
+    const y = out ?? new Float64Array(x.length);
+    if (y.length !== x.length) throw new Error(`out must have ${x.length} entries like x (got ${y.length})`);
+    let i = 0;
+    while (i < x.length) {
+      const bad = firstNonFinite(x, i);
+      if (bad > i && awaitingSample) {
+        state.settle(x[i]);
+        awaitingSample = false;
+      }
+      state.run(x, y, i, bad);
+      if (bad === x.length) break;
+      faults++;
+      y[bad] = NaN;
+      if (step) awaitingSample = true;
+      else state.clear();
+      i = bad + 1;
+    }
+    return y;
+  }
+
+  function reset(): void {
+    state.clear();
+    awaitingSample = step;
+  }
+
+  return {
+    process,
+    reset,
+    get faults() {
+      return faults;
+    },
+  };
+}
