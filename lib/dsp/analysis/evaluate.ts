@@ -1,0 +1,24 @@
+import { cAdd, cDiv, cMul } from "../complex";
+import type { Complex } from "../types";
+import type { RunForm } from "./design-form";
+
+/** Σ c_k·x^k for real c in ascending powers of x (Horner's rule). */
+export function ascendingPolyAt(c: readonly number[], x: Complex): Complex {
+  let acc: Complex = [0, 0];
+  for (let k = c.length - 1; k >= 0; k--) acc = cAdd(cMul(acc, x), [c[k], 0]);
+  return acc;
+}
+
+/**
+ * H(e^{jω}) of a run form at ω rad/sample (dimensionless complex gain): the product over sections of
+ * (b0 + b1·z⁻¹ + b2·z⁻²)/(1 + a1·z⁻¹ + a2·z⁻²), or Σ h[n]·z⁻ⁿ for taps (Oppenheim & Schafer §5.1).
+ */
+export function transferAt(form: RunForm, omega: number): Complex {
+  const x: Complex = [Math.cos(omega), -Math.sin(omega)];
+  if (form.kind === "taps") return ascendingPolyAt(form.taps, x);
+  let h: Complex = [1, 0];
+  for (const row of form.sos) {
+    h = cMul(h, cDiv(ascendingPolyAt(row.slice(0, 3), x), ascendingPolyAt(row.slice(3, 6), x)));
+  }
+  return h;
+}

@@ -1,0 +1,31 @@
+import { cAbs } from "../complex";
+import { polyRoots } from "../poly";
+import type { FilterDesign } from "../types";
+import { runForm } from "./design-form";
+
+export interface Stability {
+  /** True iff every pole lies strictly inside the unit circle (BIBO stability; FIR designs always). */
+  stable: boolean;
+  /** Largest pole radius |p| (dimensionless); 0 for FIR (all poles at the origin). */
+  maxPoleRadius: number;
+}
+
+/**
+ * Stability of the coefficients that actually run: poles are the roots of each SOS denominator
+ * z² + a1·z + a2 (not design.poles), stable iff all |p| < 1 (Oppenheim & Schafer, DTSP §5.2).
+ */
+export function stability(design: FilterDesign): Stability {
+  const form = runForm(design);
+  if (form.kind === "taps") return { stable: true, maxPoleRadius: 0 };
+  const maxPoleRadius = Math.max(...form.sos.flatMap((row) => polyRoots([1, row[4], row[5]]).map(cAbs)), 0);
+  return { stable: maxPoleRadius < 1, maxPoleRadius };
+}
+
+/**
+ * Stability triangle of one biquad denominator 1 + a1·z⁻¹ + a2·z⁻²: both poles lie strictly inside
+ * the unit circle iff |a2| < 1 and |a1| < 1 + a2 (Jackson, Digital Filters and Signal Processing;
+ * Oppenheim & Schafer ch. 6 — from memory).
+ */
+export function sectionInStabilityTriangle(a1: number, a2: number): boolean {
+  return Math.abs(a2) < 1 && Math.abs(a1) < 1 + a2;
+}
