@@ -1,0 +1,52 @@
+import Link from "next/link";
+import { requirePageUser } from "@/app/_lib/auth";
+import { db } from "@/db";
+import { listChannels, type ChannelRow } from "@/db/queries/channels";
+import { formatHz } from "@/lib/format/units";
+
+function groupByRig(channels: ChannelRow[]) {
+  const rigs = new Map<string, { name: string; devices: Map<string, { name: string; channels: ChannelRow[] }> }>();
+  for (const c of channels) {
+    const rig = rigs.get(c.rigKey) ?? { name: c.rigName, devices: new Map() };
+    rigs.set(c.rigKey, rig);
+    const device = rig.devices.get(c.deviceKey) ?? { name: c.deviceName, channels: [] };
+    rig.devices.set(c.deviceKey, device);
+    device.channels.push(c);
+  }
+  return rigs;
+}
+
+export default async function OverviewPage() {
+  await requirePageUser();
+  const rigs = groupByRig(await listChannels(db()));
+  return (
+    <div className="space-y-6">
+      <h1 className="text-xl font-semibold">Overview</h1>
+      {rigs.size === 0 && <p className="text-sm text-slate-500">No rigs yet. An administrator adds rigs, devices and channels.</p>}
+      {[...rigs].map(([rigKey, rig]) => (
+        <section key={rigKey} className="card overflow-hidden" aria-label={rig.name}>
+          <h2 className="border-b border-slate-200 px-4 py-2.5 font-medium dark:border-slate-800">
+            {rig.name} <span className="num ml-2 text-xs text-slate-500">{rigKey}</span>
+          </h2>
+          {[...rig.devices].map(([deviceKey, device]) => (
+            <div key={deviceKey} className="px-4 py-3">
+              <h3 className="mb-2 text-sm font-medium text-slate-600 dark:text-slate-300">{device.name}</h3>
+              <ul className="grid gap-2 sm:grid-cols-2 xl:grid-cols-4">
+                {device.channels.map((c) => (
+                  <li key={c.path}>
+                    <Link href={`/channels/${c.path}`} className="block rounded-md border border-slate-200 px-3 py-2 hover:border-brand-500 dark:border-slate-800">
+                      <span className="block font-medium">{c.name}</span>
+                      <span className="num block text-xs text-slate-500">
+                        {c.path} · {formatHz(c.sampleRateHz)} · {c.unit}
+                      </span>
+                    </Link>
+                  </li>
+                ))}
+              </ul>
+            </div>
+          ))}
+        </section>
+      ))}
+    </div>
+  );
+}

@@ -1,0 +1,58 @@
+import { sql, type Transaction } from "kysely";
+import type { Db } from "../client";
+import type { Database } from "../types";
+
+type Conn = Db | Transaction<Database>;
+
+/** A channel with its place in the lab; `path` is `<rig>/<device>/<channel>` built from keys. */
+export interface ChannelRow {
+  id: number;
+  path: string;
+  rigKey: string;
+  rigName: string;
+  deviceKey: string;
+  deviceName: string;
+  key: string;
+  name: string;
+  unit: string;
+  sampleRateHz: number;
+  rangeMin: number;
+  rangeMax: number;
+  coefficientFormat: "f32" | "q15" | "q31";
+}
+
+function channelQuery(db: Conn) {
+  return db
+    .selectFrom("channels as c")
+    .innerJoin("devices as d", "d.id", "c.device_id")
+    .innerJoin("rigs as r", "r.id", "d.rig_id")
+    .select([
+      "c.id",
+      sql<string>`r.key || '/' || d.key || '/' || c.key`.as("path"),
+      "r.key as rigKey",
+      "r.name as rigName",
+      "d.key as deviceKey",
+      "d.name as deviceName",
+      "c.key",
+      "c.name",
+      "c.unit",
+      "c.sample_rate_hz as sampleRateHz",
+      "c.range_min as rangeMin",
+      "c.range_max as rangeMax",
+      "d.coefficient_format as coefficientFormat",
+    ]);
+}
+
+export function listChannels(db: Conn): Promise<ChannelRow[]> {
+  return channelQuery(db).orderBy("r.key").orderBy("d.key").orderBy("c.key").execute();
+}
+
+export function findChannelByPath(db: Conn, path: string): Promise<ChannelRow | undefined> {
+  const [rig, device, channel, ...rest] = path.split("/");
+  if (!rig || !device || !channel || rest.length) return Promise.resolve(undefined);
+  return channelQuery(db)
+    .where("r.key", "=", rig)
+    .where("d.key", "=", device)
+    .where("c.key", "=", channel)
+    .executeTakeFirst();
+}

@@ -1,0 +1,87 @@
+/**
+ * The invented demo lab (Cobalt Ridge Test Lab). Fictional rigs, devices and channels;
+ * the seed writes them to the database and the demo rig simulator publishes them over MQTT.
+ */
+export interface DemoChannel {
+  key: string;
+  name: string;
+  unit: string;
+  sampleRateHz: number;
+  range: [number, number];
+}
+
+export interface DemoDevice {
+  key: string;
+  name: string;
+  coefficientFormat: "f32" | "q15" | "q31";
+  channels: DemoChannel[];
+}
+
+export interface DemoRig {
+  key: string;
+  name: string;
+  description: string;
+  devices: DemoDevice[];
+}
+
+export const DEMO_LAB_NAME = "Cobalt Ridge Test Lab";
+
+export const DEMO_RIGS: DemoRig[] = [
+  {
+    key: "gearbox-endurance",
+    name: "Gearbox endurance rig",
+    description: "Two-stage gearbox run at cycling load for endurance testing.",
+    devices: [
+      {
+        key: "torque-node",
+        name: "Torque node",
+        coefficientFormat: "q15",
+        channels: [
+          { key: "input-torque", name: "Input torque", unit: "N·m", sampleRateHz: 1000, range: [-400, 400] },
+          { key: "shaft-speed", name: "Shaft speed", unit: "rpm", sampleRateHz: 500, range: [0, 3600] },
+        ],
+      },
+      {
+        key: "vibe-node",
+        name: "Vibration node",
+        coefficientFormat: "f32",
+        channels: [
+          { key: "housing-accel", name: "Housing acceleration", unit: "m/s²", sampleRateHz: 5000, range: [-50, 50] },
+          { key: "oil-temp", name: "Oil temperature", unit: "°C", sampleRateHz: 100, range: [0, 150] },
+        ],
+      },
+    ],
+  },
+  {
+    key: "hydraulic-press",
+    name: "Hydraulic press",
+    description: "Servo-hydraulic press under position control.",
+    devices: [
+      {
+        key: "press-ctl",
+        name: "Press controller",
+        coefficientFormat: "q31",
+        channels: [
+          { key: "ram-position", name: "Ram position", unit: "mm", sampleRateHz: 2000, range: [0, 250] },
+          { key: "line-pressure", name: "Line pressure", unit: "bar", sampleRateHz: 2000, range: [0, 350] },
+        ],
+      },
+      {
+        key: "env-node",
+        name: "Environment node",
+        coefficientFormat: "q15",
+        channels: [
+          { key: "frame-strain", name: "Frame strain", unit: "µε", sampleRateHz: 1000, range: [-2000, 2000] },
+          { key: "ambient-temp", name: "Ambient temperature", unit: "°C", sampleRateHz: 100, range: [-20, 60] },
+        ],
+      },
+    ],
+  },
+];
+
+export const DEMO_ACCOUNTS = [
+  { email: "operator@tapwright.test", displayName: "Demo Operator", role: "operator" },
+  { email: "engineer@tapwright.test", displayName: "Demo Engineer", role: "engineer" },
+  { email: "lead@tapwright.test", displayName: "Demo Lead", role: "lead" },
+  { email: "admin@tapwright.test", displayName: "Demo Admin", role: "admin" },
+] as const;

@@ -1,0 +1,35 @@
+import { z } from "zod";
+
+/** Every setting Tapwright reads from the environment, parsed once. Defaults are the local demo's. */
+const envSchema = z.object({
+  DATABASE_URL: z.string().url().default("postgres://postgres@127.0.0.1:5433/tapwright"),
+  SESSION_SECRET: z.string().min(32, "SESSION_SECRET must be at least 32 characters"),
+  PORT: z.coerce.number().int().min(1).max(65535).default(3000),
+  SIDECAR_PORT: z.coerce.number().int().min(1).max(65535).default(3001),
+  MQTT_PORT: z.coerce.number().int().min(0).max(65535).default(1883),
+  MQTT_URL: z.string().url().optional(),
+  MQTT_USERNAME: z.string().optional(),
+  MQTT_PASSWORD: z.string().optional(),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  MAIL_FROM: z.string().default("Tapwright <tapwright@tapwright.test>"),
+  DEMO: z.enum(["0", "1"]).default("1"),
+  DEMO_PASSWORD: z.string().min(8).default("tapwright-demo"),
+  COOKIE_SECURE: z.enum(["0", "1"]).default("0"),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+let cached: Env | undefined;
+
+/** The validated environment; throws with every bad variable named. */
+export function env(): Env {
+  if (!cached) {
+    const parsed = envSchema.safeParse(process.env);
+    if (!parsed.success) {
+      const lines = parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`);
+      throw new Error(`Invalid environment:\n${lines.join("\n")}`);
+    }
+    cached = parsed.data;
+  }
+  return cached;
+}

@@ -1,0 +1,12 @@
+/** Formats a frequency with its unit, switching to kHz at 1000 Hz; `digits` significant figures. */
+export function formatHz(hz: number, digits = 4): string {
+  if (!Number.isFinite(hz)) return "—";
+  return Math.abs(hz) >= 1000 ? `${trim(hz / 1000, digits)} kHz` : `${trim(hz, digits)} Hz`;
+}
+
+/** A number to `digits` significant figures without trailing zeros or exponent for everyday magnitudes. */
+export function trim(value: number, digits = 4): string {
+  if (!Number.isFinite(value)) return value > 0 ? "∞" : value < 0 ? "−∞" : "—";
+  if (value === 0) return "0";
+  return String(Number(value.toPrecision(digits)));
+}

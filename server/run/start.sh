@@ -1,0 +1,24 @@
+#!/usr/bin/env bash
+# `npm start`: set everything up, then run the web app (and the sidecar with its broker and demo rig).
+set -euo pipefail
+ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)
+cd "$ROOT"
+source server/run/setup.sh tapwright
+export PORT=${PORT:-3000}
+
+pids=()
+cleanup() { for p in "${pids[@]}"; do kill "$p" 2>/dev/null || true; done; wait 2>/dev/null || true; }
+trap cleanup EXIT INT TERM
+
+node_modules/.bin/next start -H 127.0.0.1 -p "$PORT" & pids+=($!)
+
+cat <<MSG
+
+  Tapwright is starting on http://127.0.0.1:$PORT
+  Demo accounts (password: ${DEMO_PASSWORD:-tapwright-demo}):
+    operator@tapwright.test   engineer@tapwright.test
+    lead@tapwright.test       admin@tapwright.test
+  Stop with Ctrl-C. PostgreSQL keeps running; stop it with: bash db/cluster.sh stop
+
+MSG
+wait -n "${pids[@]}"
