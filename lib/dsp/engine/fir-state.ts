@@ -27,6 +27,13 @@ export class FirState {
     this.buffer.fill(v, 0, this.memory);
   }
 
+  /** Run x[start..end) if every sample in it is finite (v − v = 0 exactly for finite v); otherwise do nothing and return false. */
+  runIfFinite(x: Float64Array, y: Float64Array, start: number, end: number): boolean {
+    for (let i = start; i < end; i++) if (x[i] - x[i] !== 0) return false;
+    this.run(x, y, start, end);
+    return true;
+  }
+
   /** Filter x[start..end) into y[start..end), carrying the history across calls. */
   run(x: Float64Array, y: Float64Array, start: number, end: number): void {
     const { taps, buffer, memory } = this;

@@ -29,6 +29,7 @@ interface FilterState {
   clear(): void;
   settle(v: number): void;
   run(x: Float64Array, y: Float64Array, start: number, end: number): void;
+  runIfFinite(x: Float64Array, y: Float64Array, start: number, end: number): boolean;
 }
 
 function buildState(design: FilterDesign, withStep: boolean): FilterState {
@@ -59,6 +60,7 @@ export function createStreamingFilter(design: FilterDesign, opts: StreamingFilte
   function process(x: Float64Array, out?: Float64Array): Float64Array {
     const y = out ?? new Float64Array(x.length);
     if (y.length !== x.length) throw new Error(`out must have ${x.length} entries like x (got ${y.length})`);
+    if (!awaitingSample && state.runIfFinite(x, y, 0, x.length)) return y;
     let i = 0;
     while (i < x.length) {
       const bad = firstNonFinite(x, i);
