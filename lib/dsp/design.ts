@@ -1,0 +1,49 @@
+import { rbjBiquad } from "./biquad";
+import { discretize } from "./discretize/discretize";
+import { emaTransferFunction } from "./ema";
+import { firstDifferenceTaps } from "./fir/differentiator";
+import { movingAverage } from "./fir/movingAverage";
+import { windowedSinc } from "./fir/windowedSinc";
+import { kaiserBeta } from "./fir/windows";
+import { designIir } from "./iir/design";
+import { filterSpecSchema, type FilterSpec } from "./spec";
+import { designFromBa, designFromSos, designFromTaps } from "./transfer";
+import type { FilterDesign } from "./types";
+
+/**
+ * Designs any filter request. The spec is checked with filterSpecSchema first; an invalid spec
+ * throws an Error listing each refused field path and the allowed range.
+ */
+export function designFilter(input: FilterSpec): FilterDesign {
+  const parsed = filterSpecSchema.safeParse(input);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `${i.path.length > 0 ? i.path.join(".") : "(spec)"}: ${i.message}`);
+    throw new Error(`invalid filter spec:\n${lines.join("\n")}`);
+  }
+  const spec = parsed.data;
+  const fs = spec.sampleRateHz;
+  switch (spec.kind) {
+    case "iir":
+      return designIir(spec);
+    case "biquad":
+      return designFromSos([rbjBiquad(spec)], fs);
+    case "fir": {
+      const beta = spec.kaiserBeta ?? (spec.stopbandAttenuationDb === undefined ? undefined : kaiserBeta(spec.stopbandAttenuationDb));
+      return designFromTaps(windowedSinc({ ...spec, kaiserBeta: beta }), fs);
+    }
+    case "moving-average":
+      return { sampleRateHz: fs, ...movingAverage(spec.length) };
+    case "differentiator":
+      return designFromTaps(firstDifferenceTaps(fs), fs);
+    case "ema": {
+      const { b, a } = emaTransferFunction(spec.cutoffHz, fs);
+      return designFromBa(b, a, fs);
+    }
+    case "analog": {
+      const { b, a } = discretize(spec, fs, spec.method, { prewarpHz: spec.prewarpHz });
+      return designFromBa(b, a, fs);
+    }
+    case "coefficients":
+      return spec.sos !== undefined ? designFromSos(spec.sos, fs) : designFromBa(spec.b ?? [], spec.a ?? [1], fs);
+  }
+}

@@ -1,0 +1,54 @@
+/** Public contract of lib/dsp: design requests, designs, discretisation, paste parsing, analysis and running. */
+export type { Complex, FilterDesign } from "./types";
+
+export {
+  filterSpecSchema,
+  biquadSpecSchema,
+  firSpecSchema,
+  movingAverageSpecSchema,
+  differentiatorSpecSchema,
+  emaSpecSchema,
+  analogSpecSchema,
+  coefficientsSpecSchema,
+  SPEC_LIMITS,
+  type FilterSpec,
+  type BiquadSpec,
+  type FirSpec,
+  type MovingAverageSpec,
+  type DifferentiatorSpec,
+  type EmaSpec,
+  type AnalogSpec,
+  type CoefficientsSpec,
+} from "./spec";
+export { designFilter } from "./design";
+export { designFromBa, designFromSos, designFromTaps } from "./transfer";
+
+export { iirSpecSchema, IIR_FAMILIES, IIR_RESPONSES, MAX_ORDER, type IirSpec, type IirFamily, type IirResponse } from "./iir/spec";
+export { designIir, analogPrototypeZpk } from "./iir/design";
+export { zpk2sos } from "./iir/zpk2sos";
+export { bilinearZpk } from "./iir/bilinear";
+
+export { biquadShapes, gainShapes, rbjBiquad, type BiquadShape, type BiquadParams } from "./biquad";
+export { firResponses, windowedSinc, type FirResponse, type WindowedSincParams } from "./fir/windowedSinc";
+export { firWindows, firWindow, kaiserBeta, besselI0, type FirWindow } from "./fir/windows";
+export { movingAverage } from "./fir/movingAverage";
+export { firstDifferenceTaps } from "./fir/differentiator";
+export { firZpk } from "./fir/zpk";
+export { emaAlpha, emaTransferFunction } from "./ema";
+
+export {
+  discretize,
+  discretizationMethods,
+  type DiscretizationMethod,
+  type DiscretizeOptions,
+} from "./discretize/discretize";
+export { MAX_ANALOG_ORDER, type AnalogTransferFunction } from "./discretize/rational";
+
+export { parseCoefficientText, CoefficientParseError } from "./coefficients";
+
+export { cAdd, cSub, cMul, cDiv, cScale, cNeg, cConj, cAbs, cArg, cExp, cSqrt } from "./complex";
+export { polyMul, polyFromRoots, polyRoots, polyEval } from "./poly";
+export { expm, type Matrix } from "./linalg";
+
+export * from "./analysis";
+export * from "./engine";

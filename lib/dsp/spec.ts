@@ -1,0 +1,215 @@
+import { z } from "zod";
+import { biquadShapes, gainShapes } from "./biquad";
+import { discretizationMethods } from "./discretize/discretize";
+import { MAX_ANALOG_ORDER } from "./discretize/rational";
+import { firResponses } from "./fir/windowedSinc";
+import { firWindows } from "./fir/windows";
+import { checkCutoffs, iirSpecSchema } from "./iir/spec";
+
+/** Limits of the design requests (product choices; each refusal message states the allowed range). */
+export const SPEC_LIMITS = {
+  maxQ: 1000,
+  maxGainDb: 60,
+  maxFirTaps: 1023,
+  maxKaiserBeta: 100,
+  maxAttenuationDb: 300,
+  maxMovingAverageLength: 4096,
+  maxPastedTaps: 1024,
+  maxPastedDenominator: 65,
+  maxSosRows: 64,
+} as const;
+
+const finite = (what: string) => z.number({ error: `${what} must be a finite number` });
+
+const sampleRateHz = finite("sampleRateHz").positive({ error: "sampleRateHz must be a finite number > 0 Hz" });
+
+const coefficientList = (what: string, max: number) =>
+  z
+    .array(finite(`every ${what} coefficient`), { error: `${what} must be a list of numbers` })
+    .min(1, { error: `${what} must have at least 1 coefficient` })
+    .max(max, { error: `${what} must have at most ${max} coefficients` });
+
+type Ctx = z.RefinementCtx;
+
+function refuse(ctx: Ctx, path: Array<string | number>, message: string): void {
+  ctx.addIssue({ code: "custom", path, message });
+}
+
+function checkBelowNyquist(ctx: Ctx, field: string, value: number, fs: number): void {
+  if (!(value > 0 && value < fs / 2)) {
+    refuse(ctx, [field], `${field} must satisfy 0 < f < sampleRateHz/2 = ${fs / 2} Hz (got ${value})`);
+  }
+}
+
+function checkInteger(ctx: Ctx, field: string, value: number, min: number, max: number): void {
+  if (!(Number.isInteger(value) && value >= min && value <= max)) {
+    refuse(ctx, [field], `${field} must be an integer from ${min} to ${max} (got ${value})`);
+  }
+}
+
+/** A cookbook biquad; gainDb is required by peaking and the shelves and refused by the other shapes. */
+export const biquadSpecSchema = z
+  .object({
+    kind: z.literal("biquad"),
+    shape: z.enum(biquadShapes),
+    centerHz: finite("centerHz"),
+    q: finite("q"),
+    gainDb: finite("gainDb").optional(),
+    sampleRateHz,
+  })
+  .superRefine((spec, ctx) => {
+    checkBelowNyquist(ctx, "centerHz", spec.centerHz, spec.sampleRateHz);
+    if (!(spec.q > 0 && spec.q <= SPEC_LIMITS.maxQ)) {
+      refuse(ctx, ["q"], `q must satisfy 0 < q ≤ ${SPEC_LIMITS.maxQ} (got ${spec.q})`);
+    }
+    const max = SPEC_LIMITS.maxGainDb;
+    if (gainShapes.includes(spec.shape)) {
+      if (spec.gainDb === undefined) {
+        refuse(ctx, ["gainDb"], `gainDb is required for a ${spec.shape} biquad (−${max} to ${max} dB)`);
+      } else if (Math.abs(spec.gainDb) > max) {
+        refuse(ctx, ["gainDb"], `gainDb must be from −${max} to ${max} dB (got ${spec.gainDb})`);
+      }
+    } else if (spec.gainDb !== undefined) {
+      refuse(ctx, ["gainDb"], `gainDb is only used by ${gainShapes.join(", ")}; remove it for a ${spec.shape}`);
+    }
+  });
+
+/** A windowed-sinc FIR; the kaiser window takes exactly one of kaiserBeta and stopbandAttenuationDb. */
+export const firSpecSchema = z
+  .object({
+    kind: z.literal("fir"),
+    response: z.enum(firResponses),
+    window: z.enum(firWindows),
+    taps: finite("taps"),
+    cutoffHz: z.union([finite("cutoffHz"), z.tuple([finite("cutoffHz[0]"), finite("cutoffHz[1]")])], {
+      error: "cutoffHz must be a finite frequency in Hz, or a pair [low, high] of them for bandpass and bandstop",
+    }),
+    kaiserBeta: finite("kaiserBeta").optional(),
+    stopbandAttenuationDb: finite("stopbandAttenuationDb").optional(),
+    sampleRateHz,
+  })
+  .superRefine((spec, ctx) => {
+    checkInteger(ctx, "taps", spec.taps, 1, SPEC_LIMITS.maxFirTaps);
+    if ((spec.response === "highpass" || spec.response === "bandstop") && spec.taps % 2 === 0) {
+      refuse(ctx, ["taps"], `taps must be odd for a ${spec.response} (an even-length linear-phase FIR has zero gain at Nyquist)`);
+    }
+    checkCutoffs(ctx, "cutoffHz", spec.cutoffHz, spec.response, spec.sampleRateHz);
+    const { kaiserBeta: beta, stopbandAttenuationDb: atten } = spec;
+    if (spec.window !== "kaiser") {
+      if (beta !== undefined) refuse(ctx, ["kaiserBeta"], "kaiserBeta is only used by the kaiser window");
+      if (atten !== undefined) {
+        refuse(ctx, ["stopbandAttenuationDb"], "stopbandAttenuationDb is only used by the kaiser window");
+      }
+      return;
+    }
+    if ((beta === undefined) === (atten === undefined)) {
+      refuse(ctx, ["kaiserBeta"], "the kaiser window needs exactly one of kaiserBeta and stopbandAttenuationDb");
+    }
+    if (beta !== undefined && !(beta >= 0 && beta <= SPEC_LIMITS.maxKaiserBeta)) {
+      refuse(ctx, ["kaiserBeta"], `kaiserBeta must be from 0 to ${SPEC_LIMITS.maxKaiserBeta} (got ${beta})`);
+    }
+    if (atten !== undefined && !(atten > 0 && atten <= SPEC_LIMITS.maxAttenuationDb)) {
+      refuse(
+        ctx,
+        ["stopbandAttenuationDb"],
+        `stopbandAttenuationDb must satisfy 0 < A ≤ ${SPEC_LIMITS.maxAttenuationDb} dB (got ${atten})`,
+      );
+    }
+  });
+
+export const movingAverageSpecSchema = z
+  .object({ kind: z.literal("moving-average"), length: finite("length"), sampleRateHz })
+  .superRefine((spec, ctx) => checkInteger(ctx, "length", spec.length, 1, SPEC_LIMITS.maxMovingAverageLength));
+
+export const differentiatorSpecSchema = z.object({ kind: z.literal("differentiator"), sampleRateHz });
+
+export const emaSpecSchema = z
+  .object({ kind: z.literal("ema"), cutoffHz: finite("cutoffHz"), sampleRateHz })
+  .superRefine((spec, ctx) => checkBelowNyquist(ctx, "cutoffHz", spec.cutoffHz, spec.sampleRateHz));
+
+/** An analog H(s) = num(s)/den(s) (descending powers of s, s in rad/s) and how to discretise it. */
+export const analogSpecSchema = z
+  .object({
+    kind: z.literal("analog"),
+    num: coefficientList("num", MAX_ANALOG_ORDER + 1),
+    den: coefficientList("den", MAX_ANALOG_ORDER + 1),
+    method: z.enum(discretizationMethods),
+    prewarpHz: finite("prewarpHz").optional(),
+    sampleRateHz,
+  })
+  .superRefine((spec, ctx) => {
+    const degree = (p: number[]) => p.length - 1 - p.findIndex((c) => c !== 0);
+    if (spec.num.every((c) => c === 0)) refuse(ctx, ["num"], "num must have a nonzero coefficient");
+    if (spec.den.every((c) => c === 0)) refuse(ctx, ["den"], "den must have a nonzero coefficient");
+    else if (spec.num.some((c) => c !== 0) && degree(spec.num) > degree(spec.den)) {
+      refuse(
+        ctx,
+        ["num"],
+        `H(s) must be proper: num has degree ${degree(spec.num)}, at most the degree of den (${degree(spec.den)})`,
+      );
+    }
+    if (spec.method === "tustin-prewarp") {
+      if (spec.prewarpHz === undefined) {
+        refuse(ctx, ["prewarpHz"], `prewarpHz is required for tustin-prewarp (0 < f < ${spec.sampleRateHz / 2} Hz)`);
+      } else checkBelowNyquist(ctx, "prewarpHz", spec.prewarpHz, spec.sampleRateHz);
+    } else if (spec.prewarpHz !== undefined) {
+      refuse(ctx, ["prewarpHz"], "prewarpHz is only used by the tustin-prewarp method");
+    }
+  });
+
+/** Pasted coefficients: b (with optional a, default [1]) or sos rows [b0, b1, b2, a0, a1, a2]. */
+export const coefficientsSpecSchema = z
+  .object({
+    kind: z.literal("coefficients"),
+    b: coefficientList("b", SPEC_LIMITS.maxPastedTaps).optional(),
+    a: coefficientList("a", SPEC_LIMITS.maxPastedDenominator).optional(),
+    sos: z
+      .array(
+        z.array(finite("every sos coefficient")).length(6, { error: "each sos row must have 6 numbers [b0, b1, b2, a0, a1, a2]" }),
+        { error: "sos must be a list of rows" },
+      )
+      .min(1, { error: "sos must have at least 1 row" })
+      .max(SPEC_LIMITS.maxSosRows, { error: `sos must have at most ${SPEC_LIMITS.maxSosRows} rows` })
+      .optional(),
+    sampleRateHz,
+  })
+  .superRefine((spec, ctx) => {
+    if (spec.sos !== undefined) {
+      if (spec.b !== undefined) refuse(ctx, ["b"], "give either b (and a) or sos, not both");
+      if (spec.a !== undefined) refuse(ctx, ["a"], "give either b (and a) or sos, not both");
+      spec.sos.forEach((row, i) => {
+        if (row[3] === 0) refuse(ctx, ["sos", i, 3], `sos row ${i} has a0 = 0; a0 must be nonzero`);
+        if (row.slice(0, 3).every((c) => c === 0)) {
+          refuse(ctx, ["sos", i], `sos row ${i} has an all-zero numerator`);
+        }
+      });
+      return;
+    }
+    if (spec.b === undefined) {
+      refuse(ctx, ["b"], "b is required (with optional a) unless sos is given");
+      return;
+    }
+    if (spec.b.every((c) => c === 0)) refuse(ctx, ["b"], "b must have a nonzero coefficient");
+    if (spec.a !== undefined && spec.a[0] === 0) refuse(ctx, ["a", 0], "a[0] must be nonzero (it is normalised to 1)");
+  });
+
+/** Every filter design request, told apart by `kind`. */
+export const filterSpecSchema = z.discriminatedUnion("kind", [
+  iirSpecSchema,
+  biquadSpecSchema,
+  firSpecSchema,
+  movingAverageSpecSchema,
+  differentiatorSpecSchema,
+  emaSpecSchema,
+  analogSpecSchema,
+  coefficientsSpecSchema,
+]);
+
+export type FilterSpec = z.infer<typeof filterSpecSchema>;
+export type BiquadSpec = z.infer<typeof biquadSpecSchema>;
+export type FirSpec = z.infer<typeof firSpecSchema>;
+export type MovingAverageSpec = z.infer<typeof movingAverageSpecSchema>;
+export type DifferentiatorSpec = z.infer<typeof differentiatorSpecSchema>;
+export type EmaSpec = z.infer<typeof emaSpecSchema>;
+export type AnalogSpec = z.infer<typeof analogSpecSchema>;
+export type CoefficientsSpec = z.infer<typeof coefficientsSpecSchema>;
