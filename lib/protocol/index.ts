@@ -1,0 +1,6 @@
+export * from "./canonical-json";
+export * from "./device";
+export * from "./faults";
+export * from "./samples";
+export * from "./topics";
+export * from "./ws";

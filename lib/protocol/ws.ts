@@ -1,0 +1,107 @@
+import { z } from "zod";
+import { filterSpecSchema } from "@/lib/dsp";
+import { FAULT_KINDS } from "./faults";
+import { channelPathSchema } from "./topics";
+
+/** WebSocket protocol version; the server says it in its hello message. */
+export const WS_PROTOCOL_VERSION = 1;
+
+export const MAX_CANDIDATES_PER_CLIENT = 6;
+export const MAX_WINDOW_SECONDS = 60;
+
+/** A candidate id chosen by the browser, unique per connection and channel. */
+const candidateId = z.string().regex(/^[A-Za-z0-9_-]{1,32}$/, { error: "id must be 1–32 of A-Z a-z 0-9 _ -" });
+
+export const clientMessageSchema = z.discriminatedUnion("type", [
+  z.object({ type: z.literal("subscribe"), channel: channelPathSchema }).strict(),
+  z.object({ type: z.literal("unsubscribe"), channel: channelPathSchema }).strict(),
+  z.object({ type: z.literal("candidate.add"), channel: channelPathSchema, id: candidateId, spec: filterSpecSchema }).strict(),
+  z.object({ type: z.literal("candidate.remove"), channel: channelPathSchema, id: candidateId }).strict(),
+  z
+    .object({
+      type: z.literal("window"),
+      channel: channelPathSchema,
+      seconds: z.number().min(1).max(MAX_WINDOW_SECONDS),
+      maxPoints: z.number().int().min(16).max(1_000_000),
+    })
+    .strict(),
+]);
+export type ClientMessage = z.infer<typeof clientMessageSchema>;
+
+/** The closed set of error codes a WebSocket client may receive. */
+export const WS_ERROR_CODES = [
+  "bad_message",
+  "forbidden",
+  "unknown_channel",
+  "not_subscribed",
+  "too_many_candidates",
+  "duplicate_candidate",
+  "unknown_candidate",
+  "bad_spec",
+  "internal",
+] as const;
+export type WsErrorCode = (typeof WS_ERROR_CODES)[number];
+
+const number = z.number();
+
+/**
+ * New samples of one channel since the previous frame to this client. Without decimation, point i
+ * is at t0 + i·1000/sampleRateHz ms. With decimation, every `bucketSamples` input samples become
+ * two points (the bucket's minimum and maximum, in the order they occurred), and raw, production
+ * and candidates are decimated alike; the frame then starts at a bucket boundary.
+ */
+export const frameMessageSchema = z
+  .object({
+    type: z.literal("frame"),
+    channel: channelPathSchema,
+    seq: z.number().int(),
+    t0: number,
+    sampleRateHz: number,
+    raw: z.array(number),
+    traces: z.record(z.string(), z.array(number)),
+    decimated: z.boolean(),
+    bucketSamples: z.number().int().min(1).optional(),
+  })
+  .strict();
+export type FrameMessage = z.infer<typeof frameMessageSchema>;
+
+const faultCounts = z.partialRecord(z.enum(FAULT_KINDS), z.number().int());
+
+export const serverMessageSchema = z.discriminatedUnion("type", [
+  z
+    .object({
+      type: z.literal("hello"),
+      protocol: z.literal(WS_PROTOCOL_VERSION),
+      role: z.enum(["operator", "engineer", "lead", "admin"]),
+      channels: z.array(z.object({ path: channelPathSchema, sampleRateHz: number })),
+    })
+    .strict(),
+  frameMessageSchema,
+  z.object({ type: z.literal("error"), code: z.enum(WS_ERROR_CODES), message: z.string() }).strict(),
+  z
+    .object({
+      type: z.literal("status"),
+      mqtt: z.enum(["connected", "reconnecting", "closed"]),
+      droppedFrames: z.number().int(),
+      faults: z.record(z.string(), faultCounts),
+    })
+    .strict(),
+  z
+    .object({
+      type: z.literal("metrics"),
+      channel: channelPathSchema,
+      candidates: z.record(
+        z.string(),
+        z.object({
+          removedRms: number.nullable(),
+          lagMs: number.nullable(),
+          measuredAttenuationDb: number.nullable(),
+          predictedAttenuationDb: number.nullable(),
+          noiseLineHz: number.nullable(),
+        }),
+      ),
+    })
+    .strict(),
+]);
+export type ServerMessage = z.infer<typeof serverMessageSchema>;
+export type CandidateMetrics = Extract<ServerMessage, { type: "metrics" }>["candidates"][string];
