@@ -60,6 +60,14 @@ export interface LoginFailuresTable {
   address: string;
 }
 
+export interface DeviceCredentialsTable {
+  id: Generated<number>;
+  device_id: number;
+  username: string;
+  password_hash: string;
+  created_at: CreatedAt;
+}
+
 export interface Database {
   users: UsersTable;
   rigs: RigsTable;
@@ -67,6 +75,7 @@ export interface Database {
   channels: ChannelsTable;
   audit_log: AuditLogTable;
   login_failures: LoginFailuresTable;
+  device_credentials: DeviceCredentialsTable;
 }
 
 export type User = Selectable<UsersTable>;

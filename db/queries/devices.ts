@@ -1,0 +1,57 @@
+import type { Transaction } from "kysely";
+import type { Db } from "../client";
+import type { Database } from "../types";
+
+type Conn = Db | Transaction<Database>;
+
+/** A device credential with the device's place in the lab, for the broker's authentication. */
+export interface DeviceCredentialRow {
+  username: string;
+  passwordHash: string;
+  deviceId: number;
+  rigKey: string;
+  deviceKey: string;
+}
+
+export function findDeviceCredential(db: Conn, username: string): Promise<DeviceCredentialRow | undefined> {
+  return db
+    .selectFrom("device_credentials as k")
+    .innerJoin("devices as d", "d.id", "k.device_id")
+    .innerJoin("rigs as r", "r.id", "d.rig_id")
+    .select(["k.username", "k.password_hash as passwordHash", "d.id as deviceId", "r.key as rigKey", "d.key as deviceKey"])
+    .where("k.username", "=", username)
+    .executeTakeFirst();
+}
+
+export async function findDeviceId(db: Conn, rigKey: string, deviceKey: string): Promise<number | undefined> {
+  const row = await db
+    .selectFrom("devices as d")
+    .innerJoin("rigs as r", "r.id", "d.rig_id")
+    .select("d.id")
+    .where("r.key", "=", rigKey)
+    .where("d.key", "=", deviceKey)
+    .executeTakeFirst();
+  return row?.id;
+}
+
+/** Creates a credential or replaces the password of an existing username (same device only). */
+export async function upsertDeviceCredential(
+  db: Conn,
+  credential: { deviceId: number; username: string; passwordHash: string },
+): Promise<void> {
+  await db
+    .insertInto("device_credentials")
+    .values({ device_id: credential.deviceId, username: credential.username, password_hash: credential.passwordHash })
+    .onConflict((oc) =>
+      oc
+        .column("username")
+        .doUpdateSet({ password_hash: credential.passwordHash })
+        .where("device_credentials.device_id", "=", credential.deviceId),
+    )
+    .execute();
+}
+
+export async function deleteDeviceCredential(db: Conn, username: string): Promise<boolean> {
+  const result = await db.deleteFrom("device_credentials").where("username", "=", username).executeTakeFirst();
+  return result.numDeletedRows > 0n;
+}
