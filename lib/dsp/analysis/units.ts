@@ -14,3 +14,9 @@ export function toMs(samples: number, sampleRateHz: number): number {
   }
   return (1000 * samples) / sampleRateHz;
 }
+
+/** 10·log10(p) in dB for a power or PSD p ≥ 0, floored at MAGNITUDE_FLOOR_DB (common practice). */
+export function powerToDb(p: number): number {
+  if (!(p >= 0)) throw new Error(`a power must be a number ≥ 0 (got ${p})`);
+  return Math.max(10 * Math.log10(p), MAGNITUDE_FLOOR_DB);
+}

@@ -1,0 +1,12 @@
+export { analogResponse, type AnalogResponse, type AnalogSystem } from "./analog-response";
+export { cutoffPoints, HALF_POWER_DB, CUTOFF_TOLERANCE, type CutoffOptions } from "./cutoff";
+export { frequencyResponse, type FrequencyResponse } from "./frequency-response";
+export { attenuationDb, dcGain, peakGainDb } from "./gain";
+export { freqGrid } from "./grid";
+export { ON_CIRCLE_TOLERANCE } from "./group-delay";
+export { findPeaks, type PeakOptions, type SpectralPeak } from "./peaks";
+export { sectionInStabilityTriangle, stability, type Stability } from "./stability";
+export { MAX_STEP_SAMPLES, stepMetrics, type StepMetrics } from "./step-metrics";
+export { impulseResponse, stepResponse } from "./time-response";
+export { MAGNITUDE_FLOOR_DB, toMs } from "./units";
+export { periodicHann, welch, type WelchOptions, type WelchResult } from "./welch";
