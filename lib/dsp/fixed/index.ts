@@ -1,0 +1,13 @@
+export { assertDeployable } from "./deployable";
+export {
+  compareStructures,
+  quantizeDirectForm,
+  type DirectFormQuantization,
+  type StructureComparison,
+} from "./direct-form";
+export { quantizeGroup, quantizeSections, type QuantizedGroup, type QuantizedSections } from "./coefficient-quantizer";
+export { DEVIATION_FLOOR_DB, DEVIATION_GRID_POINTS } from "./deviation";
+export { spreadGain } from "./gain-spreading";
+export { fractionBits, roundHalfAway, toWord, wordLimits, wordToReal, type FixedFormat, type QuantFormat } from "./q-format";
+export { quantizeDesign, type QuantizedDesign } from "./quantize-design";
+export { MAX_Q15_TAPS, simulateFixed, type FixedSimulation } from "./simulate-fixed";

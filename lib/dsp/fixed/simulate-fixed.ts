@@ -1,0 +1,151 @@
+/**
+ * Bit-true model of the fixed-point arithmetic that firmware must match (Q15 or Q31, B = 16 or 32
+ * bits, F = B − 1 fraction bits). Common embedded practice (CMSIS-DSP biquad DF1 structure),
+ * with the rounding and saturation choices stated here.
+ *
+ * Input: each sample x becomes the word round(x·2^F) (nearest, ties away from zero), saturated
+ * to [−2^F, 2^F − 1]; a sample that hits a limit (i.e. lies outside [−1, 1 − 2^−F] after rounding)
+ * counts as an overflow. Non-finite samples are rejected (firmware only ever sees words).
+ *
+ * Each second-order section, direct form I, state = its last two input words x1, x2 and last two
+ * output words y1, y2 (all start at 0); coefficient words in OUR sign convention (see
+ * QuantizedDesign; firmware storing −a1, −a2 adds those products instead):
+ *   acc = b0·x + b1·x1 + b2·x2 − a1·y1 − a2·y2            (exact products, wide accumulator)
+ *   acc = acc + 2^(s − 1),  s = F − shift                   (round half up …)
+ *   out = acc >> s                                           (… by arithmetic shift right = floor)
+ *   out = saturate(out) to [−2^F, 2^F − 1]                   (a hit counts as an overflow)
+ *   x2 = x1, x1 = x, y2 = y1, y1 = out (the saturated word), and out feeds the next section.
+ * FIR designs: one "section" acc = Σ h[k]·x[n − k] over the input-word history, then the same
+ * rounding, shift by F − shift and saturation. The output sample is the last word · 2^−F.
+ *
+ * Accumulator:
+ * - Q15: 64-bit in firmware. Here float64, which is exact: each product is at most
+ *   2^15·2^15 = 2^30 in magnitude, a biquad sums 5 of them plus 2^(s−1) < 2^14, so |acc| < 2^33,
+ *   and a FIR of N ≤ 2^22 taps stays below 2^52; every integer below 2^53 is a double, so every
+ *   sum is exact, and floor(acc / 2^s) is exact too. A 64-bit accumulator never wraps here.
+ * - Q31: 64-bit two's complement in firmware, as in common embedded libraries (2.62 format with
+ *   one guard bit); products reach 2^62, beyond float64's 53 bits, so this model uses BigInt.
+ *   The exact sum, rounding constant included, is wrapped to 64 bits (BigInt.asIntN) like the
+ *   hardware would, and each wrap counts as an overflow.
+ */
+import { fractionBits, toWord, wordLimits, type FixedFormat } from "./q-format";
+import { maxShift } from "./coefficient-quantizer";
+import type { QuantizedDesign } from "./quantize-design";
+
+export interface FixedSimulation {
+  /** Output samples as real values (last section's words · 2^−F). */
+  y: Float64Array;
+  /** Saturations of inputs and section outputs, plus Q31 accumulator wraps. */
+  overflows: number;
+}
+
+/** Largest FIR length for which the float64 Q15 accumulator is provably exact (see header). */
+export const MAX_Q15_TAPS = 2 ** 22;
+
+interface Stage {
+  /** Numerator words, newest input first. */
+  b: number[];
+  /** Denominator words a1, a2 (empty for FIR). */
+  a: number[];
+  shift: number;
+}
+
+function stagesOf(q: QuantizedDesign, format: FixedFormat): Stage[] {
+  const words = q.integers;
+  if (!words) throw new Error(`the quantized design has no ${format} words`);
+  if (words.length !== q.shifts.length) throw new Error(`need one shift per row of words (${words.length} rows, ${q.shifts.length} shifts)`);
+  q.shifts.forEach((shift, i) => {
+    if (!Number.isInteger(shift) || shift < 0 || shift > maxShift(format)) {
+      throw new Error(`shift ${i} must be an integer in 0…${maxShift(format)} (got ${shift})`);
+    }
+  });
+  const { min, max } = wordLimits(format);
+  words.flat().forEach((w) => {
+    if (!Number.isInteger(w) || w < min || w > max) throw new Error(`words must be integers in ${min}…${max} (got ${w})`);
+  });
+  if (q.taps) {
+    if (format === "q15" && words[0].length > MAX_Q15_TAPS) {
+      throw new Error(`a Q15 FIR may have at most ${MAX_Q15_TAPS} taps (got ${words[0].length})`);
+    }
+    return [{ b: words[0], a: [], shift: q.shifts[0] }];
+  }
+  return words.map((row, i) => {
+    if (row.length !== 5) throw new Error(`section ${i} needs 5 words [b0, b1, b2, a1, a2] (got ${row.length})`);
+    return { b: row.slice(0, 3), a: row.slice(3, 5), shift: q.shifts[i] };
+  });
+}
+
+/** Q15 in exact float64 integer arithmetic. */
+function runQ15(stages: Stage[], inputs: number[], count: { overflows: number }): number[] {
+  const { min, max } = wordLimits("q15");
+  const xs = stages.map((s) => new Array<number>(s.b.length).fill(0));
+  const ys = stages.map(() => [0, 0]);
+  return inputs.map((input) => {
+    let v = input;
+    stages.forEach((stage, k) => {
+      const hx = xs[k];
+      hx.pop();
+      hx.unshift(v);
+      const s = 15 - stage.shift;
+      let acc = 2 ** (s - 1);
+      for (let i = 0; i < hx.length; i++) acc += stage.b[i] * hx[i];
+      if (stage.a.length) acc -= stage.a[0] * ys[k][0] + stage.a[1] * ys[k][1];
+      let out = Math.floor(acc / 2 ** s);
+      if (out > max || out < min) {
+        count.overflows++;
+        out = out > max ? max : min;
+      }
+      ys[k] = [out, ys[k][0]];
+      v = out;
+    });
+    return v;
+  });
+}
+
+/** Q31 with BigInt: exact products, 64-bit wrapping accumulator. */
+function runQ31(stages: Stage[], inputs: number[], count: { overflows: number }): number[] {
+  const { min, max } = wordLimits("q31");
+  const [lo, hi] = [BigInt(min), BigInt(max)];
+  const big = stages.map((s) => ({ b: s.b.map(BigInt), a: s.a.map(BigInt), s: BigInt(31 - s.shift) }));
+  const xs = stages.map((s) => new Array<bigint>(s.b.length).fill(0n));
+  const ys = stages.map(() => [0n, 0n]);
+  return inputs.map((input) => {
+    let v = BigInt(input);
+    big.forEach((stage, k) => {
+      const hx = xs[k];
+      hx.pop();
+      hx.unshift(v);
+      let exact = 1n << (stage.s - 1n);
+      for (let i = 0; i < hx.length; i++) exact += stage.b[i] * hx[i];
+      if (stage.a.length) exact -= stage.a[0] * ys[k][0] + stage.a[1] * ys[k][1];
+      const acc = BigInt.asIntN(64, exact);
+      if (acc !== exact) count.overflows++;
+      let out = acc >> stage.s;
+      if (out > hi || out < lo) {
+        count.overflows++;
+        out = out > hi ? hi : lo;
+      }
+      ys[k] = [out, ys[k][0]];
+      v = out;
+    });
+    return Number(v);
+  });
+}
+
+/** Run a Q15 or Q31 quantized design on x (real values, full scale ±1) exactly as firmware would (see header). */
+export function simulateFixed(q: QuantizedDesign, x: Float64Array): FixedSimulation {
+  if (q.format === "f32") {
+    throw new Error("simulateFixed models Q15/Q31 words; an f32 design has none (run its sos with filterSignal)");
+  }
+  const format = q.format;
+  const stages = stagesOf(q, format);
+  const count = { overflows: 0 };
+  const inputs = Array.from(x, (v) => {
+    const { word, saturated } = toWord(v, format);
+    if (saturated) count.overflows++;
+    return word;
+  });
+  const words = format === "q15" ? runQ15(stages, inputs, count) : runQ31(stages, inputs, count);
+  const scale = 2 ** fractionBits(format);
+  return { y: Float64Array.from(words, (w) => w / scale), overflows: count.overflows };
+}
