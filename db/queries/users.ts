@@ -50,15 +50,15 @@ export function updateUser(
     .executeTakeFirst();
 }
 
-export async function recordLoginFailure(db: Conn, email: string, address: string): Promise<void> {
-  await db.insertInto("login_failures").values({ email: email.toLowerCase(), address }).execute();
+export async function recordLoginFailure(db: Conn, email: string, address: string | null): Promise<void> {
+  await db.insertInto("login_failures").values({ email: email.toLowerCase(), address: address ?? "" }).execute();
 }
 
-/** Failures inside the window, per account and per address. */
+/** Failures inside the window, per account and per address (0 when the address is unknown). */
 export async function countLoginFailures(
   db: Conn,
   email: string,
-  address: string,
+  address: string | null,
   windowMs: number,
 ): Promise<{ account: number; address: number }> {
   const since = new Date(Date.now() - windowMs);
@@ -66,7 +66,7 @@ export async function countLoginFailures(
     .selectFrom("login_failures")
     .select([
       sql<number>`count(*) filter (where email = ${email.toLowerCase()})::int`.as("account"),
-      sql<number>`count(*) filter (where address = ${address})::int`.as("address"),
+      sql<number>`count(*) filter (where address <> '' and address = ${address ?? ""})::int`.as("address"),
     ])
     .where("at", ">", since)
     .executeTakeFirstOrThrow();

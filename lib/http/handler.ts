@@ -37,8 +37,11 @@ export async function parseBody<S extends z.ZodType>(req: Request, schema: S): P
   return parseWith(schema, value);
 }
 
-/** The caller's address as reported by the front proxy, or "local" when there is none. */
-export function clientAddress(req: Request): string {
+/**
+ * The caller's address as reported by a front proxy (X-Forwarded-For, X-Real-IP), or null when no
+ * proxy reports one: Next route handlers do not see the socket address.
+ */
+export function clientAddress(req: Request): string | null {
   const forwarded = req.headers.get("x-forwarded-for")?.split(",")[0]?.trim();
-  return forwarded || req.headers.get("x-real-ip") || "local";
+  return forwarded || req.headers.get("x-real-ip") || null;
 }

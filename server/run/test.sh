@@ -4,6 +4,11 @@ set -uo pipefail
 ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)
 cd "$ROOT"
 set -e
+# End-to-end runs start from a fresh demo database so earlier runs leave nothing behind.
+if [ -z "${DATABASE_URL:-}" ]; then
+  bash db/cluster.sh start >/dev/null
+  psql -h 127.0.0.1 -p "${PG_PORT:-5433}" -U postgres -qc "drop database if exists tapwright_e2e with (force)"
+fi
 source server/run/setup.sh tapwright_e2e --with-browser
 set +e
 E2E_DATABASE_URL=$DATABASE_URL
