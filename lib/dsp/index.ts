@@ -52,3 +52,4 @@ export { expm, type Matrix } from "./linalg";
 
 export * from "./analysis";
 export * from "./engine";
+export * from "./fixed";
