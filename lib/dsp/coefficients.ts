@@ -5,7 +5,9 @@
  * `dtype=...`; numpy-2 scalars `np.float64(x)`; a leading declaration such as
  * `static const float b[3] =` or `b =`; comments `//`, `/* *\/`, `#` and `%`.
  * Shape: one list of numbers, or rows (nested lists, `;`-separated rows, or — when the text has no
- * brackets — one row per line). Rows must have equal lengths; a column of single numbers is a list.
+ * brackets — one row per line); `[[…]]` is one row, a final `;` ends a statement, and parentheses
+ * around a single list (a call such as `array(...)`) add no level. Rows must have equal lengths; a
+ * column of single numbers is a list.
  */
 
 export class CoefficientParseError extends Error {
@@ -75,9 +77,12 @@ export function parseCoefficientText(text: string): number[] | number[][] {
     return finish();
 
     function finish(): Node {
-      if (rows.length === 0) return { offset: start, value: row };
       endRow(start);
-      return { offset: start, value: rows };
+      if (rows.length !== 1) return { offset: start, value: rows };
+      const [only] = rows;
+      const items = only.value as Node[];
+      const isCallWrapper = openToken?.kind === "open" && openToken.char === "(" && items.length === 1;
+      return isCallWrapper && Array.isArray(items[0].value) ? items[0] : { offset: start, value: items };
     }
   };
 
@@ -136,11 +141,18 @@ function tokenize(cleaned: string, original: string): Token[] {
   return tokens;
 }
 
-/** Unwraps single-element nesting, then returns a list of numbers or equal-length rows. */
+/**
+ * The implicit top level is dropped when it holds one list; further single-element wrappers are dropped
+ * only while they hold rows (so `[[…]]` stays one row). Returns a list of numbers or equal-length rows.
+ */
 function shape(tree: Node, text: string): number[] | number[][] {
-  let node = tree;
-  while (Array.isArray(node.value) && node.value.length === 1 && Array.isArray(node.value[0].value)) {
-    node = node.value[0];
+  const onlyList = (n: Node): Node | undefined => {
+    const items = n.value as Node[];
+    return items.length === 1 && Array.isArray(items[0].value) ? items[0] : undefined;
+  };
+  let node = onlyList(tree) ?? tree;
+  for (let inner = onlyList(node); inner && (inner.value as Node[]).some((c) => Array.isArray(c.value)); inner = onlyList(node)) {
+    node = inner;
   }
   const items = node.value as Node[];
   if (items.length === 0) throw parseError(text, "no numbers found", node.offset);
