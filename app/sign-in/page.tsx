@@ -3,6 +3,8 @@ import { redirect } from "next/navigation";
 import { currentUser } from "@/app/_lib/auth";
 import { SignInForm } from "@/components/auth/sign-in-form";
 import { Logo } from "@/components/shell/logo";
+import { DEMO_ACCOUNTS } from "@/lib/demo/lab";
+import { env } from "@/lib/env";
 
 export const metadata: Metadata = { title: "Sign in" };
 
@@ -18,6 +20,13 @@ export default async function SignInPage() {
         <div className="card p-6">
           <SignInForm />
         </div>
+        {env().DEMO === "1" && (
+          <aside className="mt-4 text-xs text-slate-500" aria-label="Demo accounts">
+            <p>Demo lab accounts, one per role ({DEMO_ACCOUNTS.map((a) => a.role).join(", ")}):</p>
+            <p className="num mt-1">{DEMO_ACCOUNTS.map((a) => a.email).join(" · ")}</p>
+            <p className="mt-1">The password is set by DEMO_PASSWORD and printed by npm start.</p>
+          </aside>
+        )}
       </div>
     </main>
   );
