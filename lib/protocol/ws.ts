@@ -45,10 +45,11 @@ export type WsErrorCode = (typeof WS_ERROR_CODES)[number];
 const number = z.number();
 
 /**
- * New samples of one channel since the previous frame to this client. Without decimation, point i
- * is at t0 + i·1000/sampleRateHz ms. With decimation, every `bucketSamples` input samples become
- * two points (the bucket's minimum and maximum, in the order they occurred), and raw, production
- * and candidates are decimated alike; the frame then starts at a bucket boundary.
+ * New samples of one channel since the previous frame to this client; `samples` input samples
+ * starting at t0 (ms), `seq` the newest message they came from. Without decimation, point i is at
+ * t0 + i·1000/sampleRateHz. With decimation, each bucket of `bucketSamples` consecutive samples
+ * (the last one possibly shorter) becomes two points, its minimum and maximum in the order they
+ * occurred; raw, production and every candidate are decimated alike, each keeping its own extremes.
  */
 export const frameMessageSchema = z
   .object({
@@ -59,6 +60,7 @@ export const frameMessageSchema = z
     sampleRateHz: number,
     raw: z.array(number),
     traces: z.record(z.string(), z.array(number)),
+    samples: z.number().int().min(1),
     decimated: z.boolean(),
     bucketSamples: z.number().int().min(1).optional(),
   })

@@ -1,0 +1,69 @@
+import { decodeSamples, MAX_PAYLOAD_BYTES, parseTopic, type SampleBatch } from "@/lib/protocol";
+import type { FaultLog } from "./fault-log";
+
+/** What ingest knows of a channel. */
+export interface ChannelInfo {
+  path: string;
+  sampleRateHz: number;
+}
+
+/** Where accepted batches go (the live pipeline). */
+export interface BatchSink {
+  push(path: string, batch: SampleBatch): void;
+}
+
+/** Relative sample-rate difference tolerated between a message and its channel (covers float32 rounding). */
+const RATE_TOLERANCE = 1e-6;
+
+export interface Ingest {
+  /** Handles one MQTT message; never throws (a thrown error is counted as handler_error). */
+  handle(topic: string, payload: Uint8Array): void;
+  /** Accepted messages and samples so far. */
+  readonly accepted: { messages: number; samples: number };
+}
+
+/**
+ * Checks and decodes sample messages in this order: size, topic, channel, payload, sample rate,
+ * sequence. A sequence gap is counted and the batch still used: the filter state carries on
+ * across the gap as if the missing samples never existed.
+ */
+export function createIngest(deps: { channels: readonly ChannelInfo[]; sink: BatchSink; faults: FaultLog }): Ingest {
+  const channels = new Map(deps.channels.map((c) => [c.path, c]));
+  const lastSeq = new Map<string, number>();
+  const accepted = { messages: 0, samples: 0 };
+
+  function handleUnsafe(topic: string, payload: Uint8Array): void {
+    const parsed = parseTopic(topic);
+    if (!parsed || parsed.kind !== "samples") return deps.faults.record(topic.slice(0, 128), "bad_topic");
+    const { path } = parsed;
+    if (payload.byteLength > MAX_PAYLOAD_BYTES) return deps.faults.record(path, "oversized", `${payload.byteLength} bytes`);
+    const channel = channels.get(path);
+    if (!channel) return deps.faults.record(path, "unknown_channel");
+    const result = decodeSamples(payload);
+    if (!result.ok) return deps.faults.record(path, result.fault);
+    const { batch } = result;
+    if (Math.abs(batch.sampleRateHz - channel.sampleRateHz) > RATE_TOLERANCE * channel.sampleRateHz) {
+      return deps.faults.record(path, "rate_mismatch", `${batch.sampleRateHz} Hz, channel is ${channel.sampleRateHz} Hz`);
+    }
+    const previous = lastSeq.get(path);
+    if (previous !== undefined && batch.seq !== ((previous + 1) >>> 0)) {
+      deps.faults.record(path, "seq_gap", `${previous} → ${batch.seq}`);
+    }
+    lastSeq.set(path, batch.seq);
+    deps.sink.push(path, batch);
+    accepted.messages++;
+    accepted.samples += batch.values.length;
+  }
+
+  return {
+    accepted,
+    handle(topic, payload) {
+      try {
+        handleUnsafe(topic, payload);
+      } catch (err) {
+        deps.faults.record(parseTopic(topic)?.kind === "samples" ? topic.split("/").slice(2, 5).join("/") : "(unknown)", "handler_error",
+          err instanceof Error ? err.message : String(err));
+      }
+    },
+  };
+}

@@ -1,0 +1,215 @@
+import { createFilterBank, type FilterDesign } from "@/lib/dsp";
+import { MAX_CANDIDATES_PER_CLIENT, type CandidateMetrics, type SampleBatch } from "@/lib/protocol";
+import type { BatchSink, ChannelInfo } from "../ingest/ingest";
+import { candidateMetrics } from "./metrics";
+import { SampleRing } from "./ring";
+
+/** Filter key of the production slot in every channel's bank and in frames. */
+export const PRODUCTION = "production";
+
+/** Contiguous new samples of a channel (one sequence run) with every filter's output beside them. */
+export interface PendingBlock {
+  /** Sequence numbers of the first and the newest message in the block. */
+  seq: number;
+  lastSeq: number;
+  t0: number;
+  raw: number[];
+  /** Filter key ("production" or `<owner>/<id>`) → output, same length as raw. */
+  traces: Map<string, number[]>;
+}
+
+interface Candidate {
+  design: FilterDesign;
+  output: SampleRing;
+  /** Samples the candidate has filtered since it was added. */
+  filtered: number;
+}
+
+interface LiveChannel {
+  info: ChannelInfo;
+  raw: SampleRing;
+  production: { revisionId: string; design: FilterDesign } | null;
+  candidates: Map<string, Candidate>;
+  pending: PendingBlock[];
+  nextSeq: number | null;
+  /** Set when the filter set changed, so the next batch opens a new block with aligned traces. */
+  breakBlock: boolean;
+}
+
+export class CandidateLimitError extends Error {}
+
+export interface Pipeline extends BatchSink {
+  /** Sets or clears (design null) the channel's production filter; its state starts at rest. */
+  setProductionFilter(path: string, revisionId: string, design: FilterDesign | null): void;
+  productionRevision(path: string): string | null;
+  /** Adds a candidate for `owner`; throws CandidateLimitError past MAX_CANDIDATES_PER_CLIENT or for a taken id. */
+  addCandidate(path: string, owner: string, id: string, design: FilterDesign): void;
+  removeCandidate(path: string, owner: string, id: string): boolean;
+  /** Removes every candidate of an owner (a closed connection). */
+  removeOwner(owner: string): void;
+  /** New samples since the last drain, in sequence runs; clears them. */
+  drain(path: string): PendingBlock[];
+  /** Live metrics of an owner's candidates on a channel (null fields until a candidate has settled). */
+  metrics(path: string, owner: string): Record<string, CandidateMetrics>;
+  /** The last `seconds` of raw samples (at most the history kept). */
+  history(path: string, seconds: number): Float64Array;
+  channel(path: string): ChannelInfo | undefined;
+  paths(): string[];
+}
+
+export const candidateKey = (owner: string, id: string): string => `${owner}/${id}`;
+
+const EMPTY_METRICS: CandidateMetrics = {
+  removedRms: null,
+  lagMs: null,
+  measuredAttenuationDb: null,
+  predictedAttenuationDb: null,
+  noiseLineHz: null,
+};
+
+/**
+ * The live pipeline: per channel a ring of raw samples, the production slot and any number of
+ * candidates, all run on every sample by one lib/dsp filter bank. Accepted batches come in through
+ * push (from ingest); filtered production output goes out through onFiltered (for republishing).
+ */
+export function createPipeline(deps: {
+  channels: readonly ChannelInfo[];
+  historySeconds?: number;
+  /** Seconds a candidate runs before its metrics are reported (its transient settles). */
+  settleSeconds?: number;
+  onFiltered?: (path: string, batch: SampleBatch, values: Float64Array) => void;
+}): Pipeline {
+  const historySeconds = deps.historySeconds ?? 60;
+  const settleSeconds = deps.settleSeconds ?? 1;
+  const bank = createFilterBank();
+  const live = new Map<string, LiveChannel>(
+    deps.channels.map((info) => [
+      info.path,
+      {
+        info,
+        raw: new SampleRing(Math.ceil(historySeconds * info.sampleRateHz)),
+        production: null,
+        candidates: new Map(),
+        pending: [],
+        nextSeq: null,
+        breakBlock: false,
+      },
+    ]),
+  );
+
+  function channelOf(path: string): LiveChannel {
+    const ch = live.get(path);
+    if (!ch) throw new Error(`unknown channel '${path}'`);
+    return ch;
+  }
+
+  function blockFor(ch: LiveChannel, batch: SampleBatch): PendingBlock {
+    const last = ch.pending.at(-1);
+    const contiguous = last && !ch.breakBlock && ch.nextSeq === batch.seq;
+    ch.breakBlock = false;
+    ch.nextSeq = (batch.seq + 1) >>> 0;
+    if (contiguous) {
+      last.lastSeq = batch.seq;
+      return last;
+    }
+    const block: PendingBlock = { seq: batch.seq, lastSeq: batch.seq, t0: batch.t0, raw: [], traces: new Map() };
+    ch.pending.push(block);
+    return block;
+  }
+
+  function push(path: string, batch: SampleBatch): void {
+    const ch = channelOf(path);
+    ch.raw.push(batch.values);
+    const block = blockFor(ch, batch);
+    for (let i = 0; i < batch.values.length; i++) block.raw.push(batch.values[i]);
+    if (!ch.production && ch.candidates.size === 0) return;
+    const outputs = bank.process(path, batch.values);
+    for (const [key, y] of outputs) {
+      let trace = block.traces.get(key);
+      if (!trace) block.traces.set(key, (trace = []));
+      for (let i = 0; i < y.length; i++) trace.push(y[i]);
+      const candidate = ch.candidates.get(key);
+      if (candidate) {
+        candidate.output.push(y);
+        candidate.filtered += y.length;
+      } else if (key === PRODUCTION) {
+        deps.onFiltered?.(path, batch, y);
+      }
+    }
+  }
+
+  return {
+    push,
+    setProductionFilter(path, revisionId, design) {
+      const ch = channelOf(path);
+      if (ch.production) bank.remove(path, PRODUCTION);
+      ch.production = null;
+      if (design) {
+        bank.add(path, PRODUCTION, design);
+        ch.production = { revisionId, design };
+      }
+      ch.breakBlock = true;
+    },
+    productionRevision: (path) => channelOf(path).production?.revisionId ?? null,
+    addCandidate(path, owner, id, design) {
+      const ch = channelOf(path);
+      const key = candidateKey(owner, id);
+      if (ch.candidates.has(key)) throw new CandidateLimitError(`candidate '${id}' already exists on ${path}`);
+      const mine = [...ch.candidates.keys()].filter((k) => k.startsWith(`${owner}/`)).length;
+      if (mine >= MAX_CANDIDATES_PER_CLIENT) {
+        throw new CandidateLimitError(`at most ${MAX_CANDIDATES_PER_CLIENT} candidates per channel`);
+      }
+      bank.add(path, key, design);
+      ch.candidates.set(key, { design, output: new SampleRing(Math.ceil(ch.info.sampleRateHz)), filtered: 0 });
+      ch.breakBlock = true;
+    },
+    removeCandidate(path, owner, id) {
+      const ch = channelOf(path);
+      const key = candidateKey(owner, id);
+      if (!ch.candidates.delete(key)) return false;
+      bank.remove(path, key);
+      return true;
+    },
+    removeOwner(owner) {
+      for (const [path, ch] of live) {
+        for (const key of [...ch.candidates.keys()]) {
+          if (!key.startsWith(`${owner}/`)) continue;
+          ch.candidates.delete(key);
+          bank.remove(path, key);
+        }
+      }
+    },
+    drain(path) {
+      const ch = channelOf(path);
+      const blocks = ch.pending;
+      ch.pending = [];
+      return blocks;
+    },
+    metrics(path, owner) {
+      const ch = channelOf(path);
+      const fs = ch.info.sampleRateHz;
+      const n = Math.ceil(fs);
+      const result: Record<string, CandidateMetrics> = {};
+      for (const [key, c] of ch.candidates) {
+        if (!key.startsWith(`${owner}/`)) continue;
+        const id = key.slice(owner.length + 1);
+        if (c.filtered < n + settleSeconds * fs) {
+          result[id] = EMPTY_METRICS;
+          continue;
+        }
+        try {
+          result[id] = candidateMetrics(ch.raw.latest(n), c.output.latest(n), c.design);
+        } catch {
+          result[id] = EMPTY_METRICS;
+        }
+      }
+      return result;
+    },
+    history: (path, seconds) => {
+      const ch = channelOf(path);
+      return ch.raw.latest(Math.round(seconds * ch.info.sampleRateHz));
+    },
+    channel: (path) => live.get(path)?.info,
+    paths: () => [...live.keys()],
+  };
+}

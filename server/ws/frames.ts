@@ -1,0 +1,72 @@
+import type { FrameMessage } from "@/lib/protocol";
+import { minMaxDecimate } from "../pipeline/decimate";
+import type { PendingBlock } from "../pipeline/pipeline";
+
+/** One shared view of a channel: clients with the same trace set and bucket size get the same text. */
+export interface ViewState {
+  path: string;
+  sampleRateHz: number;
+  /** Filter key in the pipeline → trace id in the frame. */
+  traceIds: Map<string, string>;
+  bucket: number;
+  /** Decimated views hold back samples short of a whole bucket until the next tick. */
+  carry: PendingBlock | null;
+}
+
+function pick(view: ViewState, block: PendingBlock, from: number, to: number, bucket: number): FrameMessage {
+  const reduce = (v: number[]) => (bucket === 1 ? v.slice(from, to) : minMaxDecimate(v.slice(from, to), bucket));
+  const traces: Record<string, number[]> = {};
+  for (const [key, id] of view.traceIds) {
+    const trace = block.traces.get(key);
+    if (trace) traces[id] = reduce(trace);
+  }
+  const frame: FrameMessage = {
+    type: "frame",
+    channel: view.path,
+    seq: block.lastSeq,
+    t0: block.t0 + (from * 1000) / view.sampleRateHz,
+    sampleRateHz: view.sampleRateHz,
+    raw: reduce(block.raw),
+    traces,
+    samples: to - from,
+    decimated: bucket > 1,
+  };
+  if (bucket > 1) frame.bucketSamples = bucket;
+  return frame;
+}
+
+function concat(a: PendingBlock, b: PendingBlock): PendingBlock {
+  const traces = new Map<string, number[]>();
+  for (const [key, t] of b.traces) {
+    const head = a.traces.get(key);
+    if (head) traces.set(key, head.concat(t));
+  }
+  return { seq: a.seq, lastSeq: b.lastSeq, t0: a.t0, raw: a.raw.concat(b.raw), traces };
+}
+
+/**
+ * Frames for one view from this tick's blocks. Undecimated: one frame per block. Decimated: whole
+ * buckets only, the remainder carried to the next tick while the sequence continues; a break in
+ * the sequence flushes the remainder as a short last bucket. A frame's seq is the newest message
+ * it draws on.
+ */
+export function buildFrames(view: ViewState, blocks: readonly PendingBlock[]): FrameMessage[] {
+  const frames: FrameMessage[] = [];
+  for (const block of blocks) {
+    if (view.bucket === 1) {
+      frames.push(pick(view, block, 0, block.raw.length, 1));
+      continue;
+    }
+    let work = block;
+    if (view.carry && ((view.carry.lastSeq + 1) >>> 0) === block.seq) work = concat(view.carry, block);
+    else if (view.carry) frames.push(pick(view, view.carry, 0, view.carry.raw.length, view.bucket));
+    view.carry = null;
+    const whole = Math.floor(work.raw.length / view.bucket) * view.bucket;
+    if (whole > 0) frames.push(pick(view, work, 0, whole, view.bucket));
+    if (whole < work.raw.length) {
+      const traces = new Map([...work.traces].map(([k, t]) => [k, t.slice(whole)]));
+      view.carry = { seq: work.seq, lastSeq: work.lastSeq, t0: work.t0 + (whole * 1000) / view.sampleRateHz, raw: work.raw.slice(whole), traces };
+    }
+  }
+  return frames;
+}

@@ -1,0 +1,264 @@
+import { designFilter } from "@/lib/dsp";
+import type { SessionUser } from "@/lib/auth/guard";
+import { requireRole } from "@/lib/auth/guard";
+import { AppError } from "@/lib/errors";
+import { clientMessageSchema, type ClientMessage, type ServerMessage, type WsErrorCode } from "@/lib/protocol";
+import type { BusState } from "../broker/bus";
+import type { Clock, Logger, Timer } from "../clock";
+import type { FaultLog } from "../ingest/fault-log";
+import { bucketSize } from "../pipeline/decimate";
+import { CandidateLimitError, candidateKey, PRODUCTION, type PendingBlock, type Pipeline } from "../pipeline/pipeline";
+import { buildFrames, type ViewState } from "./frames";
+
+/** One browser connection as the hub sees it; the WebSocket server supplies it. */
+export interface ClientConn {
+  /** Unique per connection; owns the connection's candidates. */
+  id: string;
+  user: SessionUser;
+  send(text: string): void;
+  /** Bytes queued for the socket but not yet sent (ws.bufferedAmount). */
+  bufferedAmount(): number;
+}
+
+interface Subscription {
+  window: { seconds: number; maxPoints: number } | null;
+}
+
+interface ClientState {
+  conn: ClientConn;
+  subs: Map<string, Subscription>;
+  droppedFrames: number;
+  /** Channels on which this client has candidates. */
+  candidates: Map<string, Set<string>>;
+}
+
+export interface HubOptions {
+  pipeline: Pipeline;
+  faults: FaultLog;
+  clock: Clock;
+  logger: Logger;
+  busState: () => BusState;
+  /** A client with more than this many bytes queued loses frames until it catches up. */
+  maxBufferedBytes?: number;
+  frameIntervalMs?: number;
+  metricsIntervalMs?: number;
+  statusIntervalMs?: number;
+}
+
+export interface Hub {
+  add(conn: ClientConn): void;
+  remove(id: string): void;
+  /** Handles one text message from a client; replies with an error message on any refusal. */
+  message(id: string, text: string): void;
+  /** Sends new samples of every channel to its subscribers (driven by the frame timer). */
+  tick(): void;
+  metricsTick(): void;
+  statusTick(): void;
+  start(): void;
+  stop(): void;
+  readonly clientCount: number;
+}
+
+class Refusal extends Error {
+  constructor(readonly code: WsErrorCode, message: string) {
+    super(message);
+  }
+}
+
+/**
+ * Fans the pipeline out to WebSocket clients. Each tick drains every channel once; clients that
+ * share a view (same trace set and bucket size) get one JSON text stringified once. A client whose
+ * socket is backed up loses frames (counted, reported in its status), never slowing the others.
+ */
+export function createHub(opts: HubOptions): Hub {
+  const maxBuffered = opts.maxBufferedBytes ?? 1 << 20;
+  const clients = new Map<string, ClientState>();
+  const views = new Map<string, ViewState>();
+  const timers: Timer[] = [];
+
+  function send(state: ClientState, message: ServerMessage): void {
+    state.conn.send(JSON.stringify(message));
+  }
+
+  function statusMessage(state: ClientState): ServerMessage {
+    const all = opts.faults.byChannel();
+    const faults = Object.fromEntries([...state.subs.keys()].filter((p) => all[p]).map((p) => [p, all[p]]));
+    return { type: "status", mqtt: opts.busState(), droppedFrames: state.droppedFrames, faults };
+  }
+
+  function viewFor(state: ClientState, path: string, sub: Subscription): ViewState {
+    const info = opts.pipeline.channel(path)!;
+    const owned = state.candidates.get(path);
+    const bucket = sub.window ? bucketSize(Math.round(sub.window.seconds * info.sampleRateHz), sub.window.maxPoints) : 1;
+    const key = `${path}|${owned?.size ? state.conn.id : "*"}|${bucket}`;
+    let view = views.get(key);
+    if (!view) {
+      const traceIds = new Map<string, string>([[PRODUCTION, PRODUCTION]]);
+      for (const id of owned ?? []) traceIds.set(candidateKey(state.conn.id, id), id);
+      view = { path, sampleRateHz: info.sampleRateHz, traceIds, bucket, carry: null };
+      views.set(key, view);
+    }
+    return view;
+  }
+
+  /** Views depend on a client's candidates; drop its private views when they change. */
+  function forgetViews(state: ClientState, path: string): void {
+    for (const key of views.keys()) if (key.startsWith(`${path}|${state.conn.id}|`)) views.delete(key);
+  }
+
+  function handle(state: ClientState, msg: ClientMessage): void {
+    const { pipeline } = opts;
+    const info = pipeline.channel(msg.channel);
+    if (!info) throw new Refusal("unknown_channel", `No channel ${msg.channel}.`);
+    switch (msg.type) {
+      case "subscribe":
+        requireRole(state.conn.user, "operator");
+        state.subs.set(msg.channel, state.subs.get(msg.channel) ?? { window: null });
+        return;
+      case "unsubscribe":
+        state.subs.delete(msg.channel);
+        return;
+      case "window": {
+        const sub = state.subs.get(msg.channel);
+        if (!sub) throw new Refusal("not_subscribed", `Subscribe to ${msg.channel} first.`);
+        sub.window = { seconds: msg.seconds, maxPoints: msg.maxPoints };
+        return;
+      }
+      case "candidate.add": {
+        requireRole(state.conn.user, "engineer");
+        if (msg.spec.sampleRateHz !== info.sampleRateHz) {
+          throw new Refusal("bad_spec", `The spec's sample rate must be the channel's ${info.sampleRateHz} Hz.`);
+        }
+        let design;
+        try {
+          design = designFilter(msg.spec);
+        } catch (err) {
+          throw new Refusal("bad_spec", err instanceof Error ? err.message : "The filter could not be designed.");
+        }
+        try {
+          pipeline.addCandidate(msg.channel, state.conn.id, msg.id, design);
+        } catch (err) {
+          if (err instanceof CandidateLimitError) {
+            throw new Refusal(err.message.includes("already") ? "duplicate_candidate" : "too_many_candidates", err.message);
+          }
+          throw err;
+        }
+        const owned = state.candidates.get(msg.channel) ?? new Set();
+        state.candidates.set(msg.channel, owned.add(msg.id));
+        forgetViews(state, msg.channel);
+        return;
+      }
+      case "candidate.remove": {
+        requireRole(state.conn.user, "engineer");
+        if (!pipeline.removeCandidate(msg.channel, state.conn.id, msg.id)) {
+          throw new Refusal("unknown_candidate", `No candidate ${msg.id} on ${msg.channel}.`);
+        }
+        state.candidates.get(msg.channel)?.delete(msg.id);
+        forgetViews(state, msg.channel);
+        return;
+      }
+    }
+  }
+
+  function sendFrames(path: string, blocks: PendingBlock[]): void {
+    const texts = new Map<ViewState, string[]>();
+    for (const state of clients.values()) {
+      const sub = state.subs.get(path);
+      if (!sub) continue;
+      const view = viewFor(state, path, sub);
+      let out = texts.get(view);
+      if (!out) texts.set(view, (out = buildFrames(view, blocks).map((f) => JSON.stringify(f))));
+      if (state.conn.bufferedAmount() > maxBuffered) {
+        state.droppedFrames += out.length;
+        continue;
+      }
+      for (const text of out) state.conn.send(text);
+    }
+  }
+
+  const hub: Hub = {
+    get clientCount() {
+      return clients.size;
+    },
+    add(conn) {
+      const state: ClientState = { conn, subs: new Map(), droppedFrames: 0, candidates: new Map() };
+      clients.set(conn.id, state);
+      const channels = opts.pipeline.paths().map((path) => ({ path, sampleRateHz: opts.pipeline.channel(path)!.sampleRateHz }));
+      send(state, { type: "hello", protocol: 1, role: conn.user.role, channels });
+      send(state, statusMessage(state));
+    },
+    remove(id) {
+      const state = clients.get(id);
+      if (!state) return;
+      clients.delete(id);
+      opts.pipeline.removeOwner(id);
+      for (const path of state.candidates.keys()) forgetViews(state, path);
+    },
+    message(id, text) {
+      const state = clients.get(id);
+      if (!state) return;
+      try {
+        let json: unknown;
+        try {
+          json = JSON.parse(text);
+        } catch {
+          throw new Refusal("bad_message", "Messages must be JSON.");
+        }
+        const parsed = clientMessageSchema.safeParse(json);
+        if (!parsed.success) {
+          const issue = parsed.error.issues[0];
+          throw new Refusal("bad_message", `${issue.path.join(".") || "message"}: ${issue.message}`);
+        }
+        handle(state, parsed.data);
+      } catch (err) {
+        if (err instanceof Refusal) return send(state, { type: "error", code: err.code, message: err.message });
+        if (err instanceof AppError) {
+          const code: WsErrorCode = err.code === "forbidden" || err.code === "unauthorized" ? "forbidden" : "internal";
+          return send(state, { type: "error", code, message: err.message });
+        }
+        opts.logger.warn(`ws message failed: ${err instanceof Error ? err.message : String(err)}`);
+        send(state, { type: "error", code: "internal", message: "The message could not be handled." });
+      }
+    },
+    tick() {
+      for (const path of opts.pipeline.paths()) {
+        const blocks = opts.pipeline.drain(path);
+        if (blocks.length) sendFrames(path, blocks);
+      }
+    },
+    metricsTick() {
+      for (const state of clients.values()) {
+        for (const [path, ids] of state.candidates) {
+          if (!ids.size || !state.subs.has(path)) continue;
+          send(state, { type: "metrics", channel: path, candidates: opts.pipeline.metrics(path, state.conn.id) });
+        }
+      }
+    },
+    statusTick() {
+      const live = new Set<ViewState>();
+      for (const state of clients.values()) {
+        send(state, statusMessage(state));
+        for (const [path, sub] of state.subs) live.add(viewFor(state, path, sub));
+      }
+      for (const [key, view] of views) if (!live.has(view)) views.delete(key);
+    },
+    start() {
+      timers.push(opts.clock.setInterval(() => guarded("frame", hub.tick), opts.frameIntervalMs ?? 33));
+      timers.push(opts.clock.setInterval(() => guarded("metrics", hub.metricsTick), opts.metricsIntervalMs ?? 1000));
+      timers.push(opts.clock.setInterval(() => guarded("status", hub.statusTick), opts.statusIntervalMs ?? 2000));
+    },
+    stop() {
+      for (const t of timers.splice(0)) opts.clock.clearInterval(t);
+    },
+  };
+
+  function guarded(what: string, fn: () => void): void {
+    try {
+      fn();
+    } catch (err) {
+      opts.logger.warn(`${what} tick failed: ${err instanceof Error ? err.message : String(err)}`);
+    }
+  }
+
+  return hub;
+}
