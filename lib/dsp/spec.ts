@@ -139,9 +139,10 @@ export const analogSpecSchema = z
   })
   .superRefine((spec, ctx) => {
     const degree = (p: number[]) => p.length - 1 - p.findIndex((c) => c !== 0);
-    if (spec.num.every((c) => c === 0)) refuse(ctx, ["num"], "num must have a nonzero coefficient");
-    if (spec.den.every((c) => c === 0)) refuse(ctx, ["den"], "den must have a nonzero coefficient");
-    else if (spec.num.some((c) => c !== 0) && degree(spec.num) > degree(spec.den)) {
+    const allZero = (p: number[]) => p.length > 0 && p.every((c) => c === 0);
+    if (allZero(spec.num)) refuse(ctx, ["num"], "num must have a nonzero coefficient");
+    if (allZero(spec.den)) refuse(ctx, ["den"], "den must have a nonzero coefficient");
+    else if (spec.num.some((c) => c !== 0) && spec.den.length > 0 && degree(spec.num) > degree(spec.den)) {
       refuse(
         ctx,
         ["num"],
@@ -178,6 +179,7 @@ export const coefficientsSpecSchema = z
       if (spec.b !== undefined) refuse(ctx, ["b"], "give either b (and a) or sos, not both");
       if (spec.a !== undefined) refuse(ctx, ["a"], "give either b (and a) or sos, not both");
       spec.sos.forEach((row, i) => {
+        if (row.length !== 6) return;
         if (row[3] === 0) refuse(ctx, ["sos", i, 3], `sos row ${i} has a0 = 0; a0 must be nonzero`);
         if (row.slice(0, 3).every((c) => c === 0)) {
           refuse(ctx, ["sos", i], `sos row ${i} has an all-zero numerator`);
@@ -189,7 +191,7 @@ export const coefficientsSpecSchema = z
       refuse(ctx, ["b"], "b is required (with optional a) unless sos is given");
       return;
     }
-    if (spec.b.every((c) => c === 0)) refuse(ctx, ["b"], "b must have a nonzero coefficient");
+    if (spec.b.length > 0 && spec.b.every((c) => c === 0)) refuse(ctx, ["b"], "b must have a nonzero coefficient");
     if (spec.a !== undefined && spec.a[0] === 0) refuse(ctx, ["a", 0], "a[0] must be nonzero (it is normalised to 1)");
   });
 
