@@ -1,5 +1,6 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
 import type { Role } from "@/lib/auth/roles";
+import type { DeploymentState, RevisionState } from "@/lib/workflow/states";
 
 type CreatedAt = ColumnType<Date, Date | string | undefined, never>;
 
@@ -68,6 +69,89 @@ export interface DeviceCredentialsTable {
   created_at: CreatedAt;
 }
 
+export type DeploymentKind = "promote" | "rollback";
+type Json<T> = ColumnType<T, string, never>;
+
+export interface CoefficientSetsTable {
+  id: Generated<number>;
+  channel_id: number;
+  name: string;
+  created_by: number;
+  created_at: CreatedAt;
+  updated_at: ColumnType<Date, Date | string | undefined, Date | string>;
+  latest_revision: Generated<number>;
+  retired_at: ColumnType<Date | null, never, Date | string | null>;
+  version: Generated<number>;
+}
+
+/** Content columns are immutable in the database; only the review state columns are updatable. */
+export interface RevisionsTable {
+  id: Generated<number>;
+  set_id: ColumnType<number, number, never>;
+  revision: ColumnType<number, number, never>;
+  spec: Json<unknown>;
+  design: Json<unknown>;
+  device_format: ColumnType<CoefficientFormat, CoefficientFormat, never>;
+  quantized: Json<unknown>;
+  analysis: Json<unknown>;
+  sample_rate_hz: ColumnType<number, number, never>;
+  author_id: ColumnType<number, number, never>;
+  notes: ColumnType<string, string | undefined, never>;
+  created_at: ColumnType<Date, Date | string | undefined, never>;
+  state: ColumnType<RevisionState, RevisionState | undefined, RevisionState>;
+  state_version: Generated<number>;
+  state_changed_at: ColumnType<Date, Date | string | undefined, Date | string>;
+}
+
+export interface ReviewsTable {
+  id: Generated<number>;
+  revision_id: number;
+  reviewer_id: number;
+  decision: "approved" | "rejected";
+  comment: string;
+  at: CreatedAt;
+}
+
+export interface DeploymentsTable {
+  id: Generated<number>;
+  revision_id: number;
+  channel_id: number;
+  kind: DeploymentKind;
+  state: ColumnType<DeploymentState, DeploymentState | undefined, DeploymentState>;
+  format: CoefficientFormat;
+  config: Json<unknown>;
+  checksum: string;
+  previous_id: number | null;
+  requested_by: number;
+  requested_at: CreatedAt;
+  activated_at: ColumnType<Date | null, never, Date | string | null>;
+  ended_at: ColumnType<Date | null, never, Date | string | null>;
+  reason: string | null;
+}
+
+export interface MailOutboxTable {
+  id: Generated<string>;
+  kind: string;
+  recipients: string[];
+  subject: string;
+  body: string;
+  created_at: CreatedAt;
+  attempts: Generated<number>;
+  next_attempt_at: ColumnType<Date, Date | string | undefined, Date | string>;
+  sent_at: ColumnType<Date | null, never, Date | string | null>;
+  last_error: string | null;
+}
+
+export interface MailboxTable {
+  id: Generated<string>;
+  received_at: CreatedAt;
+  envelope_from: string;
+  envelope_to: string[];
+  subject: string;
+  body: string;
+  raw: string;
+}
+
 export interface Database {
   users: UsersTable;
   rigs: RigsTable;
@@ -76,6 +160,12 @@ export interface Database {
   audit_log: AuditLogTable;
   login_failures: LoginFailuresTable;
   device_credentials: DeviceCredentialsTable;
+  coefficient_sets: CoefficientSetsTable;
+  revisions: RevisionsTable;
+  reviews: ReviewsTable;
+  deployments: DeploymentsTable;
+  mail_outbox: MailOutboxTable;
+  mailbox: MailboxTable;
 }
 
 export type User = Selectable<UsersTable>;
