@@ -1,0 +1,106 @@
+import {
+  analogPrototypeZpk,
+  analogResponse,
+  frequencyResponse,
+  impulseResponse,
+  polyRoots,
+  quantizeDesign,
+  stepMetrics,
+  stepResponse,
+  type AnalogSystem,
+  type Complex,
+  type FilterDesign,
+  type FilterSpec,
+  type QuantFormat,
+  type StepMetrics,
+} from "@/lib/dsp";
+
+/** The analog system behind a spec, for drawing beside the digital response: an IIR's prototype at 2π·cutoff, or an analog H(s). */
+export function analogSystemFor(spec: FilterSpec): AnalogSystem | null {
+  if (spec.kind === "iir") return analogPrototypeZpk(spec);
+  if (spec.kind === "analog") return { num: spec.num, den: spec.den };
+  return null;
+}
+
+/** s-plane zeros and poles in rad/s of the analog system behind a spec, or null. */
+export function sPlaneRoots(spec: FilterSpec): { zeros: Complex[]; poles: Complex[] } | null {
+  const system = analogSystemFor(spec);
+  if (!system) return null;
+  if ("zeros" in system) return { zeros: system.zeros, poles: system.poles };
+  const trim = (p: number[]) => p.slice(p.findIndex((c) => c !== 0));
+  const roots = (p: number[]) => (trim(p).length > 1 ? polyRoots(trim(p)) : []);
+  return { zeros: roots(system.num), poles: roots(system.den) };
+}
+
+export interface ResponseCurves {
+  magnitudeDb: number[];
+  phaseDeg: number[];
+  groupDelaySamples: number[];
+  analogMagnitudeDb: number[] | null;
+  analogPhaseDeg: number[] | null;
+}
+
+const toDeg = (rad: number[]) => rad.map((r) => (r * 180) / Math.PI);
+
+/** Digital response (and the analog one where a spec has it) on a frequency grid in Hz. */
+export function responseCurves(spec: FilterSpec, design: FilterDesign, freqsHz: number[]): ResponseCurves {
+  const r = frequencyResponse(design, freqsHz);
+  const system = analogSystemFor(spec);
+  const a = system ? analogResponse(system, freqsHz) : null;
+  return {
+    magnitudeDb: r.magnitudeDb,
+    phaseDeg: toDeg(r.phaseRad),
+    groupDelaySamples: r.groupDelaySamples,
+    analogMagnitudeDb: a ? a.magnitudeDb : null,
+    analogPhaseDeg: a ? toDeg(a.phaseRad) : null,
+  };
+}
+
+export interface TimeCurves {
+  /** Sample times in s. */
+  timeS: number[];
+  step: number[];
+  impulse: number[];
+  metrics: StepMetrics;
+}
+
+/** Longest step/impulse response drawn, in samples. */
+export const MAX_PLOT_SAMPLES = 8192;
+
+/** Step and impulse responses long enough to show settling (1.5× the settling time, 64 … MAX_PLOT_SAMPLES samples). */
+export function timeCurves(design: FilterDesign): TimeCurves {
+  const fs = design.sampleRateHz;
+  const metrics = stepMetrics(design);
+  const settle = metrics.settlingTimeS ?? (design.taps ? design.taps.length / fs : 256 / fs);
+  const n = Math.min(MAX_PLOT_SAMPLES, Math.max(64, Math.ceil(1.5 * settle * fs) + 8));
+  return {
+    timeS: Array.from({ length: n }, (_, k) => k / fs),
+    step: Array.from(stepResponse(design, n)),
+    impulse: Array.from(impulseResponse(design, n)),
+    metrics,
+  };
+}
+
+export const FIXED_FORMATS: QuantFormat[] = ["f32", "q31", "q15"];
+
+export interface FixedPreview {
+  format: QuantFormat;
+  magnitudeDb: number[] | null;
+  stable: boolean | null;
+  maxDeviationDb: number | null;
+  /** Why the design could not be quantized in this format, in plain words. */
+  error: string | null;
+}
+
+/** Magnitude of the design quantized to each device format, with stability and the largest deviation from float64. */
+export function fixedPreview(design: FilterDesign, freqsHz: number[]): FixedPreview[] {
+  return FIXED_FORMATS.map((format) => {
+    try {
+      const q = quantizeDesign(design, format);
+      const runnable: FilterDesign = { sampleRateHz: q.sampleRateHz, sos: q.sos, taps: q.taps, zeros: [], poles: [], gain: 1 };
+      return { format, magnitudeDb: frequencyResponse(runnable, freqsHz).magnitudeDb, stable: q.stable, maxDeviationDb: q.maxDeviationDb, error: null };
+    } catch (err) {
+      return { format, magnitudeDb: null, stable: null, maxDeviationDb: null, error: err instanceof Error ? err.message : String(err) };
+    }
+  });
+}

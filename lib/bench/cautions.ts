@@ -1,0 +1,138 @@
+import { frequencyResponse, quantizeDesign, stability, toMs, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import { hz, withUnit } from "./format";
+import { notchBand, specFrequencies } from "./spec-text";
+
+/** The closing line of every caution (product safety wording). */
+export const REVIEW_LINE =
+  "Confirm with your team's review and the machine's safety documentation; local codes and licensed engineers decide.";
+
+/** Thresholds (product choices, stated in the caution texts). */
+export const CAUTION_LIMITS = {
+  /** Largest pole radius that counts as "within 1 % of the unit circle". */
+  nearUnitCircle: 0.99,
+  /** Phase lag at the loop crossover that deserves a caution, in degrees. */
+  loopPhaseDeg: 10,
+  /** Low-frequency delay that deserves a caution when no crossover is given, in ms. */
+  loopDelayMs: 2,
+  /** Largest tolerated change of the magnitude response after quantization, in dB. */
+  quantizationDb: 1,
+  /** Design frequencies above this fraction of fs sit close to Nyquist. */
+  nyquistFraction: 0.45,
+} as const;
+
+export type CautionKind = "poles" | "loop" | "quantization" | "nyquist" | "notch";
+
+export interface Caution {
+  kind: CautionKind;
+  title: string;
+  /** What the risk is, with the numbers; REVIEW_LINE is appended by the caller's display. */
+  text: string;
+}
+
+export interface CautionInput {
+  spec: FilterSpec;
+  design: FilterDesign;
+  /** The channel's device coefficient format. */
+  deviceFormat: QuantFormat;
+  /** The control loop's crossover frequency in Hz, if the engineer gave one. */
+  crossoverHz?: number | null;
+}
+
+/** Phase lag in degrees at f Hz relative to DC (positive = lag), unwrapped along a grid from 0 to f. */
+export function phaseLagDeg(design: FilterDesign, freqHz: number): number {
+  const steps = 64;
+  const grid = Array.from({ length: steps + 1 }, (_, i) => (freqHz * i) / steps);
+  const { phaseRad } = frequencyResponse(design, grid);
+  return (-(phaseRad[steps] - phaseRad[0]) * 180) / Math.PI;
+}
+
+function poleCaution(design: FilterDesign): Caution | null {
+  const { stable, maxPoleRadius } = stability(design);
+  const r = withUnit(maxPoleRadius, "", 4);
+  if (!stable) {
+    return { kind: "poles", title: "Unstable filter", text: `A pole lies at radius ${r}, on or outside the unit circle: the output grows without bound.` };
+  }
+  if (maxPoleRadius < CAUTION_LIMITS.nearUnitCircle) return null;
+  return {
+    kind: "poles",
+    title: "Poles close to the unit circle",
+    text: `The largest pole radius is ${r}, within 1 % of the unit circle. The filter rings for a long time, and small coefficient errors can make it unstable.`,
+  };
+}
+
+function loopCaution(design: FilterDesign, crossoverHz: number | null | undefined): Caution | null {
+  const fs = design.sampleRateHz;
+  const delayMs = toMs(frequencyResponse(design, [0]).groupDelaySamples[0], fs);
+  const delay = withUnit(delayMs, "ms");
+  if (crossoverHz && crossoverHz > 0 && crossoverHz < fs / 2) {
+    const lag = phaseLagDeg(design, crossoverHz);
+    if (lag < CAUTION_LIMITS.loopPhaseDeg) return null;
+    return {
+      kind: "loop",
+      title: "Delay inside a control loop",
+      text: `If this filter sits inside a control loop, it delays the signal by about ${delay} and costs ${withUnit(lag, "°", 2)} of phase at the ${hz(crossoverHz)} crossover, which comes straight off the phase margin.`,
+    };
+  }
+  if (delayMs < CAUTION_LIMITS.loopDelayMs) return null;
+  return {
+    kind: "loop",
+    title: "Delay inside a control loop",
+    text: `This filter delays low frequencies by about ${delay}. If it sits inside a control loop, enter the loop's crossover frequency to see the phase it costs there.`,
+  };
+}
+
+function quantizationCaution(design: FilterDesign, format: QuantFormat): Caution | null {
+  const name = format.toUpperCase();
+  let q;
+  try {
+    q = quantizeDesign(design, format);
+  } catch (err) {
+    return { kind: "quantization", title: `Not representable in ${name}`, text: err instanceof Error ? err.message : String(err) };
+  }
+  if (!q.stable) {
+    return {
+      kind: "quantization",
+      title: `Unstable in ${name}`,
+      text: `Rounded to the device's ${name} format, a pole moves to radius ${withUnit(q.maxPoleRadius, "", 5)}: the filter that runs on the device is unstable.`,
+    };
+  }
+  if (q.maxDeviationDb <= CAUTION_LIMITS.quantizationDb) return null;
+  return {
+    kind: "quantization",
+    title: `Response moves in ${name}`,
+    text: `Rounded to the device's ${name} format, the magnitude response moves by up to ${withUnit(q.maxDeviationDb, "dB")} (more than ${CAUTION_LIMITS.quantizationDb} dB): the device would not run the filter shown here.`,
+  };
+}
+
+function nyquistCaution(spec: FilterSpec): Caution | null {
+  const limit = CAUTION_LIMITS.nyquistFraction * spec.sampleRateHz;
+  const high = specFrequencies(spec).filter((f) => f > limit);
+  if (high.length === 0) return null;
+  return {
+    kind: "nyquist",
+    title: "Close to Nyquist",
+    text: `${high.map((f) => hz(f)).join(" and ")} lies above ${CAUTION_LIMITS.nyquistFraction}·fs = ${hz(limit)}. The bilinear warping is strong there, the response differs from the analog intent, and aliased content cannot be removed by any digital filter.`,
+  };
+}
+
+function notchCaution(spec: FilterSpec): Caution | null {
+  const band = notchBand(spec);
+  if (!band) return null;
+  return {
+    kind: "notch",
+    title: "A notch may hide a fault",
+    text: `This filter removes ${hz(band[0])}–${hz(band[1])}. A running-speed harmonic, a bearing or gear-mesh tone or a structural resonance in that band would vanish from the filtered signal. Keep protection and alarm paths on the raw signal.`,
+  };
+}
+
+/** Every caution that applies to a candidate, most severe kinds first. */
+export function cautionsFor(input: CautionInput): Caution[] {
+  const found = [
+    poleCaution(input.design),
+    quantizationCaution(input.design, input.deviceFormat),
+    loopCaution(input.design, input.crossoverHz),
+    nyquistCaution(input.spec),
+    notchCaution(input.spec),
+  ];
+  return found.filter((c): c is Caution => c !== null);
+}

@@ -1,0 +1,43 @@
+import type { FilterSpec } from "@/lib/dsp";
+
+export const SPEC_KINDS = ["iir", "biquad", "fir", "moving-average", "differentiator", "ema", "analog", "coefficients"] as const;
+export type SpecKind = (typeof SPEC_KINDS)[number];
+
+export const KIND_LABELS: Record<SpecKind, string> = {
+  iir: "IIR (classic families)",
+  biquad: "Biquad (cookbook)",
+  fir: "FIR (windowed sinc)",
+  "moving-average": "Moving average",
+  differentiator: "Differentiator",
+  ema: "Exponential smoothing",
+  analog: "Analog H(s)",
+  coefficients: "Pasted coefficients",
+};
+
+/** A round number of Hz near fraction·fs (at least 1 Hz), for starting values. */
+const near = (fs: number, fraction: number) => Math.max(1, Math.round(fs * fraction));
+
+/** A valid starting spec of each kind at sample rate fs (product choices, meant to be edited). */
+export function defaultSpec(kind: SpecKind, fs: number): FilterSpec {
+  const sampleRateHz = fs;
+  switch (kind) {
+    case "iir":
+      return { kind, family: "butterworth", response: "lowpass", order: 4, cutoffHz: near(fs, 0.1), sampleRateHz };
+    case "biquad":
+      return { kind, shape: "notch", centerHz: fs > 120 ? 50 : near(fs, 0.2), q: 30, sampleRateHz };
+    case "fir":
+      return { kind, response: "lowpass", window: "hamming", taps: 101, cutoffHz: near(fs, 0.1), sampleRateHz };
+    case "moving-average":
+      return { kind, length: 20, sampleRateHz };
+    case "differentiator":
+      return { kind, sampleRateHz };
+    case "ema":
+      return { kind, cutoffHz: near(fs, 0.02), sampleRateHz };
+    case "analog": {
+      const w = 2 * Math.PI * near(fs, 0.02);
+      return { kind, num: [w * w], den: [1, 1.4 * w, w * w], method: "tustin", sampleRateHz };
+    }
+    case "coefficients":
+      return { kind, b: [0.25, 0.5, 0.25], a: [1], sampleRateHz };
+  }
+}

@@ -1,0 +1,75 @@
+import type { FilterSpec } from "@/lib/dsp";
+import { hz, withUnit } from "./format";
+
+const FAMILY: Record<string, string> = {
+  butterworth: "Butterworth",
+  chebyshev1: "Chebyshev I",
+  chebyshev2: "Chebyshev II",
+  elliptic: "Elliptic",
+  bessel: "Bessel",
+};
+const RESPONSE: Record<string, string> = { lowpass: "LP", highpass: "HP", bandpass: "BP", bandstop: "BS" };
+const METHOD: Record<string, string> = {
+  "forward-euler": "forward Euler",
+  "backward-euler": "backward Euler",
+  tustin: "Tustin",
+  "tustin-prewarp": "Tustin, prewarped",
+  zoh: "zero-order hold",
+  matched: "matched z",
+};
+
+const band = (f: number | [number, number]) => (typeof f === "number" ? hz(f) : `${hz(f[0])}–${hz(f[1])}`);
+const capital = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
+
+/** One line that names a candidate, e.g. "Butterworth LP 4 · 120 Hz" or "Notch biquad · 50 Hz, Q 30". */
+export function specSummary(spec: FilterSpec): string {
+  switch (spec.kind) {
+    case "iir":
+      return `${FAMILY[spec.family]} ${RESPONSE[spec.response]} ${spec.order} · ${band(spec.cutoffHz)}`;
+    case "biquad": {
+      const gain = spec.gainDb === undefined ? "" : `, ${withUnit(spec.gainDb, "dB")}`;
+      return `${capital(spec.shape)} biquad · ${hz(spec.centerHz)}, Q ${withUnit(spec.q, "")}${gain}`;
+    }
+    case "fir":
+      return `FIR ${RESPONSE[spec.response]} ${spec.taps} taps · ${capital(spec.window)} · ${band(spec.cutoffHz)}`;
+    case "moving-average":
+      return `Moving average · ${spec.length} samples`;
+    case "differentiator":
+      return "Differentiator · first difference";
+    case "ema":
+      return `Exponential smoothing · ${hz(spec.cutoffHz)}`;
+    case "analog":
+      return `Analog H(s) order ${spec.den.length - 1} · ${METHOD[spec.method]}`;
+    case "coefficients":
+      return spec.sos ? `Pasted SOS · ${spec.sos.length} sections` : `Pasted b/a · ${spec.b?.length ?? 0}/${spec.a?.length ?? 1} coefficients`;
+  }
+}
+
+/** The frequencies in Hz a spec is designed at (cutoffs, centre, prewarp), for the Nyquist check. */
+export function specFrequencies(spec: FilterSpec): number[] {
+  switch (spec.kind) {
+    case "iir":
+    case "fir":
+      return typeof spec.cutoffHz === "number" ? [spec.cutoffHz] : [...spec.cutoffHz];
+    case "biquad":
+      return [spec.centerHz];
+    case "ema":
+      return [spec.cutoffHz];
+    case "analog":
+      return spec.prewarpHz === undefined ? [] : [spec.prewarpHz];
+    default:
+      return [];
+  }
+}
+
+/** The band a spec rejects, in Hz: a notch biquad (−3 dB width f0/Q) or a band-stop IIR/FIR; else null. */
+export function notchBand(spec: FilterSpec): [number, number] | null {
+  if (spec.kind === "biquad" && spec.shape === "notch") {
+    const half = spec.centerHz / spec.q / 2;
+    return [spec.centerHz - half, spec.centerHz + half];
+  }
+  if ((spec.kind === "iir" || spec.kind === "fir") && spec.response === "bandstop" && typeof spec.cutoffHz !== "number") {
+    return [spec.cutoffHz[0], spec.cutoffHz[1]];
+  }
+  return null;
+}
