@@ -1,0 +1,70 @@
+import { ACK_FILTER, configTopic, deviceAckSchema, parseTopic, type DeviceAck, type DeviceConfig } from "@/lib/protocol";
+import type { MessageBus } from "../broker/bus";
+import type { Clock, Logger } from "../clock";
+
+export type ConfigOutcome =
+  | { status: "applied"; ack: DeviceAck }
+  | { status: "refused"; ack: DeviceAck }
+  | { status: "timeout" };
+
+/** Sends filter configurations to devices and waits for their acknowledgements (used by promotion). */
+export interface ConfigExchange {
+  /**
+   * Publishes `config` retained (QoS 1) on the device's config topic and resolves with the first
+   * ack carrying the same revisionId and checksum, or "timeout" after timeoutMs. Acks for other
+   * revisions or checksums are ignored.
+   */
+  send(rig: string, device: string, config: DeviceConfig, timeoutMs: number): Promise<ConfigOutcome>;
+}
+
+interface Waiter {
+  device: string;
+  revisionId: string;
+  checksum: string;
+  settle: (outcome: ConfigOutcome) => void;
+}
+
+export async function createConfigExchange(deps: { bus: MessageBus; clock: Clock; logger: Logger }): Promise<ConfigExchange> {
+  const waiters = new Set<Waiter>();
+
+  await deps.bus.subscribe(ACK_FILTER, (topic, payload) => {
+    try {
+      const t = parseTopic(topic);
+      if (!t || t.kind !== "ack") return;
+      const parsed = deviceAckSchema.safeParse(JSON.parse(payload.toString("utf8")));
+      if (!parsed.success) return deps.logger.warn(`ignored malformed ack on ${topic}`);
+      const ack = parsed.data;
+      for (const w of waiters) {
+        if (w.device === `${t.rig}/${t.device}` && w.revisionId === ack.revisionId && w.checksum === ack.checksum) {
+          w.settle({ status: ack.status, ack });
+        }
+      }
+    } catch (err) {
+      deps.logger.warn(`ack handler failed: ${err instanceof Error ? err.message : String(err)}`);
+    }
+  });
+
+  return {
+    send(rig, device, config, timeoutMs) {
+      return new Promise<ConfigOutcome>((resolve, reject) => {
+        const timer = deps.clock.setTimeout(() => waiter.settle({ status: "timeout" }), timeoutMs);
+        const waiter: Waiter = {
+          device: `${rig}/${device}`,
+          revisionId: config.revisionId,
+          checksum: config.checksum,
+          settle(outcome) {
+            if (!waiters.delete(waiter)) return;
+            deps.clock.clearTimeout(timer);
+            resolve(outcome);
+          },
+        };
+        waiters.add(waiter);
+        deps.bus.publish(configTopic(rig, device), JSON.stringify(config), { retain: true, qos: 1 }).catch((err: unknown) => {
+          if (!waiters.delete(waiter)) return;
+          deps.clock.clearTimeout(timer);
+          reject(err);
+        });
+      });
+    },
+  };
+}

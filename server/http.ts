@@ -1,0 +1,31 @@
+import http from "node:http";
+import type { Duplex } from "node:stream";
+
+/** HTTP side of the sidecar: GET /health as JSON, WebSocket upgrades handed on, everything else 404. */
+export function createHttpServer(deps: {
+  health: () => { status: "ok" | "degraded" } & Record<string, unknown>;
+  upgrade: (req: http.IncomingMessage, socket: Duplex, head: Buffer) => void;
+}): http.Server {
+  const server = http.createServer((req, res) => {
+    if (req.method === "GET" && req.url === "/health") {
+      const body = deps.health();
+      res.writeHead(body.status === "ok" ? 200 : 503, { "content-type": "application/json", "cache-control": "no-store" });
+      res.end(JSON.stringify(body));
+      return;
+    }
+    res.writeHead(404, { "content-type": "application/json" });
+    res.end(JSON.stringify({ error: { code: "not_found", message: "No such route." } }));
+  });
+  server.on("upgrade", deps.upgrade);
+  return server;
+}
+
+export function listen(server: http.Server, port: number, host: string): Promise<number> {
+  return new Promise((resolve, reject) => {
+    server.once("error", reject);
+    server.listen(port, host, () => {
+      const a = server.address();
+      resolve(typeof a === "object" && a ? a.port : port);
+    });
+  });
+}

@@ -1,0 +1,66 @@
+import { readFileSync } from "node:fs";
+import { createDb } from "@/db/client";
+import { sessionOptions } from "@/lib/auth/session-config";
+import { env } from "@/lib/env";
+import { consoleLogger, systemClock } from "./clock";
+import { startSidecar } from "./sidecar";
+
+/** Composition root: reads the environment once and starts the sidecar; SIGTERM/SIGINT stop it cleanly. */
+const e = env();
+const db = createDb(e.DATABASE_URL);
+const loopback = "127.0.0.1";
+const ttl = sessionOptions(e.SESSION_SECRET, e.COOKIE_SECURE === "1").ttl ?? 60 * 60 * 12;
+
+const sidecar = await startSidecar({
+  db,
+  clock: systemClock,
+  logger: consoleLogger,
+  sessionSecret: e.SESSION_SECRET,
+  sessionTtlSeconds: ttl,
+  http: {
+    host: loopback,
+    port: e.SIDECAR_PORT,
+    allowedOrigins: [`http://127.0.0.1:${e.PORT}`, `http://localhost:${e.PORT}`],
+  },
+  mqtt: e.MQTT_URL
+    ? {
+        mode: "external",
+        url: e.MQTT_URL,
+        username: e.MQTT_USERNAME,
+        password: e.MQTT_PASSWORD,
+        ca: e.MQTT_CA_FILE ? readFileSync(e.MQTT_CA_FILE) : undefined,
+        sharedGroup: e.SHARED_GROUP,
+      }
+    : {
+        mode: "embedded",
+        host: loopback,
+        port: e.MQTT_PORT,
+        requireDeviceAuth: e.REQUIRE_DEVICE_AUTH === "1",
+        internal: e.MQTT_USERNAME && e.MQTT_PASSWORD ? [{ username: e.MQTT_USERNAME, password: e.MQTT_PASSWORD }] : [],
+      },
+  republishFiltered: e.REPUBLISH_FILTERED === "1",
+  demo: e.DEMO === "1" ? { seed: e.DEMO_SEED } : undefined,
+});
+
+consoleLogger.info(
+  `listening on http://${loopback}:${sidecar.httpPort} (health: /health, WebSocket: /ws); MQTT ${sidecar.mqttUrl}`,
+);
+
+let stopping = false;
+async function shutdown(signal: string): Promise<void> {
+  if (stopping) return;
+  stopping = true;
+  consoleLogger.info(`${signal}: shutting down`);
+  const force = setTimeout(() => process.exit(1), 5000);
+  force.unref();
+  try {
+    await sidecar.close();
+    await db.destroy();
+    process.exit(0);
+  } catch (err) {
+    consoleLogger.warn(`shutdown failed: ${err instanceof Error ? err.message : String(err)}`);
+    process.exit(1);
+  }
+}
+process.on("SIGTERM", () => void shutdown("SIGTERM"));
+process.on("SIGINT", () => void shutdown("SIGINT"));

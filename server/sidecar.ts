@@ -1,0 +1,158 @@
+import { randomBytes } from "node:crypto";
+import type { Server } from "node:http";
+import type { Db } from "@/db/client";
+import { listChannels } from "@/db/queries/channels";
+import { filteredTopic, SAMPLES_FILTER, sharedFilter } from "@/lib/protocol";
+import type { MessageBus } from "./broker/bus";
+import { deviceAuthHooks, type InternalCredential } from "./broker/device-auth";
+import { inProcessBus, startEmbeddedBroker, type EmbeddedBroker } from "./broker/embedded";
+import { connectMqttBus } from "./broker/mqtt-bus";
+import type { Clock, Logger } from "./clock";
+import { createConfigExchange, type ConfigExchange } from "./devices/config-exchange";
+import { startDemoRig, type DemoRigHandle } from "./demo-rig/rig";
+import { createHttpServer, listen } from "./http";
+import { createFaultLog, type FaultLog } from "./ingest/fault-log";
+import { createIngest, type Ingest } from "./ingest/ingest";
+import { createPipeline, type Pipeline } from "./pipeline/pipeline";
+import { createHub, type Hub } from "./ws/hub";
+import { createWsEndpoint } from "./ws/upgrade";
+
+export type MqttSetup =
+  | { mode: "embedded"; host: string; port: number; requireDeviceAuth: boolean; internal?: InternalCredential[] }
+  | { mode: "external"; url: string; username?: string; password?: string; ca?: Buffer; sharedGroup?: string };
+
+export interface SidecarOptions {
+  db: Db;
+  clock: Clock;
+  logger: Logger;
+  sessionSecret: string;
+  sessionTtlSeconds: number;
+  http: { host: string; port: number; allowedOrigins?: string[] };
+  mqtt: MqttSetup;
+  republishFiltered: boolean;
+  /** Start the demo rig (its own MQTT connections) with this seed. */
+  demo?: { seed: number };
+  /** Start the frame, metrics and status timers (tests may drive hub.tick() themselves). */
+  timers?: boolean;
+  maxBufferedBytes?: number;
+}
+
+export interface Sidecar {
+  httpPort: number;
+  /** The embedded broker's port, when embedded. */
+  mqttPort: number | undefined;
+  /** The MQTT URL devices and the demo rig connect to. */
+  mqttUrl: string;
+  bus: MessageBus;
+  pipeline: Pipeline;
+  ingest: Ingest;
+  faults: FaultLog;
+  hub: Hub;
+  configs: ConfigExchange;
+  broker: EmbeddedBroker | undefined;
+  health(): { status: "ok" | "degraded" } & Record<string, unknown>;
+  close(): Promise<void>;
+}
+
+/**
+ * Wires the sidecar from parts passed in: broker (embedded Aedes on loopback, or an external
+ * broker through mqtt.js), ingest, pipeline, WebSocket hub, HTTP server and, on request, the demo rig.
+ */
+export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
+  const { clock, logger } = opts;
+  const channels = (await listChannels(opts.db)).map((c) => ({ path: c.path, sampleRateHz: c.sampleRateHz }));
+  const faults = createFaultLog({ clock, logger });
+
+  let broker: EmbeddedBroker | undefined;
+  let bus: MessageBus;
+  let mqttUrl: string;
+  let demoCredentials: InternalCredential | undefined;
+  if (opts.mqtt.mode === "embedded") {
+    const internal = [...(opts.mqtt.internal ?? [])];
+    if (opts.mqtt.requireDeviceAuth) {
+      demoCredentials = { username: "tapwright-demo-rig", password: randomBytes(24).toString("base64url") };
+      internal.push(demoCredentials);
+    }
+    const hooks = opts.mqtt.requireDeviceAuth ? deviceAuthHooks({ db: opts.db, internal, logger }) : undefined;
+    broker = await startEmbeddedBroker({ host: opts.mqtt.host, port: opts.mqtt.port, hooks });
+    bus = inProcessBus(broker.broker);
+    mqttUrl = `mqtt://${opts.mqtt.host}:${broker.port}`;
+  } else {
+    const { url, username, password, ca, sharedGroup } = opts.mqtt;
+    bus = connectMqttBus({ url, username, password, ca, protocolVersion: sharedGroup ? 5 : 4, clock, logger });
+    mqttUrl = url;
+    if (username && password) demoCredentials = { username, password };
+  }
+
+  const pipeline = createPipeline({
+    channels,
+    onFiltered: opts.republishFiltered
+      ? (path, batch, values) => {
+          const payload = JSON.stringify({ seq: batch.seq, t0: batch.t0, sampleRateHz: batch.sampleRateHz, values: Array.from(values) });
+          bus.publish(filteredTopic(path), payload).catch(() => undefined);
+        }
+      : undefined,
+  });
+  const ingest = createIngest({ channels, sink: pipeline, faults });
+  const samplesFilter =
+    opts.mqtt.mode === "external" && opts.mqtt.sharedGroup ? sharedFilter(opts.mqtt.sharedGroup, SAMPLES_FILTER) : SAMPLES_FILTER;
+  await bus.subscribe(samplesFilter, (topic, payload) => ingest.handle(topic, payload));
+  const configs = await createConfigExchange({ bus, clock, logger });
+
+  const hub = createHub({ pipeline, faults, clock, logger, busState: () => bus.state, maxBufferedBytes: opts.maxBufferedBytes });
+  bus.onState((state) => {
+    logger.info(`MQTT ${state}`);
+    hub.statusTick();
+  });
+  const ws = createWsEndpoint({
+    db: opts.db,
+    sessionSecret: opts.sessionSecret,
+    sessionTtlSeconds: opts.sessionTtlSeconds,
+    hub,
+    logger,
+    allowedOrigins: opts.http.allowedOrigins,
+  });
+
+  function health() {
+    return {
+      status: bus.state === "connected" ? ("ok" as const) : ("degraded" as const),
+      mqtt: bus.state,
+      channels: channels.length,
+      clients: hub.clientCount,
+      accepted: { ...ingest.accepted },
+      faults: faults.totals(),
+      faultsByChannel: faults.byChannel(),
+    };
+  }
+  const server: Server = createHttpServer({ health, upgrade: (req, socket, head) => void ws.handleUpgrade(req, socket, head) });
+  const httpPort = await listen(server, opts.http.port, opts.http.host);
+  if (opts.timers !== false) hub.start();
+
+  let demo: DemoRigHandle | undefined;
+  if (opts.demo) {
+    demo = await startDemoRig({ url: mqttUrl, credentials: demoCredentials, clock, logger, seed: opts.demo.seed });
+  }
+
+  return {
+    httpPort,
+    mqttPort: broker?.port,
+    mqttUrl,
+    bus,
+    pipeline,
+    ingest,
+    faults,
+    hub,
+    configs,
+    broker,
+    health,
+    async close() {
+      hub.stop();
+      await demo?.stop().catch(() => undefined);
+      await ws.close();
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await bus.close();
+      await broker?.close();
+    },
+  };
+}
