@@ -3,10 +3,8 @@ import { cAbs, cSub } from "../complex";
 import { ellipK, ellipKm1 } from "./elliptic-functions";
 import { fminbound } from "./fminbound";
 import { besselap } from "./prototypes/bessel";
-import { checkCutoffs, IIR_FAMILIES, IIR_RESPONSES, isBand, MAX_ORDER, type IirResponse } from "./spec";
+import { checkCutoffs, finite, frequencyOrPair, IIR_FAMILIES, IIR_RESPONSES, isBand, MAX_ORDER, type IirResponse } from "./spec";
 
-const finite = (what: string) => z.number({ error: `${what} must be a finite number` });
-const edge = (what: string) => z.union([finite(what), z.tuple([finite(`${what}[0]`), finite(`${what}[1]`)])]);
 
 /** Edges in the order each response needs: lowpass fp < fs; highpass fs < fp; bandpass s0 < p0 < p1 < s1; bandstop p0 < s0 < s1 < p1. */
 function edgesInOrder(response: IirResponse, pass: number | [number, number], stop: number | [number, number]): boolean {
@@ -29,8 +27,8 @@ export const orderRequirementSchema = z
   .object({
     family: z.enum(IIR_FAMILIES),
     response: z.enum(IIR_RESPONSES),
-    passbandHz: edge("passbandHz"),
-    stopbandHz: edge("stopbandHz"),
+    passbandHz: frequencyOrPair("passbandHz"),
+    stopbandHz: frequencyOrPair("stopbandHz"),
     passbandRippleDb: finite("passbandRippleDb").positive({ error: "passbandRippleDb must be > 0 dB" }),
     stopbandAttenuationDb: finite("stopbandAttenuationDb").positive({ error: "stopbandAttenuationDb must be > 0 dB" }),
     sampleRateHz: finite("sampleRateHz").positive({ error: "sampleRateHz must be a finite number > 0" }),

@@ -10,8 +10,13 @@ export const MAX_ORDER: Record<IirResponse, number> = { lowpass: 12, highpass: 1
 
 export const isBand = (response: IirResponse): boolean => response === "bandpass" || response === "bandstop";
 
-const finite = (what: string) =>
-  z.number({ error: `${what} must be a finite number` });
+export const finite = (what: string) => z.number({ error: `${what} must be a finite number` });
+
+/** One frequency or a pair, each a finite number (Hz). */
+export const frequencyOrPair = (what: string) =>
+  z.union([finite(what), z.tuple([finite(`${what}[0]`), finite(`${what}[1]`)])], {
+    error: `${what} must be a finite number (Hz) or a pair of finite numbers [low, high]`,
+  });
 
 /** Cutoffs in Hz: one number for low/high-pass, a strictly increasing pair for band-pass/band-stop. */
 export function checkCutoffs(
@@ -62,7 +67,7 @@ export const iirSpecSchema = z
     family: z.enum(IIR_FAMILIES),
     response: z.enum(IIR_RESPONSES),
     order: finite("order"),
-    cutoffHz: z.union([finite("cutoffHz"), z.tuple([finite("cutoffHz[0]"), finite("cutoffHz[1]")])]),
+    cutoffHz: frequencyOrPair("cutoffHz"),
     sampleRateHz: finite("sampleRateHz").positive({ error: "sampleRateHz must be a finite number > 0" }),
     passbandRippleDb: finite("passbandRippleDb").optional(),
     stopbandAttenuationDb: finite("stopbandAttenuationDb").optional(),
