@@ -1,18 +1,19 @@
+import { firKernel, type FirKernel } from "./fir-kernel";
+
 /** Samples filtered per pass through the scratch buffer, bounding its size for long signals. */
 const CHUNK = 4096;
 
 /**
  * FIR filter state: the last N − 1 inputs, kept at the front of a scratch buffer that the next
- * input chunk is appended to. y[n] = Σₖ h[k]·x[n − k], summed for k = 0 … N − 1 in that order
- * (direct convolution, Oppenheim & Schafer §5.7 [mem]). Unitless.
+ * input chunk is appended to; the convolution itself is a FirKernel. Unitless.
  */
 export class FirState {
-  private readonly taps: Float64Array;
+  private readonly kernel: FirKernel;
   private readonly buffer: Float64Array;
   private readonly memory: number;
 
   constructor(taps: Float64Array) {
-    this.taps = taps;
+    this.kernel = firKernel(taps);
     this.memory = taps.length - 1;
     this.buffer = new Float64Array(this.memory + CHUNK);
   }
@@ -36,17 +37,11 @@ export class FirState {
 
   /** Filter x[start..end) into y[start..end), carrying the history across calls. */
   run(x: Float64Array, y: Float64Array, start: number, end: number): void {
-    const { taps, buffer, memory } = this;
-    const count = taps.length;
+    const { buffer, memory } = this;
     for (let from = start; from < end; from += CHUNK) {
       const len = Math.min(CHUNK, end - from);
       buffer.set(x.subarray(from, from + len), memory);
-      for (let n = 0; n < len; n++) {
-        let acc = 0;
-        const newest = memory + n;
-        for (let k = 0; k < count; k++) acc += taps[k] * buffer[newest - k];
-        y[from + n] = acc;
-      }
+      this.kernel(buffer, y, memory, len, from);
       buffer.copyWithin(0, len, len + memory);
     }
   }

@@ -1,3 +1,5 @@
+import { compileKernel, numberLiteral } from "./codegen";
+
 /**
  * Inner loops for a cascade of second-order sections in direct form II transposed, with the
  * arithmetic order of scipy.signal `sosfilt` (per section: t = b0·x + z0;
@@ -15,22 +17,9 @@ export type SosKernel = (
 /** Above this many sections the generic loop is used (generated source grows linearly). */
 export const MAX_UNROLLED_SECTIONS = 48;
 
-/** Bound on cached generated kernels; the oldest is dropped first. */
-const KERNEL_CACHE_SIZE = 512;
-const kernelCache = new Map<string, SosKernel>();
-
-/** A JavaScript literal for a finite double, exact on parse (round-trip shortest form). */
-function numberLiteral(v: number): string {
-  if (typeof v !== "number" || !Number.isFinite(v)) {
-    throw new Error(`kernel coefficient must be a finite number (got ${String(v)})`);
-  }
-  return Object.is(v, -0) ? "(-0)" : `(${String(v)})`;
-}
-
 /**
  * Source of a kernel whose coefficients are literal constants and whose states are locals, so
- * the JIT keeps them in registers; states are written back once per block. Only numbers that
- * passed Number.isFinite are interpolated.
+ * the JIT keeps them in registers; states are written back once per block.
  */
 function unrolledSource(packed: Float64Array): string {
   const sections = packed.length / 5;
@@ -69,16 +58,6 @@ export function genericSosKernel(packed: Float64Array): SosKernel {
   };
 }
 
-function compile(source: string): SosKernel | undefined {
-  try {
-    return new Function("x", "y", "start", "end", "z", source) as SosKernel;
-  } catch (error) {
-    // A Content-Security-Policy without 'unsafe-eval' refuses code generation with EvalError.
-    if (error instanceof EvalError) return undefined;
-    throw error;
-  }
-}
-
 /**
  * The fastest kernel available for these packed sections ([b0, b1, b2, a1, a2] per section):
  * a generated, cached one up to MAX_UNROLLED_SECTIONS, otherwise the generic loop.
@@ -88,11 +67,5 @@ export function sosKernel(packed: Float64Array): SosKernel {
     throw new Error(`packed sections need 5 coefficients each (got ${packed.length})`);
   }
   if (packed.length / 5 > MAX_UNROLLED_SECTIONS) return genericSosKernel(packed);
-  const source = unrolledSource(packed);
-  const cached = kernelCache.get(source);
-  if (cached) return cached;
-  const kernel = compile(source) ?? genericSosKernel(packed);
-  if (kernelCache.size >= KERNEL_CACHE_SIZE) kernelCache.delete(kernelCache.keys().next().value as string);
-  kernelCache.set(source, kernel);
-  return kernel;
+  return compileKernel<SosKernel>(["x", "y", "start", "end", "z"], unrolledSource(packed)) ?? genericSosKernel(packed);
 }

@@ -23,7 +23,6 @@ export interface QuantizedGroup {
 export function quantizeGroup(coeffs: readonly number[], format: QuantFormat): QuantizedGroup {
   if (!coeffs.every(Number.isFinite)) throw new Error("coefficients to quantize must be finite numbers");
   if (format === "f32") return { values: coeffs.map(Math.fround), shift: 0 };
-  const bits = fractionBits(format);
   for (let shift = 0; shift <= maxShift(format); shift++) {
     const quantized = coeffs.map((c) => toWord(c / 2 ** shift, format));
     if (quantized.some((q) => q.saturated)) continue;
@@ -33,7 +32,7 @@ export function quantizeGroup(coeffs: readonly number[], format: QuantFormat): Q
   const largest = Math.max(...coeffs.map(Math.abs));
   throw new Error(
     `coefficient magnitude ${largest} needs a post-shift above ${maxShift(format)} for ${format}; ` +
-      `allowed magnitudes are below ${2 ** maxShift(format)} (about 2^(F−1), F = ${bits})`,
+      `magnitudes must stay below about ${2 ** maxShift(format)}`,
   );
 }
 

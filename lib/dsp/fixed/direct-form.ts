@@ -1,4 +1,5 @@
-import { transferAt, ascendingPolyAt } from "../analysis/evaluate";
+import { runForm } from "../analysis/design-form";
+import { ascendingPolyAt, transferAt } from "../analysis/evaluate";
 import { cAbs, cDiv } from "../complex";
 import { polyMul, polyRoots } from "../poly";
 import type { Complex, FilterDesign } from "../types";
@@ -28,8 +29,9 @@ export interface DirectFormQuantization {
  * in float64, b and a1…aN get separate post-shifts, and a0 = 1 is not stored. FIR: the taps.
  */
 export function quantizeDirectForm(design: FilterDesign, format: QuantFormat): DirectFormQuantization {
-  const sos = design.sos;
-  const bRef = sos ? sos.map((r) => r.slice(0, 3)).reduce(polyMul) : (design.taps ?? []);
+  const form = runForm(design);
+  const sos = form.kind === "sos" ? form.sos : undefined;
+  const bRef = sos ? sos.map((r) => r.slice(0, 3)).reduce(polyMul) : form.kind === "taps" ? form.taps : [];
   const aRef = sos ? sos.map((r) => r.slice(3, 6)).reduce(polyMul) : [1];
   const bPeak = Math.max(...bRef.map(Math.abs));
   if (!(bPeak > 0) || !Number.isFinite(bPeak)) throw new Error(`the numerator must be finite and non-zero (peak |b| = ${bPeak})`);

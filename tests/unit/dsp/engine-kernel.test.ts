@@ -1,6 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { filterSignal } from "@/lib/dsp/engine/filter-signal";
+import { firKernel, genericFirKernel, MAX_UNROLLED_TAPS } from "@/lib/dsp/engine/fir-kernel";
 import { packSos } from "@/lib/dsp/engine/sos-coefficients";
 import { genericSosKernel, MAX_UNROLLED_SECTIONS, sosKernel } from "@/lib/dsp/engine/sos-kernel";
 import { createStreamingFilter } from "@/lib/dsp/engine/streaming-filter";
@@ -48,6 +49,40 @@ describe("SOS kernels", () => {
     const y = new Float64Array(64);
     genericSosKernel(packed)(x, y, 0, 64, new Float64Array(sections * 2));
     expect(filterSignal({ ...base, sos }, x)).toEqual(y);
+  });
+});
+
+describe("FIR kernels", () => {
+  const runFir = (kernel: ReturnType<typeof firKernel>, buf: Float64Array, taps: number) => {
+    const y = new Float64Array(buf.length - taps + 1);
+    kernel(buf, y, taps - 1, y.length, 0);
+    return y;
+  };
+
+  it("the generated kernel and the generic loop agree bit for bit", () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: -2, max: 2, noNaN: true }), { minLength: 1, maxLength: MAX_UNROLLED_TAPS }),
+        fc.array(fc.double({ min: -5, max: 5, noNaN: true }), { minLength: 0, maxLength: 60 }),
+        (taps, xs) => {
+          const h = Float64Array.from(taps);
+          const buf = Float64Array.from([...new Array<number>(taps.length - 1).fill(0.25), ...xs]);
+          expect(runFir(firKernel(h), buf, taps.length)).toEqual(runFir(genericFirKernel(h), buf, taps.length));
+        },
+      ),
+    );
+  });
+
+  it("uses the generic loop for long filters, with the same results as a direct sum", () => {
+    const taps = Array.from({ length: MAX_UNROLLED_TAPS + 5 }, (_, k) => 1 / (k + 1));
+    const x = Float64Array.from({ length: 100 }, (_, i) => Math.sin(i));
+    const y = filterSignal({ ...base, taps }, x);
+    const direct = Array.from(x, (_, n) => taps.reduce((acc, h, k) => acc + h * (n - k >= 0 ? x[n - k] : 0), 0));
+    expect(Array.from(y)).toEqual(direct);
+  });
+
+  it("refuses to generate code from non-finite taps", () => {
+    expect(() => firKernel(Float64Array.of(1, NaN))).toThrow(/finite/);
   });
 });
 
