@@ -3,7 +3,7 @@ import { biquadShapes, gainShapes } from "./biquad";
 import { discretizationMethods } from "./discretize/discretize";
 import { MAX_ANALOG_ORDER } from "./discretize/rational";
 import { firResponses } from "./fir/windowedSinc";
-import { firWindows } from "./fir/windows";
+import { firWindows, zeroEndedWindows } from "./fir/windows";
 import { checkCutoffs, iirSpecSchema } from "./iir/spec";
 
 /** Limits of the design requests (product choices; each refusal message states the allowed range). */
@@ -90,6 +90,9 @@ export const firSpecSchema = z
   })
   .superRefine((spec, ctx) => {
     checkInteger(ctx, "taps", spec.taps, 1, SPEC_LIMITS.maxFirTaps);
+    if (zeroEndedWindows.includes(spec.window) && spec.taps === 2) {
+      refuse(ctx, ["taps"], `taps must be 1 or at least 3 for the ${spec.window} window (it is 0 at both ends)`);
+    }
     if ((spec.response === "highpass" || spec.response === "bandstop") && spec.taps % 2 === 0) {
       refuse(ctx, ["taps"], `taps must be odd for a ${spec.response} (an even-length linear-phase FIR has zero gain at Nyquist)`);
     }

@@ -1,6 +1,6 @@
 import { firZpk } from "./fir/zpk";
 import { zpk2sos } from "./iir/zpk2sos";
-import { polyRoots } from "./poly";
+import { finiteRoots } from "./poly-finite";
 import type { Complex, FilterDesign } from "./types";
 
 /** An FIR design from its taps (zeros, poles and gain as in firZpk). */
@@ -23,8 +23,8 @@ export function designFromBa(b: number[], a: number[], sampleRateHz: number): Fi
   if (an.slice(1).every((c) => c === 0)) return designFromTaps(bn, sampleRateHz);
   const length = Math.max(bn.length, an.length);
   const pad = (p: number[]) => [...p, ...new Array<number>(length - p.length).fill(0)];
-  const zeros = polyRoots(pad(bn));
-  const poles = polyRoots(pad(an));
+  const zeros = finiteRoots(pad(bn), "b");
+  const poles = finiteRoots(pad(an), "a");
   const gain = bn.find((c) => c !== 0) as number;
   return { sampleRateHz, sos: sosWithDelay(zeros, poles, gain), zeros, poles, gain };
 }
@@ -41,8 +41,8 @@ export function designFromSos(sos: number[][], sampleRateHz: number): FilterDesi
     if (row[0] === 0 && row[1] === 0 && row[2] === 0) throw new Error(`sos row ${i} has an all-zero numerator`);
     return row.map((c) => c / row[3]);
   });
-  const zeros = rows.flatMap((r) => polyRoots(r.slice(0, 3)));
-  const poles = rows.flatMap((r) => polyRoots(r.slice(3)));
+  const zeros = rows.flatMap((r, i) => finiteRoots(r.slice(0, 3), `sos row ${i} numerator`));
+  const poles = rows.flatMap((r, i) => finiteRoots(r.slice(3), `sos row ${i} denominator`));
   const gain = rows.reduce((acc, r) => acc * (r.slice(0, 3).find((c) => c !== 0) as number), 1);
   return { sampleRateHz, sos: rows, zeros, poles, gain };
 }

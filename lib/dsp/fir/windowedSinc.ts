@@ -1,4 +1,4 @@
-import { firWindow, type FirWindow } from "./windows";
+import { firWindow, zeroEndedWindows, type FirWindow } from "./windows";
 
 export const firResponses = ["lowpass", "highpass", "bandpass", "bandstop"] as const;
 
@@ -21,8 +21,8 @@ export interface WindowedSincParams {
  * band response Σ (f₂·sinc(f₂·m) − f₁·sinc(f₁·m)) over the pass bands (edges normalised to Nyquist,
  * m = n − (N−1)/2) times the symmetric window, then scaled to unit gain at DC (lowpass, bandstop),
  * at Nyquist (highpass) or at the pass-band centre (bandpass). Oppenheim & Schafer DTSP §7.5.
- * Throws for an even N with highpass or bandstop (nonzero gain at Nyquist needs odd N) and for
- * cutoffs outside (0, fs/2).
+ * Throws for an even N with highpass or bandstop (nonzero gain at Nyquist needs odd N), for N = 2
+ * with a window that is 0 at both ends, and for cutoffs outside (0, fs/2).
  */
 export function windowedSinc(p: WindowedSincParams): number[] {
   const nyquist = p.sampleRateHz / 2;
@@ -36,6 +36,9 @@ export function windowedSinc(p: WindowedSincParams): number[] {
       throw new Error(`cutoffHz must be increasing and lie above 0 and below the Nyquist frequency ${nyquist} Hz`);
     }
   });
+  if (zeroEndedWindows.includes(p.window) && p.taps === 2) {
+    throw new Error(`the ${p.window} window is 0 at both ends, so it cannot have 2 taps (use 1 or at least 3)`);
+  }
   const passNyquist = p.response === "highpass" || p.response === "bandstop";
   if (passNyquist && p.taps % 2 === 0) {
     throw new Error(
@@ -58,6 +61,9 @@ export function windowedSinc(p: WindowedSincParams): number[] {
   const [firstLo, firstHi] = bands[0];
   const scaleFrequency = firstLo === 0 ? 0 : firstHi === 1 ? 1 : (firstLo + firstHi) / 2;
   const gain = h.reduce((acc, hn, n) => acc + hn * Math.cos(Math.PI * (n - centre) * scaleFrequency), 0);
+  if (!(Math.abs(gain) > 0)) {
+    throw new Error(`the windowed response has zero gain where it is scaled; use more taps (got ${p.taps})`);
+  }
   return h.map((hn) => hn / gain);
 }
 

@@ -3,6 +3,9 @@ export const firWindows = ["rectangular", "hann", "hamming", "blackman", "kaiser
 
 export type FirWindow = (typeof firWindows)[number];
 
+/** Windows whose end points are 0 (blackman up to rounding): with N = 2 nothing of the sinc is left. */
+export const zeroEndedWindows: readonly FirWindow[] = ["hann", "blackman"];
+
 /**
  * Symmetric N-point window w[0..N−1] (scipy.signal.get_window(..., fftbins=False) convention;
  * Harris 1978, Proc. IEEE 66(1)): with x = 2πn/(N−1),

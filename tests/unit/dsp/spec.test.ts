@@ -70,6 +70,10 @@ describe("refusals name the field and the allowed range", () => {
       expectRefused({ ...fir, taps: 1024 }, "taps", /integer from 1 to 1023/);
       expectRefused({ ...fir, taps: 10.5 }, "taps", /integer from 1 to 1023/);
     });
+    it("2 taps with hann or blackman (0 at both ends)", () => {
+      expectRefused({ ...fir, taps: 2 }, "taps", /1 or at least 3 for the hann window/);
+      expectRefused({ ...fir, window: "blackman", taps: 2 }, "taps", /1 or at least 3 for the blackman window/);
+    });
     it("even taps for highpass and bandstop", () => {
       expectRefused({ ...fir, response: "highpass", taps: 30 }, "taps", /odd for a highpass/);
       expectRefused({ ...fir, response: "bandstop", taps: 30, cutoffHz: [100, 200] }, "taps", /odd for a bandstop/);
