@@ -1,0 +1,106 @@
+import { sealData } from "iron-session";
+import mqtt, { type MqttClient } from "mqtt";
+import WebSocket from "ws";
+import type { Db } from "@/db/client";
+import { findUserByEmail } from "@/db/queries/users";
+import { seedDemo } from "@/db/seed";
+import { SESSION_COOKIE } from "@/lib/auth/session-config";
+import type { ServerMessage } from "@/lib/protocol";
+import { systemClock, type Logger } from "@/server/clock";
+import { startSidecar, type Sidecar, type SidecarOptions } from "@/server/sidecar";
+import { freshDb } from "./support/fresh-db";
+
+export const SECRET = "sidecar-test-secret-0123456789abcdef-0123456789";
+export const TTL = 3600;
+
+/** Collects log lines instead of printing them. */
+export function memoryLogger(): Logger & { lines: string[] } {
+  const lines: string[] = [];
+  return { lines, info: (m) => lines.push(m), warn: (m) => lines.push(m) };
+}
+
+/** A migrated, seeded database of its own. */
+export async function seededDb(label: string): Promise<{ db: Db; close: () => Promise<void> }> {
+  const fresh = await freshDb(label);
+  await seedDemo(fresh.db, "sidecar-test-password");
+  return fresh;
+}
+
+/** The Cookie header a signed-in demo account would send. */
+export async function cookieFor(db: Db, email: string, change: { sessionVersion?: number } = {}): Promise<string> {
+  const user = await findUserByEmail(db, email);
+  if (!user) throw new Error(`no user ${email}`);
+  const sealed = await sealData({ userId: user.id, sessionVersion: change.sessionVersion ?? user.session_version }, { password: SECRET, ttl: TTL });
+  return `${SESSION_COOKIE}=${sealed}`;
+}
+
+/** A sidecar on loopback with port 0 everywhere, the embedded broker, and timers off (tests call hub.tick()). */
+export function testSidecar(db: Db, over: Partial<SidecarOptions> = {}): Promise<Sidecar> {
+  return startSidecar({
+    db,
+    clock: systemClock,
+    logger: memoryLogger(),
+    sessionSecret: SECRET,
+    sessionTtlSeconds: TTL,
+    http: { host: "127.0.0.1", port: 0 },
+    mqtt: { mode: "embedded", host: "127.0.0.1", port: 0, requireDeviceAuth: false },
+    republishFiltered: false,
+    timers: false,
+    ...over,
+  });
+}
+
+/** Polls until cond() is true (real sockets need a moment); throws after timeoutMs. */
+export async function until(cond: () => boolean, timeoutMs = 5000, what = "condition"): Promise<void> {
+  const end = Date.now() + timeoutMs;
+  while (!cond()) {
+    if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 5));
+  }
+}
+
+export interface TestSocket {
+  ws: WebSocket;
+  messages: ServerMessage[];
+  send(message: unknown): void;
+  /** Waits for the next message (after those already seen) matching the predicate. */
+  next<T extends ServerMessage["type"]>(type: T, where?: (m: Extract<ServerMessage, { type: T }>) => boolean): Promise<Extract<ServerMessage, { type: T }>>;
+}
+
+/** Opens a WebSocket to the sidecar; resolves once open, or rejects with the refusal status. */
+export function openSocket(port: number, cookie?: string): Promise<TestSocket> {
+  return new Promise((resolve, reject) => {
+    const ws = new WebSocket(`ws://127.0.0.1:${port}/ws`, { headers: cookie ? { cookie } : {} });
+    const messages: ServerMessage[] = [];
+    let seen = 0;
+    ws.on("message", (data) => messages.push(JSON.parse(data.toString()) as ServerMessage));
+    ws.on("unexpected-response", (_req, res) => reject(new Error(`HTTP ${res.statusCode}`)));
+    ws.on("error", reject);
+    ws.on("open", () =>
+      resolve({
+        ws,
+        messages,
+        send: (m) => ws.send(JSON.stringify(m)),
+        async next(type, where) {
+          let found: ServerMessage | undefined;
+          await until(() => {
+            for (; seen < messages.length; seen++) {
+              const m = messages[seen];
+              if (m.type === type && (!where || where(m as never))) {
+                found = m;
+                seen++;
+                return true;
+              }
+            }
+            return false;
+          }, 5000, `a ${type} message`);
+          return found as never;
+        },
+      }),
+    );
+  });
+}
+
+export function connectDevice(url: string, opts: mqtt.IClientOptions = {}): Promise<MqttClient> {
+  return mqtt.connectAsync(url, { reconnectPeriod: 0, ...opts });
+}
