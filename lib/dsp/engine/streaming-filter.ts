@@ -17,7 +17,10 @@ export interface StreamingFilterOptions {
  * the next finite sample (exactly what a fresh filter would do from there).
  */
 export interface StreamingFilter {
-  /** Filter a block (same units as the input). `out`, if given, must have x.length entries; it may be x itself. */
+  /**
+   * Filter a block (same units as the input). `out`, if given, must have x.length entries and be
+   * either x itself (in-place) or memory that does not overlap x.
+   */
   process(x: Float64Array, out?: Float64Array): Float64Array;
   /** Back to the initial condition, as if just built; the fault count is kept. */
   reset(): void;
@@ -60,7 +63,9 @@ export function createStreamingFilter(design: FilterDesign, opts: StreamingFilte
   function process(x: Float64Array, out?: Float64Array): Float64Array {
     const y = out ?? new Float64Array(x.length);
     if (y.length !== x.length) throw new Error(`out must have ${x.length} entries like x (got ${y.length})`);
-    if (!awaitingSample && state.runIfFinite(x, y, 0, x.length)) return y;
+    // The optimistic pass may write y before finding a bad sample, so it must not run in place.
+    const inPlace = y.buffer === x.buffer;
+    if (!awaitingSample && !inPlace && state.runIfFinite(x, y, 0, x.length)) return y;
     let i = 0;
     while (i < x.length) {
       const bad = firstNonFinite(x, i);

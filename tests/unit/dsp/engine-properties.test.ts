@@ -107,11 +107,13 @@ describe("streaming filter properties", () => {
     expect(f.faults).toBe(1);
   });
 
-  it("filters in place when out is the input array", () => {
-    const d = { ...base, taps: [0.25, 0.5, 0.25] };
-    const x = Float64Array.from({ length: 20 }, (_, i) => i % 3);
-    const expected = filterSignal(d, x);
-    const f = createStreamingFilter(d);
-    expect(f.process(x, x)).toEqual(expected);
+  it("filters in place when out is the input array, also across a non-finite sample", () => {
+    fc.assert(
+      fc.property(design, initial, samples(1, 100), fc.option(fc.nat(99)), (d, init, x, bad) => {
+        if (bad !== null) x[bad % x.length] = NaN;
+        const expected = filterSignal(d, x, { initial: init });
+        expect(createStreamingFilter(d, { initial: init }).process(x, x)).toEqual(expected);
+      }),
+    );
   });
 });
