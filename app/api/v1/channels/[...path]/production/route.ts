@@ -1,0 +1,27 @@
+import { requireUser } from "@/app/_lib/auth";
+import { db } from "@/db";
+import { findChannelByPath } from "@/db/queries/channels";
+import { findActiveDeployment } from "@/db/queries/deployments";
+import { AppError } from "@/lib/errors";
+import { handler } from "@/lib/http/handler";
+
+/** The channel's production filter: the revision its device acknowledged last. */
+export const GET = handler(async (_req, ctx: { params: Promise<{ path: string[] }> }) => {
+  const path = (await ctx.params).path.join("/");
+  await requireUser();
+  const channel = await findChannelByPath(db(), path);
+  if (!channel) throw new AppError("not_found", `No channel ${path}.`);
+  const active = await findActiveDeployment(db(), channel.id);
+  if (!active) throw new AppError("not_found", `No production filter is active on ${path}.`);
+  return Response.json({
+    revisionId: active.revisionId,
+    setId: active.setId,
+    setName: active.setName,
+    revision: active.revision,
+    spec: active.spec,
+    design: active.design,
+    activatedAt: active.activatedAt,
+    deploymentId: active.id,
+    checksum: active.checksum,
+  });
+});

@@ -1,0 +1,299 @@
+import { sql, type Transaction } from "kysely";
+import type { SessionUser } from "@/lib/auth/guard";
+import { DeploymentRefusal, quantizeForTarget, signDeviceConfig, unsignedDeviceConfig, type DeploymentTarget } from "@/lib/coefficients";
+import type { FilterDesign, FilterSpec } from "@/lib/dsp";
+import { AppError } from "@/lib/errors";
+import { deploymentMail, type DeploymentRef } from "@/lib/mail/templates";
+import type { DeviceConfig } from "@/lib/protocol";
+import { decide } from "@/lib/workflow";
+import type { Db } from "../client";
+import type { Database, DeploymentKind } from "../types";
+import { appendAudit } from "./audit";
+import { findChannelByPath, type ChannelRow } from "./channels";
+import { enqueueMail, leadAddresses, userAddress } from "./mail";
+import { findRevision } from "./revisions";
+import { enforce } from "./sets";
+
+type Conn = Db | Transaction<Database>;
+
+/** Channel the sidecar's deployment worker LISTENs on; the payload is the deployment id. */
+export const DEPLOY_CHANNEL = "tapwright_deploy";
+
+const pathExpr = sql<string>`rg.key || '/' || d.key || '/' || c.key`;
+
+function deploymentQuery(db: Conn) {
+  return db
+    .selectFrom("deployments as p")
+    .innerJoin("revisions as r", "r.id", "p.revision_id")
+    .innerJoin("coefficient_sets as s", "s.id", "r.set_id")
+    .innerJoin("channels as c", "c.id", "p.channel_id")
+    .innerJoin("devices as d", "d.id", "c.device_id")
+    .innerJoin("rigs as rg", "rg.id", "d.rig_id")
+    .innerJoin("users as u", "u.id", "p.requested_by")
+    .select([
+      "p.id",
+      "p.kind",
+      "p.state",
+      "p.format",
+      "p.checksum",
+      "p.config",
+      "p.previous_id as previousId",
+      "p.requested_at as requestedAt",
+      "p.activated_at as activatedAt",
+      "p.ended_at as endedAt",
+      "p.reason",
+      "u.display_name as requestedBy",
+      "p.channel_id as channelId",
+      pathExpr.as("channel"),
+      "rg.key as rigKey",
+      "d.key as deviceKey",
+      "c.key as channelKey",
+      "c.sample_rate_hz as sampleRateHz",
+      "r.id as revisionId",
+      "r.revision",
+      "r.author_id as authorId",
+      "r.design",
+      "r.spec",
+      "s.id as setId",
+      "s.name as setName",
+    ]);
+}
+
+export interface DeploymentView {
+  id: number;
+  kind: DeploymentKind;
+  state: "pending" | "active" | "superseded" | "failed" | "rolled_back";
+  format: "f32" | "q15" | "q31";
+  checksum: string;
+  config: DeviceConfig;
+  previousId: number | null;
+  requestedAt: Date;
+  activatedAt: Date | null;
+  endedAt: Date | null;
+  reason: string | null;
+  requestedBy: string;
+  channelId: number;
+  channel: string;
+  rigKey: string;
+  deviceKey: string;
+  channelKey: string;
+  sampleRateHz: number;
+  revisionId: number;
+  revision: number;
+  authorId: number;
+  design: FilterDesign;
+  spec: FilterSpec;
+  setId: number;
+  setName: string;
+}
+
+export async function findDeployment(db: Conn, id: number): Promise<DeploymentView | undefined> {
+  return (await deploymentQuery(db).where("p.id", "=", id).executeTakeFirst()) as DeploymentView | undefined;
+}
+
+export async function listSetDeployments(db: Conn, setId: number): Promise<DeploymentView[]> {
+  return (await deploymentQuery(db).where("s.id", "=", setId).orderBy("p.id", "desc").execute()) as DeploymentView[];
+}
+
+export async function listChannelDeployments(db: Conn, channelId: number, limit = 50): Promise<DeploymentView[]> {
+  return (await deploymentQuery(db).where("p.channel_id", "=", channelId).orderBy("p.id", "desc").limit(limit).execute()) as DeploymentView[];
+}
+
+/** The active deployment of a channel: its production filter as the device acknowledged it. */
+export async function findActiveDeployment(db: Conn, channelId: number): Promise<DeploymentView | undefined> {
+  return (await deploymentQuery(db).where("p.channel_id", "=", channelId).where("p.state", "=", "active").executeTakeFirst()) as
+    | DeploymentView
+    | undefined;
+}
+
+export async function listActiveDeployments(db: Conn): Promise<DeploymentView[]> {
+  return (await deploymentQuery(db).where("p.state", "=", "active").execute()) as DeploymentView[];
+}
+
+export async function listPendingDeploymentIds(db: Conn): Promise<number[]> {
+  const rows = await db.selectFrom("deployments").select("id").where("state", "=", "pending").orderBy("id").execute();
+  return rows.map((r) => r.id);
+}
+
+function targetOf(ch: Pick<ChannelRow, "key" | "sampleRateHz" | "coefficientFormat">): DeploymentTarget {
+  return { channelKey: ch.key, sampleRateHz: ch.sampleRateHz, format: ch.coefficientFormat };
+}
+
+/** The production filter the sidecar runs for a deployment: the device's quantized sections as real values. */
+export function deployedDesign(d: Pick<DeploymentView, "design" | "channelKey" | "sampleRateHz" | "format">): FilterDesign {
+  const q = quantizeForTarget(d.design, { channelKey: d.channelKey, sampleRateHz: d.sampleRateHz, format: d.format });
+  return { ...d.design, sos: q.sos, taps: undefined };
+}
+
+function isUniqueViolation(err: unknown): boolean {
+  return typeof err === "object" && err !== null && (err as { code?: unknown }).code === "23505";
+}
+
+async function insertPending(
+  trx: Transaction<Database>,
+  values: { revisionId: number; channel: ChannelRow; kind: DeploymentKind; config: DeviceConfig; previousId: number | null; actorId: number },
+): Promise<number> {
+  try {
+    const row = await trx
+      .insertInto("deployments")
+      .values({
+        revision_id: values.revisionId,
+        channel_id: values.channel.id,
+        kind: values.kind,
+        format: values.config.format,
+        config: JSON.stringify(values.config),
+        checksum: values.config.checksum,
+        previous_id: values.previousId,
+        requested_by: values.actorId,
+      })
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    await sql`select pg_notify(${DEPLOY_CHANNEL}, ${String(row.id)})`.execute(trx);
+    return row.id;
+  } catch (err) {
+    if (isUniqueViolation(err)) {
+      throw new AppError("conflict", `A deployment to ${values.channel.path} is already waiting for its device. Wait for it to finish, then try again.`);
+    }
+    throw err;
+  }
+}
+
+export interface PromotionResult {
+  deployments: { id: number; channel: string }[];
+}
+
+/**
+ * Records a pending deployment per target channel and notifies the worker, in the caller's transaction.
+ * Refused: not a lead (403), revision not approved or set retired (409), a target that is unknown (404),
+ * of another sample rate or unstable once quantized (422), or already has a pending deployment (409).
+ */
+export async function requestPromotion(
+  trx: Transaction<Database>,
+  actor: SessionUser,
+  revisionId: number,
+  channelPaths: string[],
+): Promise<PromotionResult> {
+  const locked = await trx.selectFrom("revisions").select("id").where("id", "=", revisionId).forShare().executeTakeFirst();
+  if (!locked) throw new AppError("not_found", "No such revision.");
+  const rev = (await findRevision(trx, revisionId))!;
+  enforce(decide("promote", { role: actor.role, actorId: actor.id, authorId: rev.authorId, state: rev.state, retired: rev.retiredAt !== null }));
+  const deployments: PromotionResult["deployments"] = [];
+  for (const path of [...new Set(channelPaths)]) {
+    const channel = await findChannelByPath(trx, path);
+    if (!channel) throw new AppError("not_found", `No channel ${path}.`);
+    let config: DeviceConfig;
+    try {
+      const quantized = quantizeForTarget(rev.design, targetOf(channel));
+      config = await signDeviceConfig(unsignedDeviceConfig(String(rev.id), targetOf(channel), quantized));
+    } catch (err) {
+      if (err instanceof DeploymentRefusal) throw new AppError("unprocessable", `Refused for ${path}: ${err.message}.`);
+      throw err;
+    }
+    const active = await findActiveDeployment(trx, channel.id);
+    const id = await insertPending(trx, { revisionId: rev.id, channel, kind: "promote", config, previousId: active?.id ?? null, actorId: actor.id });
+    await appendAudit(trx, {
+      actorId: actor.id,
+      action: "deployment.request",
+      entity: "deployment",
+      entityId: id,
+      before: active ? { activeDeployment: active.id, revisionId: active.revisionId } : null,
+      after: { revisionId: rev.id, setId: rev.setId, revision: rev.revision, channel: path, format: config.format, checksum: config.checksum },
+    });
+    deployments.push({ id, channel: path });
+  }
+  return { deployments };
+}
+
+/**
+ * Asks to put the previously active revision back on a channel, through the same acknowledged path.
+ * `expectedActiveId` is the active deployment the person saw; anything else is a 409.
+ */
+export async function requestRollback(
+  trx: Transaction<Database>,
+  actor: SessionUser,
+  channelPath: string,
+  expectedActiveId: number,
+): Promise<{ id: number; channel: string }> {
+  enforce(decide("rollback", { role: actor.role, actorId: actor.id }));
+  const channel = await findChannelByPath(trx, channelPath);
+  if (!channel) throw new AppError("not_found", `No channel ${channelPath}.`);
+  const active = await findActiveDeployment(trx, channel.id);
+  if (!active || active.id !== expectedActiveId) {
+    throw new AppError("conflict", `The active filter on ${channelPath} changed since you looked. Reload and try again.`);
+  }
+  const previous = active.previousId === null ? undefined : await findDeployment(trx, active.previousId);
+  if (!previous) throw new AppError("conflict", `Nothing to roll back to: ${channelPath} had no active filter before this one.`);
+  const id = await insertPending(trx, {
+    revisionId: previous.revisionId,
+    channel,
+    kind: "rollback",
+    config: previous.config,
+    previousId: active.id,
+    actorId: actor.id,
+  });
+  await appendAudit(trx, {
+    actorId: actor.id,
+    action: "deployment.rollback_request",
+    entity: "deployment",
+    entityId: id,
+    before: { activeDeployment: active.id, revisionId: active.revisionId },
+    after: { revisionId: previous.revisionId, channel: channelPath, checksum: previous.checksum },
+  });
+  return { id, channel: channelPath };
+}
+
+function refOf(d: DeploymentView): DeploymentRef {
+  return { setId: d.setId, setName: d.setName, revision: d.revision, channel: d.channel, target: d.channel };
+}
+
+async function notifyOutcome(trx: Transaction<Database>, d: DeploymentView, outcome: "promoted" | "failed" | "rolled_back", detail: string) {
+  const to = [...(await userAddress(trx, d.authorId)), ...(await leadAddresses(trx))];
+  await enqueueMail(trx, to, deploymentMail(refOf(d), outcome, detail));
+}
+
+/**
+ * A matching ack arrived: the pending deployment becomes active and the channel's previous active one
+ * superseded (rolled back, for a rollback), in one transaction with the audit entry and the mail.
+ * Returns null when the deployment is no longer pending (already handled).
+ */
+export async function activateDeployment(trx: Transaction<Database>, id: number): Promise<DeploymentView | null> {
+  const row = await trx.selectFrom("deployments").select(["state", "channel_id", "kind"]).where("id", "=", id).forUpdate().executeTakeFirst();
+  if (!row || row.state !== "pending") return null;
+  const before = await trx
+    .updateTable("deployments")
+    .set({ state: row.kind === "rollback" ? "rolled_back" : "superseded", ended_at: sql`now()` })
+    .where("channel_id", "=", row.channel_id)
+    .where("state", "=", "active")
+    .returning(["id", "revision_id"])
+    .executeTakeFirst();
+  await trx.updateTable("deployments").set({ state: "active", activated_at: sql`now()` }).where("id", "=", id).execute();
+  const d = (await findDeployment(trx, id))!;
+  await appendAudit(trx, {
+    actorId: null,
+    action: row.kind === "rollback" ? "deployment.rolled_back" : "deployment.activate",
+    entity: "deployment",
+    entityId: id,
+    before: before ? { activeDeployment: before.id, revisionId: before.revision_id } : null,
+    after: { activeDeployment: id, revisionId: d.revisionId, channel: d.channel, checksum: d.checksum, acknowledged: true },
+  });
+  await notifyOutcome(trx, d, row.kind === "rollback" ? "rolled_back" : "promoted", `Checksum ${d.checksum}.`);
+  return d;
+}
+
+/** No matching ack (timeout or refusal): the deployment fails and the previous active one stays. */
+export async function failDeployment(trx: Transaction<Database>, id: number, reason: string): Promise<DeploymentView | null> {
+  const row = await trx.selectFrom("deployments").select("state").where("id", "=", id).forUpdate().executeTakeFirst();
+  if (!row || row.state !== "pending") return null;
+  await trx.updateTable("deployments").set({ state: "failed", ended_at: sql`now()`, reason }).where("id", "=", id).execute();
+  const d = (await findDeployment(trx, id))!;
+  await appendAudit(trx, {
+    actorId: null,
+    action: "deployment.fail",
+    entity: "deployment",
+    entityId: id,
+    before: { state: "pending" },
+    after: { state: "failed", reason, channel: d.channel },
+  });
+  await notifyOutcome(trx, d, "failed", `Reason: ${reason}`);
+  return d;
+}

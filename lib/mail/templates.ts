@@ -1,0 +1,54 @@
+/** The subject and plain-text body of one notification; recipients are chosen by the caller. */
+export interface MailMessage {
+  kind: MailKind;
+  subject: string;
+  body: string;
+}
+
+export type MailKind = "review_requested" | "approved" | "rejected" | "promoted" | "failed" | "rolled_back";
+
+/** What every message names: the set, its revision and where to open it. */
+export interface RevisionRef {
+  setId: number;
+  setName: string;
+  revision: number;
+  channel: string;
+}
+
+const title = (r: RevisionRef) => `${r.setName} r${r.revision} (${r.channel})`;
+const footer = (r: RevisionRef) => `\n\nOpen it in Tapwright: /sets/${r.setId}\n\n— Tapwright (an engineering aid; this message makes no safety claim)\n`;
+
+export function reviewRequestedMail(r: RevisionRef, by: string, notes: string): MailMessage {
+  return {
+    kind: "review_requested",
+    subject: `Review requested: ${title(r)}`,
+    body: `${by} asks for a review of revision ${r.revision} of "${r.setName}" on ${r.channel}.` +
+      (notes ? `\n\nAuthor's notes:\n${notes}` : "") + footer(r),
+  };
+}
+
+export function reviewDecisionMail(r: RevisionRef, decision: "approved" | "rejected", by: string, comment: string): MailMessage {
+  return {
+    kind: decision,
+    subject: `${decision === "approved" ? "Approved" : "Rejected"}: ${title(r)}`,
+    body: `${by} ${decision} revision ${r.revision} of "${r.setName}" on ${r.channel}.\n\nComment:\n${comment}` + footer(r),
+  };
+}
+
+export interface DeploymentRef extends RevisionRef {
+  /** The channel the deployment went to (may differ from the set's own channel). */
+  target: string;
+}
+
+export function deploymentMail(d: DeploymentRef, outcome: "promoted" | "failed" | "rolled_back", detail: string): MailMessage {
+  const what = {
+    promoted: { head: "Active", line: `is now active on ${d.target}; the device acknowledged it.` },
+    failed: { head: "Deployment failed", line: `did not become active on ${d.target}; the previous filter stays active.` },
+    rolled_back: { head: "Rolled back", line: `is active again on ${d.target} after a rollback; the device acknowledged it.` },
+  }[outcome];
+  return {
+    kind: outcome,
+    subject: `${what.head}: ${title(d)} → ${d.target}`,
+    body: `Revision ${d.revision} of "${d.setName}" ${what.line}` + (detail ? `\n\n${detail}` : "") + footer(d),
+  };
+}

@@ -1,0 +1,106 @@
+import { sql } from "kysely";
+import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { actAs, butterSpec, jsonRequest, params, setUpLab, type Accounts } from "./sets-fixture";
+
+vi.mock("@/db", async () => (await import("./sets-fixture")).dbModule);
+vi.mock("@/app/_lib/auth", async () => (await import("./sets-fixture")).authModule);
+
+const setsRoute = await import("@/app/api/v1/sets/route");
+const revisionsRoute = await import("@/app/api/v1/sets/[id]/revisions/route");
+const productionRoute = await import("@/app/api/v1/channels/[...path]/production/route");
+
+let lab: Awaited<ReturnType<typeof setUpLab>>;
+let users: Accounts;
+const CHANNEL = "gearbox-endurance/torque-node/input-torque";
+
+beforeAll(async () => {
+  lab = await setUpLab("sets_api");
+  users = lab.users;
+});
+afterAll(() => lab.close());
+
+async function createSet(name: string, spec: unknown = butterSpec()) {
+  return setsRoute.POST(jsonRequest("POST", "/api/v1/sets", { channel: CHANNEL, name, spec }), undefined as never);
+}
+
+describe("POST /api/v1/sets", () => {
+  it("creates a set with its first revision, designed and quantized on the server", async () => {
+    actAs(users.engineer);
+    const res = await createSet("Torque LP");
+    expect(res.status).toBe(201);
+    const body = await res.json();
+    expect(body).toMatchObject({ revision: 1 });
+    const rev = await lab.db.selectFrom("revisions").selectAll().where("id", "=", body.revisionId).executeTakeFirstOrThrow();
+    expect(rev.device_format).toBe("q15");
+    expect(rev.state).toBe("draft");
+    const analysis = rev.analysis as { stable: boolean; cutoffsHz: number[]; deployable: { ok: boolean } };
+    expect(analysis.stable).toBe(true);
+    expect(analysis.cutoffsHz[0]).toBeCloseTo(100, 6); // −3.0103 dB at fc for Butterworth (field notes §2.1)
+    expect(analysis.deployable.ok).toBe(true);
+    const audit = await lab.db.selectFrom("audit_log").select("action").where("entity_id", "=", String(body.setId)).execute();
+    expect(audit.map((a) => a.action)).toContain("set.create");
+  });
+
+  it("refuses operators (403), a spec at another sample rate (422) and an unknown channel (404)", async () => {
+    actAs(users.operator);
+    expect((await createSet("x")).status).toBe(403);
+    actAs(users.engineer);
+    expect((await createSet("x", butterSpec(100, 2000))).status).toBe(422);
+    const res = await setsRoute.POST(jsonRequest("POST", "/api/v1/sets", { channel: "no/such/channel", name: "x", spec: butterSpec() }), undefined as never);
+    expect(res.status).toBe(404);
+    actAs(null);
+    expect((await createSet("x")).status).toBe(401);
+  });
+});
+
+describe("POST /api/v1/sets/{id}/revisions", () => {
+  it("adds revision 2, and answers 409 to a save from a stale revision", async () => {
+    actAs(users.engineer);
+    const { setId } = await (await createSet("Torque LP two")).json();
+    const save = (expected: number, fc: number) =>
+      revisionsRoute.POST(
+        jsonRequest("POST", `/api/v1/sets/${setId}/revisions`, { spec: butterSpec(fc), notes: "narrower", expectedLatestRevision: expected }),
+        params({ id: String(setId) }),
+      );
+    const second = await save(1, 80);
+    expect(second.status).toBe(201);
+    expect(await second.json()).toMatchObject({ setId, revision: 2 });
+    const stale = await save(1, 70);
+    expect(stale.status).toBe(409);
+    expect((await stale.json()).error.code).toBe("conflict");
+  });
+
+  it("keeps revision content immutable in the database", async () => {
+    const rev = await lab.db.selectFrom("revisions").select("id").executeTakeFirstOrThrow();
+    await expect(sql`update revisions set notes = 'edited' where id = ${rev.id}`.execute(lab.db)).rejects.toThrow(/immutable/);
+    await expect(sql`update revisions set spec = '{}'::jsonb where id = ${rev.id}`.execute(lab.db)).rejects.toThrow(/immutable/);
+    await expect(sql`delete from revisions where id = ${rev.id}`.execute(lab.db)).rejects.toThrow(/immutable/);
+  });
+});
+
+describe("GET /api/v1/sets", () => {
+  it("pages, filters and sorts on the server", async () => {
+    actAs(users.operator);
+    const get = async (qs: string) => (await setsRoute.GET(jsonRequest("GET", `/api/v1/sets?${qs}`), undefined as never)).json();
+    const all = await get("sort=name&dir=asc&pageSize=1");
+    expect(all.total).toBe(2);
+    expect(all.items).toHaveLength(1);
+    expect(all.items[0]).toMatchObject({ name: "Torque LP", channel: CHANNEL, status: "draft", latestRevision: 1, author: "Demo Engineer" });
+    const page2 = await get("sort=name&dir=asc&pageSize=1&page=2");
+    expect(page2.items[0].name).toBe("Torque LP two");
+    expect((await get("q=two")).total).toBe(1);
+    expect((await get("status=approved")).total).toBe(0);
+    expect((await get("author=engineer")).total).toBe(2);
+    expect((await get(`channel=${CHANNEL}`)).total).toBe(2);
+    const bad = await setsRoute.GET(jsonRequest("GET", "/api/v1/sets?sort=bogus"), undefined as never);
+    expect(bad.status).toBe(400);
+  });
+});
+
+describe("GET /api/v1/channels/{path}/production", () => {
+  it("answers 404 while nothing is active", async () => {
+    actAs(users.operator);
+    const res = await productionRoute.GET(jsonRequest("GET", `/api/v1/channels/${CHANNEL}/production`), params({ path: CHANNEL.split("/") }));
+    expect(res.status).toBe(404);
+  });
+});
