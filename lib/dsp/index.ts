@@ -25,6 +25,12 @@ export { designFromBa, designFromSos, designFromTaps } from "./transfer";
 
 export { iirSpecSchema, IIR_FAMILIES, IIR_RESPONSES, MAX_ORDER, type IirSpec, type IirFamily, type IirResponse } from "./iir/spec";
 export { designIir, analogPrototypeZpk } from "./iir/design";
+export {
+  estimateOrder,
+  orderRequirementSchema,
+  type OrderRequirement,
+  type OrderEstimate,
+} from "./iir/order";
 export { zpk2sos } from "./iir/zpk2sos";
 export { bilinearZpk } from "./iir/bilinear";
 
@@ -52,4 +58,5 @@ export { expm, type Matrix } from "./linalg";
 
 export * from "./analysis";
 export * from "./engine";
+export * from "./fixed";
 export * from "./fixed";
