@@ -5,8 +5,8 @@ export type RunForm = { kind: "sos"; sos: number[][] } | { kind: "taps"; taps: n
 
 /**
  * The run form of a design, after checking what every analysis relies on: a finite sample rate
- * above 0 Hz, exactly one of sos and taps, six finite numbers per SOS row with a0 = 1, and at
- * least one finite tap. Throws with the allowed range otherwise.
+ * above 0 Hz, exactly one of sos and taps, six finite numbers per SOS row with a0 = 1 and a non-zero
+ * numerator, finite taps not all zero. Throws with the allowed range otherwise.
  */
 export function runForm(design: FilterDesign): RunForm {
   const fs = design.sampleRateHz;
@@ -23,12 +23,15 @@ export function runForm(design: FilterDesign): RunForm {
         throw new Error(`sos row ${i} must hold 6 finite numbers [b0, b1, b2, a0, a1, a2]`);
       }
       if (row[3] !== 1) throw new Error(`sos row ${i} must have a0 = 1 (got ${row[3]})`);
+      if (row[0] === 0 && row[1] === 0 && row[2] === 0) {
+        throw new Error(`sos row ${i} has an all-zero numerator, so the filter output is identically zero`);
+      }
     });
     return { kind: "sos", sos: design.sos };
   }
   const taps = design.taps ?? [];
-  if (taps.length === 0 || taps.some((v) => !Number.isFinite(v))) {
-    throw new Error("taps must hold at least one finite number");
+  if (taps.length === 0 || taps.some((v) => !Number.isFinite(v)) || taps.every((v) => v === 0)) {
+    throw new Error("taps must be finite numbers, at least one of them non-zero");
   }
   return { kind: "taps", taps };
 }

@@ -16,9 +16,12 @@ export function ascendingPolyAt(c: readonly number[], x: Complex): Complex {
 export function transferAt(form: RunForm, omega: number): Complex {
   const x: Complex = [Math.cos(omega), -Math.sin(omega)];
   if (form.kind === "taps") return ascendingPolyAt(form.taps, x);
+  const x2: Complex = cMul(x, x);
   let h: Complex = [1, 0];
-  for (const row of form.sos) {
-    h = cMul(h, cDiv(ascendingPolyAt(row.slice(0, 3), x), ascendingPolyAt(row.slice(3, 6), x)));
+  for (const [b0, b1, b2, , a1, a2] of form.sos) {
+    const num: Complex = [b0 + b1 * x[0] + b2 * x2[0], b1 * x[1] + b2 * x2[1]];
+    const den: Complex = [1 + a1 * x[0] + a2 * x2[0], a1 * x[1] + a2 * x2[1]];
+    h = cMul(h, cDiv(num, den));
   }
   return h;
 }

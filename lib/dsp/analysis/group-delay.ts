@@ -40,10 +40,9 @@ interface Factored {
   roots: Complex[];
 }
 
-/** c0 + c1·z⁻¹ + c2·z⁻² (ascending powers of z⁻¹) as z^{−d}·c·Π(1 − z_k·z⁻¹). */
+/** c0 + c1·z⁻¹ + c2·z⁻² (ascending powers of z⁻¹, not all zero: see runForm) as z^{−d}·c·Π(1 − z_k·z⁻¹). */
 function factor(c: number[]): Factored {
   const delay = c.findIndex((v) => v !== 0);
-  if (delay < 0) throw new Error("an SOS numerator is all zeros, so the filter output is identically zero");
   return { delay, roots: polyRoots(c.slice(delay)) };
 }
 

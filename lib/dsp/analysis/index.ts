@@ -6,7 +6,7 @@ export { freqGrid } from "./grid";
 export { ON_CIRCLE_TOLERANCE } from "./group-delay";
 export { findPeaks, type PeakOptions, type SpectralPeak } from "./peaks";
 export { sectionInStabilityTriangle, stability, type Stability } from "./stability";
-export { MAX_STEP_SAMPLES, stepMetrics, type StepMetrics } from "./step-metrics";
+export { DC_BLOCKED_DB, MAX_STEP_SAMPLES, stepMetrics, type StepMetrics } from "./step-metrics";
 export { impulseResponse, stepResponse } from "./time-response";
 export { MAGNITUDE_FLOOR_DB, toMs } from "./units";
 export { periodicHann, welch, type WelchOptions, type WelchResult } from "./welch";

@@ -16,8 +16,10 @@ import { stepResponse } from "./time-response";
  *   0 if the response never passes the final value.
  * - settlingTimeS: (k + 1)/fs for the last sample k outside final ± 2 % of |final|; 0 if none is.
  * A metric is null when undefined: all but finalValue for an unstable design (some |p| ≥ 1); rise,
- * overshoot and settling when the final value is zero (a highpass or bandpass; |H(1)| below 1e-9 of the
- * peak gain), or when a level is not reached / the band not entered within the simulated length.
+ * overshoot and settling when DC is blocked — the final value is 0 (a highpass or bandpass) or more than
+ * DC_BLOCKED_DB = 20 dB below the passband reference peakGainDb (our choice: an even-order elliptic
+ * highpass settles to its −60 dB stopband level, against which "overshoot" would read 10⁵ %) — and
+ * when a level is not reached / the band not entered within the simulated length.
  * finalValue is null only when a pole sits at z = 1 (unbounded DC gain).
  * Length: 2·⌈ln(10⁻⁶)/ln r⌉ samples for the largest pole radius r (until r^n < 10⁻⁶, doubled for
  * repeated poles), at least 64 and the FIR length + 1, at most MAX_STEP_SAMPLES.
@@ -42,7 +44,8 @@ export const SETTLING_BAND = 0.02;
 
 const DECAY = 1e-6;
 const MIN_STEP_SAMPLES = 64;
-const ZERO_FINAL_RELATIVE = 1e-9;
+/** DC this far below the passband reference (dB) counts as blocked: rise, overshoot and settling are null. */
+export const DC_BLOCKED_DB = 20;
 
 /** Step-response metrics of a design; definitions and units in the header above. */
 export function stepMetrics(design: FilterDesign): StepMetrics {
@@ -51,7 +54,7 @@ export function stepMetrics(design: FilterDesign): StepMetrics {
   const none = { riseTimeS: null, overshootPercent: null, settlingTimeS: null };
   if (!stable) return { ...none, finalValue: hasPoleAtDc(design) ? null : dcGain(design) };
   const finalValue = dcGain(design);
-  if (Math.abs(finalValue) <= ZERO_FINAL_RELATIVE * 10 ** (peakGainDb(design) / 20)) return { ...none, finalValue };
+  if (Math.abs(finalValue) <= 10 ** ((peakGainDb(design) - DC_BLOCKED_DB) / 20)) return { ...none, finalValue };
 
   const n = simulationLength(maxPoleRadius, form.kind === "taps" ? form.taps.length : 0);
   const y = stepResponse(design, n);

@@ -13,6 +13,8 @@ import {
   stability,
   toMs,
 } from "@/lib/dsp/analysis";
+import { analogPrototypeZpk, designIir } from "@/lib/dsp/iir/design";
+import type { IirSpec } from "@/lib/dsp/iir/spec";
 import type { Complex, FilterDesign } from "@/lib/dsp/types";
 
 interface ResponseCase {
@@ -164,6 +166,25 @@ describe("group delay: published checks and unit-circle zeros", () => {
   });
 });
 
+describe("with designs from lib/dsp/iir", () => {
+  const spec: IirSpec = { kind: "iir", family: "butterworth", response: "lowpass", order: 4, cutoffHz: 100, sampleRateHz: 1000 };
+
+  it("digital and analog Butterworth are both −3.0103 dB at the design cutoff (field.md §2.1, §2.3 prewarping)", () => {
+    const [fc] = cutoffPoints(designIir(spec));
+    expect(Math.abs(fc - 100) / 100).toBeLessThanOrEqual(1e-8);
+    const analog = analogResponse(analogPrototypeZpk(spec), [100]);
+    expect(analog.magnitudeDb[0]).toBeCloseTo(-10 * Math.log10(2), 9);
+  });
+
+  it("the analog prototype's DC group delay matches 1/(ωc·sin(π/2N)) = 2.6131/ωc (field.md §1.3): digital ≈ analog at low f", () => {
+    const d = designIir(spec);
+    const [gd] = frequencyResponse(d, [0.01]).groupDelaySamples;
+    const analogSeconds = 2.6131 / (2 * Math.PI * 100);
+    // Prewarping moves the digital corner: at fc/fs = 0.1 the delays differ by a few per cent only.
+    expect(Math.abs(gd / 1000 - analogSeconds) / analogSeconds).toBeLessThan(0.05);
+  });
+});
+
 describe("stability", () => {
   it("FIR is always stable with all poles at the origin", () => {
     expect(stability(design(byName("firwin51")))).toEqual({ stable: true, maxPoleRadius: 0 });
@@ -188,6 +209,8 @@ describe("bad parameters throw with the allowed range", () => {
     expect(() => frequencyResponse({ ...base, taps: [1] }, [-1])).toThrow(/≥ 0 Hz/);
     expect(() => freqGrid(1000, 1, "log")).toThrow(/≥ 2/);
     expect(() => dcGain({ ...base, sos: [[1, 0, 0, 1, -1, 0]] })).toThrow(/pole at z = 1/);
+    expect(() => frequencyResponse({ ...base, taps: [0, 0] }, [1])).toThrow(/non-zero/);
+    expect(() => frequencyResponse({ ...base, sos: [[0, 0, 0, 1, 0, 0]] }, [1])).toThrow(/all-zero numerator/);
   });
 });
 

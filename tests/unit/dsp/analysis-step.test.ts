@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import fixture from "../../fixtures/dsp/analysis-step.json";
 import { impulseResponse, MAX_STEP_SAMPLES, stepMetrics, stepResponse } from "@/lib/dsp/analysis";
+import { designIir } from "@/lib/dsp/iir/design";
 import type { FilterDesign } from "@/lib/dsp/types";
 
 interface StepCase {
@@ -80,6 +81,16 @@ describe("stepMetrics: undefined metrics are null", () => {
   it("a highpass (final value 0) gives null rise, overshoot and settling", () => {
     const hp = sosDesign(1000, [[0.5, -1, 0.5, 1, -0.5, 0.1]]);
     expect(stepMetrics(hp)).toEqual({ riseTimeS: null, overshootPercent: null, settlingTimeS: null, finalValue: 0 });
+  });
+
+  it("an elliptic highpass settling to its −60 dB stopband level (DC blocked, > 20 dB down) gives null metrics", () => {
+    const hp = designIir({
+      kind: "iir", family: "elliptic", response: "highpass", order: 6, cutoffHz: 20, sampleRateHz: 48000,
+      passbandRippleDb: 0.5, stopbandAttenuationDb: 60,
+    });
+    const m = stepMetrics(hp);
+    expect(m).toMatchObject({ riseTimeS: null, overshootPercent: null, settlingTimeS: null });
+    expect(m.finalValue).toBeCloseTo(1e-3, 9);
   });
 
   it("an unstable design gives null metrics but its DC gain as final value", () => {
