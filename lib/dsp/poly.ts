@@ -71,8 +71,8 @@ const MAX_ABERTH_ITERATIONS = 500;
  * All complex roots of a real polynomial (descending powers), with multiplicity.
  * Leading zero coefficients are dropped; trailing zero coefficients are roots at exactly 0.
  * Method: Aberth–Ehrlich simultaneous iteration (Aberth 1973, Math. Comp. 27(122)) started from
- * Bini's Newton-polygon circles (Bini 1996, Numer. Algorithms 13:179–200), stopped per root when
- * |p(z)| is within the Horner rounding bound; then conjugate pairs are made exactly conjugate and
+ * Bini's Newton-polygon circles (Bini 1996, Numer. Algorithms 13:179–200); each root takes one last
+ * correction once |p(z)| is within the Horner rounding bound; then conjugate pairs are made exactly conjugate and
  * near-real leftovers exactly real. Throws for the zero polynomial or non-finite coefficients.
  */
 export function polyRoots(coeffs: number[]): Complex[] {
@@ -183,7 +183,7 @@ function aberth(a: number[], start: Complex[]): Complex[] {
     for (let i = 0; i < z.length; i++) {
       if (done[i]) continue;
       const { step, converged } = newtonStep(a, z[i]);
-      if (converged) {
+      if (step[0] === 0 && step[1] === 0) {
         done[i] = true;
         continue;
       }
@@ -193,7 +193,8 @@ function aberth(a: number[], start: Complex[]): Complex[] {
       }
       const correction = cDiv(step, cSub([1, 0], cMul(step, repulsion)));
       z[i] = cSub(z[i], correction);
-      if (cAbs(correction) <= EPS * cAbs(z[i])) done[i] = true;
+      // One more correction after the residual reaches rounding level polishes the root (Newton polishing).
+      if (converged || cAbs(correction) <= EPS * cAbs(z[i])) done[i] = true;
     }
   }
   if (z.some((r) => !Number.isFinite(r[0]) || !Number.isFinite(r[1]))) {
