@@ -1,6 +1,9 @@
 import { defineConfig } from "@playwright/test";
 
 const WEB_PORT = Number(process.env.E2E_WEB_PORT ?? 3100);
+const SIDECAR_PORT = Number(process.env.E2E_SIDECAR_PORT ?? 3101);
+const MQTT_PORT = Number(process.env.E2E_MQTT_PORT ?? 18831);
+const ports = { PORT: String(WEB_PORT), SIDECAR_PORT: String(SIDECAR_PORT), MQTT_PORT: String(MQTT_PORT) };
 
 export default defineConfig({
   testDir: "tests/e2e",
@@ -19,7 +22,14 @@ export default defineConfig({
       url: `http://127.0.0.1:${WEB_PORT}/api/health`,
       reuseExistingServer: false,
       timeout: 120_000,
-      env: { DEMO: "1" },
+      env: { DEMO: "1", ...ports },
+    },
+    {
+      command: "node --import tsx server/main.ts",
+      url: `http://127.0.0.1:${SIDECAR_PORT}/health`,
+      reuseExistingServer: false,
+      timeout: 60_000,
+      env: { DEMO: "1", ...ports },
     },
   ],
 });

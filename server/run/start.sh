@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# `npm start`: set everything up, then run the web app (and the sidecar with its broker and demo rig).
+# `npm start`: set everything up, then run the web app and the sidecar (broker, live filters, demo rig).
 set -euo pipefail
 ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)
 cd "$ROOT"
@@ -11,6 +11,7 @@ cleanup() { for p in "${pids[@]}"; do kill "$p" 2>/dev/null || true; done; wait 
 trap cleanup EXIT INT TERM
 
 node_modules/.bin/next start -H 127.0.0.1 -p "$PORT" & pids+=($!)
+node --import tsx server/main.ts & pids+=($!)
 
 cat <<MSG
 
