@@ -19,7 +19,15 @@ import { createWsEndpoint } from "./ws/upgrade";
 
 export type MqttSetup =
   | { mode: "embedded"; host: string; port: number; requireDeviceAuth: boolean; internal?: InternalCredential[] }
-  | { mode: "external"; url: string; username?: string; password?: string; ca?: Buffer; sharedGroup?: string };
+  | {
+      mode: "external";
+      url: string;
+      username?: string;
+      password?: string;
+      ca?: Buffer;
+      sharedGroup?: string;
+      backoffMs?: { initial: number; max: number };
+    };
 
 export interface SidecarOptions {
   db: Db;
@@ -78,8 +86,8 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     bus = inProcessBus(broker.broker);
     mqttUrl = `mqtt://${opts.mqtt.host}:${broker.port}`;
   } else {
-    const { url, username, password, ca, sharedGroup } = opts.mqtt;
-    bus = connectMqttBus({ url, username, password, ca, protocolVersion: sharedGroup ? 5 : 4, clock, logger });
+    const { url, username, password, ca, sharedGroup, backoffMs } = opts.mqtt;
+    bus = connectMqttBus({ url, username, password, ca, protocolVersion: sharedGroup ? 5 : 4, clock, logger, backoffMs });
     mqttUrl = url;
     if (username && password) demoCredentials = { username, password };
   }

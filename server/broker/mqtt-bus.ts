@@ -61,15 +61,15 @@ export function connectMqttBus(opts: MqttBusOptions): MessageBus & { client: Mqt
     for (const l of listeners) l(state);
   }
 
+  // "connected" is reported once the broker has acknowledged the subscriptions, so messages flow from then on.
   client.on("connect", () => {
     attempt = 0;
     const filters = [...new Set(handlers.map((h) => h.filter))];
-    if (filters.length) {
-      client.subscribe(filters, { qos: 0 }, (err) => {
-        if (err) opts.logger.warn(`MQTT subscribe failed: ${err.message}`);
-      });
-    }
-    setState("connected");
+    if (!filters.length) return setState("connected");
+    client.subscribe(filters, { qos: 0 }, (err) => {
+      if (err) opts.logger.warn(`MQTT subscribe failed: ${err.message}`);
+      else setState("connected");
+    });
   });
   client.on("message", (topic, payload) => {
     for (const h of handlers) if (topicMatches(h.filter, topic)) h.handler(topic, payload);

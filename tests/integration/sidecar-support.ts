@@ -1,3 +1,8 @@
+import { spawn, type ChildProcess } from "node:child_process";
+import { mkdtempSync, writeFileSync } from "node:fs";
+import net from "node:net";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { sealData } from "iron-session";
 import mqtt, { type MqttClient } from "mqtt";
 import WebSocket from "ws";
@@ -103,4 +108,49 @@ export function openSocket(port: number, cookie?: string): Promise<TestSocket> {
 
 export function connectDevice(url: string, opts: mqtt.IClientOptions = {}): Promise<MqttClient> {
   return mqtt.connectAsync(url, { reconnectPeriod: 0, ...opts });
+}
+
+/** A free loopback TCP port (bound and released). */
+export function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = net.createServer();
+    server.once("error", reject);
+    server.listen(0, "127.0.0.1", () => {
+      const port = (server.address() as net.AddressInfo).port;
+      server.close(() => resolve(port));
+    });
+  });
+}
+
+/** Debian's mosquitto on a loopback port with a throwaway config; stop() kills it, start() brings it back on the same port. */
+export async function mosquitto(): Promise<{ port: number; url: string; start: () => Promise<void>; stop: () => Promise<void> }> {
+  const port = await freePort();
+  const dir = mkdtempSync(join(tmpdir(), "tw-mosquitto-"));
+  const conf = join(dir, "mosquitto.conf");
+  writeFileSync(conf, `listener ${port} 127.0.0.1\nallow_anonymous true\npersistence false\n`);
+  let child: ChildProcess | undefined;
+  const start = async () => {
+    child = spawn("/usr/sbin/mosquitto", ["-c", conf], { stdio: "ignore" });
+    const end = Date.now() + 5000;
+    for (;;) {
+      const open = await new Promise<boolean>((resolve) => {
+        const s = net.connect(port, "127.0.0.1", () => s.end(() => resolve(true)));
+        s.on("error", () => resolve(false));
+      });
+      if (open) return;
+      if (Date.now() > end) throw new Error("mosquitto did not start");
+      await new Promise((r) => setTimeout(r, 20));
+    }
+  };
+  const stop = async () => {
+    const c = child;
+    child = undefined;
+    if (!c || c.exitCode !== null) return;
+    await new Promise<void>((resolve) => {
+      c.once("exit", () => resolve());
+      c.kill("SIGKILL");
+    });
+  };
+  await start();
+  return { port, url: `mqtt://127.0.0.1:${port}`, start, stop };
 }

@@ -1,0 +1,124 @@
+import type { Db } from "@/db/client";
+import {
+  activateDeployment,
+  DEPLOY_CHANNEL,
+  deployedDesign,
+  failDeployment,
+  findActiveDeployment,
+  findDeployment,
+  listActiveDeployments,
+  listPendingDeploymentIds,
+  type DeploymentView,
+} from "@/db/queries/deployments";
+import { configTopic } from "@/lib/protocol";
+import type { MessageBus } from "../broker/bus";
+import type { Clock, Logger } from "../clock";
+import type { ConfigExchange, ConfigOutcome } from "../devices/config-exchange";
+import type { Pipeline } from "../pipeline/pipeline";
+import { listenForNotifications } from "./listen";
+
+/** How long a device has to acknowledge a config before the deployment fails (ms). */
+export const DEFAULT_ACK_TIMEOUT_MS = 10_000;
+
+export interface DeploymentWorkerDeps {
+  db: Db;
+  /** Connection string for the worker's own LISTEN connection. */
+  databaseUrl: string;
+  exchange: ConfigExchange;
+  /** Used to put the previous config back as the retained message after a failure. */
+  bus: Pick<MessageBus, "publish">;
+  pipeline?: Pick<Pipeline, "setProductionFilter">;
+  clock: Clock;
+  logger: Logger;
+  ackTimeoutMs?: number;
+}
+
+export interface DeploymentWorker {
+  /** Resolves once no deployment is being handled (tests). */
+  idle(): Promise<void>;
+  stop(): Promise<void>;
+}
+
+/**
+ * The sidecar side of promotion: for every pending deployment (notified on DEPLOY_CHANNEL, and swept
+ * at start and after a reconnect) it sends the stored config through the device config exchange and
+ * waits for the ack. Applied with the same revision and checksum → active (previous superseded) and the
+ * live pipeline's production filter switches; refused or no ack within ackTimeoutMs → failed, the
+ * previous config is put back as the retained message and the previous revision stays active.
+ */
+export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise<DeploymentWorker> {
+  const timeoutMs = deps.ackTimeoutMs ?? DEFAULT_ACK_TIMEOUT_MS;
+  const running = new Map<number, Promise<void>>();
+  let stopped = false;
+
+  function schedule(id: number): void {
+    if (stopped || running.has(id)) return;
+    const job = handle(id)
+      .catch((err: unknown) => deps.logger.warn(`deployment ${id}: ${err instanceof Error ? err.message : String(err)}`))
+      .finally(() => running.delete(id));
+    running.set(id, job);
+  }
+
+  async function sweep(): Promise<void> {
+    for (const id of await listPendingDeploymentIds(deps.db)) schedule(id);
+  }
+
+  async function handle(id: number): Promise<void> {
+    const d = await findDeployment(deps.db, id);
+    if (!d || d.state !== "pending") return;
+    deps.logger.info(`deployment ${id}: sending revision ${d.revisionId} to ${d.channel} (${d.format}, ${d.checksum.slice(0, 12)}…)`);
+    let outcome: ConfigOutcome;
+    try {
+      outcome = await deps.exchange.send(d.rigKey, d.deviceKey, d.config, timeoutMs);
+    } catch (err) {
+      return fail(d, `the config could not be published: ${err instanceof Error ? err.message : String(err)}`);
+    }
+    if (outcome.status === "timeout") return fail(d, `no acknowledgement from ${d.rigKey}/${d.deviceKey} within ${timeoutMs / 1000} s`);
+    if (outcome.status === "refused") return fail(d, `the device refused it: ${outcome.ack.reason ?? "no reason given"}`);
+    const active = await deps.db.transaction().execute((trx) => activateDeployment(trx, id));
+    if (active) applyToPipeline(active);
+  }
+
+  async function fail(d: DeploymentView, reason: string): Promise<void> {
+    deps.logger.warn(`deployment ${d.id} failed: ${reason}`);
+    const failed = await deps.db.transaction().execute((trx) => failDeployment(trx, d.id, reason));
+    if (!failed) return;
+    const previous = await findActiveDeployment(deps.db, d.channelId);
+    const restore = previous ? JSON.stringify(previous.config) : "";
+    await deps.bus.publish(configTopic(d.rigKey, d.deviceKey), restore, { retain: true, qos: 1 }).catch(() => undefined);
+  }
+
+  function applyToPipeline(d: DeploymentView): void {
+    if (!deps.pipeline) return;
+    try {
+      deps.pipeline.setProductionFilter(d.channel, String(d.revisionId), deployedDesign(d));
+    } catch (err) {
+      deps.logger.warn(`production filter for ${d.channel} not switched: ${err instanceof Error ? err.message : String(err)}`);
+    }
+  }
+
+  for (const d of await listActiveDeployments(deps.db)) applyToPipeline(d);
+  const listener = await listenForNotifications({
+    databaseUrl: deps.databaseUrl,
+    channel: DEPLOY_CHANNEL,
+    onNotify: (payload) => {
+      const id = Number(payload);
+      if (Number.isInteger(id) && id > 0) schedule(id);
+    },
+    onReconnect: () => void sweep().catch(() => undefined),
+    clock: deps.clock,
+    logger: deps.logger,
+  });
+  await sweep();
+
+  return {
+    async idle() {
+      while (running.size) await Promise.all(running.values());
+    },
+    async stop() {
+      stopped = true;
+      await listener.close();
+      await Promise.all(running.values());
+    },
+  };
+}
