@@ -1,4 +1,4 @@
-import { quantizeDesign, type FilterDesign, type QuantizedDesign } from "@/lib/dsp";
+import { quantizeDesign, stability, type FilterDesign, type QuantizedDesign } from "@/lib/dsp";
 import { canonicalJson, checksumSubject, type ConfigFormat, type DeviceConfig, type UnsignedDeviceConfig } from "@/lib/protocol";
 import { deployability } from "./revision-content";
 import { sectionsDesign } from "./sections";
@@ -23,13 +23,14 @@ export function quantizeForTarget(design: FilterDesign, target: DeploymentTarget
       `sample-rate mismatch: the revision is designed for ${design.sampleRateHz} Hz, ${target.channelKey} samples at ${target.sampleRateHz} Hz`,
     );
   }
+  if (!stability(design).stable) throw new DeploymentRefusal("the design is unstable (a pole on or outside the unit circle)");
   let quantized: QuantizedDesign;
   try {
     quantized = quantizeDesign(sectionsDesign(design), target.format);
   } catch (err) {
     throw new DeploymentRefusal((err as Error).message);
   }
-  const verdict = deployability(quantized.maxPoleRadiusBefore < 1, quantized);
+  const verdict = deployability(true, quantized);
   if (!verdict.ok) throw new DeploymentRefusal(verdict.reason);
   return quantized;
 }

@@ -8,29 +8,35 @@ export type Deployability = { ok: true } | { ok: false; reason: string };
 /** Everything computed from a spec when a revision is saved; stored immutably beside the spec. */
 export interface RevisionContent {
   design: FilterDesign;
-  /** The design quantized for the channel's device format (sections, as the device runs it). */
-  quantized: QuantizedDesign;
+  /** The design quantized for the channel's device format (sections, as the device runs it); null when it cannot be. */
+  quantized: QuantizedDesign | null;
   analysis: AnalysisSummary & { deployable: Deployability };
 }
 
 /**
  * Designs a spec and computes its stored content for a device format. The quantized form is taken
  * from the sections form (sectionsDesign); when there is none (too many sections) the design is
- * quantized as it is and the revision is marked not deployable with the reason.
+ * quantized as it is, and when quantization itself fails (a pole on the unit circle) it is null; either
+ * way the revision is marked not deployable with the reason.
  */
 export function buildRevisionContent(spec: FilterSpec, format: QuantFormat): RevisionContent {
   const design = designFilter(spec);
   const analysis = analyseDesign(design);
-  let quantized: QuantizedDesign;
-  let deployable: Deployability;
   try {
-    quantized = quantizeDesign(sectionsDesign(design), format);
-    deployable = deployability(analysis.stable, quantized);
+    const quantized = quantizeDesign(sectionsDesign(design), format);
+    return { design, quantized, analysis: { ...analysis, deployable: deployability(analysis.stable, quantized) } };
   } catch (err) {
-    quantized = quantizeDesign(design, format);
-    deployable = { ok: false, reason: (err as Error).message };
+    const deployable: Deployability = { ok: false, reason: (err as Error).message };
+    return { design, quantized: quantizeOrNull(design, format), analysis: { ...analysis, deployable } };
   }
-  return { design, quantized, analysis: { ...analysis, deployable } };
+}
+
+function quantizeOrNull(design: FilterDesign, format: QuantFormat): QuantizedDesign | null {
+  try {
+    return quantizeDesign(design, format);
+  } catch {
+    return null;
+  }
 }
 
 /** Refusal reasons in the order a reviewer would check them: the float design, then its quantized form. */

@@ -1,0 +1,13 @@
+import { requireUser } from "@/app/_lib/auth";
+import { db } from "@/db";
+import { requestRollback } from "@/db/queries/deployments";
+import { handler, parseBody } from "@/lib/http/handler";
+import { rollbackSchema } from "../schema";
+
+/** Puts the previously active revision back through the acknowledged path (202; the ack decides). */
+export const POST = handler(async (req) => {
+  const body = await parseBody(req, rollbackSchema);
+  const user = await requireUser("lead");
+  const result = await db().transaction().execute((trx) => requestRollback(trx, user, body.channel, body.expectedActiveId));
+  return Response.json(result, { status: 202 });
+});

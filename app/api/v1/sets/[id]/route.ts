@@ -1,0 +1,17 @@
+import { requireUser } from "@/app/_lib/auth";
+import { db } from "@/db";
+import { listSetDeployments } from "@/db/queries/deployments";
+import { listReviews, listRevisions } from "@/db/queries/revisions";
+import { findSet } from "@/db/queries/sets";
+import { AppError } from "@/lib/errors";
+import { handler, parseWith } from "@/lib/http/handler";
+import { idParam } from "../schema";
+
+export const GET = handler(async (_req, ctx: { params: Promise<{ id: string }> }) => {
+  const id = parseWith(idParam, (await ctx.params).id);
+  await requireUser();
+  const set = await findSet(db(), id);
+  if (!set) throw new AppError("not_found", "No such coefficient set.");
+  const [revisions, reviews, deployments] = await Promise.all([listRevisions(db(), id), listReviews(db(), id), listSetDeployments(db(), id)]);
+  return Response.json({ set, revisions, reviews, deployments: deployments.map(({ config: _c, design: _d, spec: _s, ...d }) => d) });
+});
