@@ -1,0 +1,84 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Db } from "@/db/client";
+import { DEMO_RIGS } from "@/lib/demo/lab";
+import { deviceConfigSchema, type UnsignedDeviceConfig } from "@/lib/protocol";
+import { signConfig } from "@/server/devices/checksum";
+import type { Sidecar } from "@/server/sidecar";
+import { cookieFor, openSocket, seededDb, testSidecar, until } from "./sidecar-support";
+
+let store: { db: Db; close: () => Promise<void> };
+let sidecar: Sidecar;
+
+beforeAll(async () => {
+  store = await seededDb("sidecar_demo");
+  sidecar = await testSidecar(store.db, {
+    mqtt: { mode: "embedded", host: "127.0.0.1", port: 0, requireDeviceAuth: true },
+    demo: { seed: 42 },
+    timers: true,
+  });
+});
+
+afterAll(async () => {
+  await sidecar?.close();
+  await store?.close();
+});
+
+const unsigned: UnsignedDeviceConfig = {
+  v: 1,
+  revisionId: "rev-42",
+  channel: "input-torque",
+  format: "q15",
+  sampleRateHz: 1000,
+  sections: [{ words: [1024, 2048, 1024, -20000, 9000], shift: 1 }],
+};
+
+describe("demo rig (authenticated like a device) and the config exchange", () => {
+  it("streams every demo channel without faults through the authenticated broker", async () => {
+    const paths = DEMO_RIGS.flatMap((r) => r.devices.flatMap((d) => d.channels.map((c) => `${r.key}/${d.key}/${c.key}`)));
+    await until(() => sidecar.ingest.accepted.messages > 200, 10_000, "demo samples");
+    const faults = sidecar.faults.totals();
+    expect(Object.keys(faults).filter((k) => k !== "seq_gap")).toEqual([]);
+    const browser = await openSocket(sidecar.httpPort, await cookieFor(store.db, "operator@tapwright.test"));
+    for (const channel of paths) browser.send({ type: "subscribe", channel });
+    for (const channel of paths) expect((await browser.next("frame", (f) => f.channel === channel)).raw.length).toBeGreaterThan(0);
+    browser.ws.close();
+  });
+
+  it("reports live metrics of a candidate about once a second", async () => {
+    const engineer = await openSocket(sidecar.httpPort, await cookieFor(store.db, "engineer@tapwright.test"));
+    const channel = "hydraulic-press/env-node/frame-strain"; // 50 Hz hum of 35 µε, 1 kHz
+    engineer.send({ type: "subscribe", channel });
+    engineer.send({ type: "candidate.add", channel, id: "notch", spec: { kind: "biquad", shape: "notch", centerHz: 50, q: 2, sampleRateHz: 1000 } });
+    const metrics = await engineer.next("metrics", (m) => m.candidates.notch?.noiseLineHz !== null && m.candidates.notch?.noiseLineHz !== undefined);
+    const m = metrics.candidates.notch;
+    expect(m.noiseLineHz).toBeCloseTo(50, 0);
+    expect(m.predictedAttenuationDb).toBeGreaterThan(40);
+    expect(m.measuredAttenuationDb).toBeGreaterThan(15);
+    expect(m.removedRms).toBeGreaterThan(15); // the hum's RMS is 35/√2 ≈ 25 µε
+    expect(m.lagMs).toBeGreaterThanOrEqual(0);
+    engineer.ws.close();
+  }, 15_000);
+
+  it("a matching checksum is applied and acknowledged", async () => {
+    const config = signConfig(unsigned);
+    expect(deviceConfigSchema.parse(config)).toEqual(config);
+    const outcome = await sidecar.configs.send("gearbox-endurance", "torque-node", config, 5000);
+    expect(outcome.status).toBe("applied");
+  });
+
+  it("a wrong checksum, format or channel is refused with the reason", async () => {
+    const tampered = { ...signConfig(unsigned), sampleRateHz: 999 };
+    expect(await sidecar.configs.send("gearbox-endurance", "torque-node", tampered, 5000)).toMatchObject({
+      status: "refused",
+      ack: { reason: "checksum mismatch" },
+    });
+    const wrongFormat = signConfig({ ...unsigned, revisionId: "rev-43", format: "f32", sections: [[1, 0, 0, 1, 0, 0]] });
+    const refused = await sidecar.configs.send("gearbox-endurance", "torque-node", wrongFormat, 5000);
+    expect(refused.status).toBe("refused");
+  });
+
+  it("times out when no device answers", async () => {
+    const outcome = await sidecar.configs.send("gearbox-endurance", "no-such-node", signConfig(unsigned), 200);
+    expect(outcome.status).toBe("timeout");
+  });
+});
