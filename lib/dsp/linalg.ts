@@ -112,3 +112,47 @@ export function expm(a: Matrix): Matrix {
   for (let i = 0; i < s; i++) r = matMul(r, r);
   return r;
 }
+
+/**
+ * Characteristic polynomial det(zI − M) in descending powers of z (monic), without eigenvalues:
+ * Householder reduction to upper Hessenberg form H (Golub & Van Loan §7.4.2), then the recurrence
+ * p_k = (z − h_kk)·p_{k−1} − Σ_{i<k} h_ik·(h_{i+1,i} ⋯ h_{k,k−1})·p_{i−1} (Wilkinson, The Algebraic
+ * Eigenvalue Problem §6.57). Repeated eigenvalues cost no accuracy, unlike Π(z − λ) from computed λ.
+ */
+export function characteristicPolynomial(m: Matrix): number[] {
+  const n = m.length;
+  const h = m.map((row) => row.slice());
+  for (let k = 0; k < n - 2; k++) {
+    const x = h.slice(k + 1).map((row) => row[k]);
+    const alpha = -Math.sign(x[0] || 1) * Math.hypot(...x);
+    const v = x.slice();
+    v[0] -= alpha;
+    const vNorm2 = v.reduce((acc, vi) => acc + vi * vi, 0);
+    if (vNorm2 === 0) continue;
+    for (let j = 0; j < n; j++) {
+      const dot = v.reduce((acc, vi, i) => acc + vi * h[k + 1 + i][j], 0);
+      const f = (2 * dot) / vNorm2;
+      v.forEach((vi, i) => (h[k + 1 + i][j] -= f * vi));
+    }
+    for (let i = 0; i < n; i++) {
+      const dot = v.reduce((acc, vj, j) => acc + vj * h[i][k + 1 + j], 0);
+      const f = (2 * dot) / vNorm2;
+      v.forEach((vj, j) => (h[i][k + 1 + j] -= f * vj));
+    }
+  }
+  const p: number[][] = [[1]];
+  for (let k = 1; k <= n; k++) {
+    const next = [...p[k - 1], 0];
+    p[k - 1].forEach((c, i) => (next[i + 1] -= h[k - 1][k - 1] * c));
+    let sub = 1;
+    for (let i = k - 1; i >= 1; i--) {
+      sub *= h[i][i - 1];
+      const factor = h[i - 1][k - 1] * sub;
+      const lower = p[i - 1];
+      const offset = next.length - lower.length;
+      lower.forEach((c, j) => (next[offset + j] -= factor * c));
+    }
+    p.push(next);
+  }
+  return p[n];
+}

@@ -1,6 +1,6 @@
-import { cAbs, cDiv, cExp, cMul, cScale, cSub } from "../complex";
-import { polyFromRoots, polyRoots } from "../poly";
-import type { Complex } from "../types";
+import { polyMul } from "../poly";
+import { polyPower } from "./polyPower";
+import { exponentialRootPolynomial } from "./companion";
 
 /**
  * Matched pole-zero equivalent of H(s) = num(s)/den(s) (equal length n + 1, den[0] ≠ 0) for sample
@@ -12,6 +12,7 @@ import type { Complex } from "../types";
  * or pole (k < 0) at s = 0, the DC gain is 0 or ∞; then the low-frequency asymptotes match instead:
  * lim_{s→0} H(s)/s^k = lim_{z→1} H(z)/((z − 1)/T)^k, i.e. the gains agree as ω → 0 (for 1/s this
  * yields T·z⁻¹/(1 − z⁻¹)). Poles and zeros at s = 0 shared by num and den cancel first.
+ * The mapped polynomials come from exponentialRootPolynomial, so repeated poles need no root finding.
  */
 export function matchedDiscretize(num: number[], den: number[], periodS: number): { b: number[]; a: number[] } {
   const n = den.length - 1;
@@ -22,30 +23,28 @@ export function matchedDiscretize(num: number[], den: number[], periodS: number)
   const numCore = numTrim.slice(0, numTrim.length - numOrigin);
   const denCore = den.slice(0, den.length - denOrigin);
 
-  const mapRoot = (r: Complex): Complex => cExp(cScale(r, periodS));
-  const zeros = polyRoots(numCore).map(mapRoot);
-  const poles = polyRoots(denCore).map(mapRoot);
   const zerosAtOne = Math.max(k, 0);
   const polesAtOne = Math.max(-k, 0);
   const zerosAtInfinity = denCore.length - 1 + polesAtOne - (numCore.length - 1 + zerosAtOne);
-  for (let i = 0; i < zerosAtInfinity - 1; i++) zeros.push([-1, 0]);
+  const mappedZeros = polyMul(
+    exponentialRootPolynomial(numCore.map((c) => c / numCore[0]), periodS),
+    polyPower([1, 1], Math.max(zerosAtInfinity - 1, 0)),
+  );
+  const mappedPoles = exponentialRootPolynomial(denCore.map((c) => c / denCore[0]), periodS);
 
-  const analogLowFrequencyGain = numCore[numCore.length - 1] / denCore[denCore.length - 1];
-  let digitalAtOne: Complex = [periodS ** k, 0];
-  for (const z of zeros) digitalAtOne = cMul(digitalAtOne, cSub([1, 0], z));
-  for (const p of poles) digitalAtOne = cDiv(digitalAtOne, cSub([1, 0], p));
-  if (!(cAbs(digitalAtOne) > 0) || !Number.isFinite(cAbs(digitalAtOne))) {
+  const atOne = (p: number[]) => p.reduce((acc, c) => acc + c, 0);
+  const digitalAtOne = (periodS ** k * atOne(mappedZeros)) / atOne(mappedPoles);
+  if (!(Math.abs(digitalAtOne) > 0) || !Number.isFinite(digitalAtOne)) {
     throw new Error(
       "matched: a pole or zero of H(s) lies at a nonzero multiple of j·2π·fs and maps to z = 1; " +
         "the gain cannot be matched",
     );
   }
-  const gain = analogLowFrequencyGain / digitalAtOne[0];
+  const analogLowFrequencyGain = numCore[numCore.length - 1] / denCore[denCore.length - 1];
+  const gain = analogLowFrequencyGain / digitalAtOne;
 
-  const a = polyFromRoots([...poles, ...new Array<Complex>(polesAtOne).fill([1, 0])]);
-  const bCore = polyFromRoots([...zeros, ...new Array<Complex>(zerosAtOne).fill([1, 0])]).map(
-    (c) => c * gain,
-  );
+  const a = polyMul(mappedPoles, polyPower([1, -1], polesAtOne));
+  const bCore = polyMul(mappedZeros, polyPower([1, -1], zerosAtOne)).map((c) => c * gain);
   const b = [...new Array<number>(a.length - bCore.length).fill(0), ...bCore];
   const tail = new Array<number>(n + 1 - a.length).fill(0);
   return { b: [...b, ...tail], a: [...a, ...tail] };

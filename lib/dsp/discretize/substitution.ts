@@ -1,4 +1,5 @@
 import { polyMul } from "../poly";
+import { polyPower } from "./polyPower";
 import { normaliseLeading } from "./rational";
 
 /**
@@ -19,7 +20,7 @@ export function substituteBilinearForm(
   const a = new Array<number>(n + 1).fill(0);
   for (let k = 0; k <= n; k++) {
     const term = padFront(
-      polyMul(power([c, -c], n - k), power([alpha, 1 - alpha], k)),
+      polyMul(polyPower([c, -c], n - k), polyPower([alpha, 1 - alpha], k)),
       n + 1,
     );
     term.forEach((t, i) => {
@@ -28,12 +29,6 @@ export function substituteBilinearForm(
     });
   }
   return normaliseLeading(b, a, `den(s) has a root at s = ${c / alpha} rad/s, which this method maps to z = ∞`);
-}
-
-function power(p: number[], k: number): number[] {
-  let out = [1];
-  for (let i = 0; i < k; i++) out = polyMul(out, p);
-  return out;
 }
 
 /** Pads a descending-power polynomial with leading zeros to the given length (same polynomial). */

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import fixture from "../../fixtures/dsp/designs-cont2discrete.json";
 import { cAbs, cArg, cDiv } from "@/lib/dsp/complex";
 import { discretize, type DiscretizationMethod } from "@/lib/dsp/discretize/discretize";
-import { expm } from "@/lib/dsp/linalg";
+import { characteristicPolynomial, expm } from "@/lib/dsp/linalg";
 import { polyEval, polyRoots } from "@/lib/dsp/poly";
 import type { Complex } from "@/lib/dsp/types";
 
@@ -176,6 +176,23 @@ describe("discretize edge cases and refusals", () => {
 
   it("refuses a den root that the method maps to z = ∞ (Tustin: s = 2·fs) instead of returning NaN", () => {
     expect(() => discretize({ num: [1], den: [1, -200] }, 100, "tustin")).toThrow(/root at s = 200 rad\/s/);
+  });
+});
+
+describe("repeated poles need no root finding", () => {
+  it("ZOH and matched of a⁴/(s+a)⁴ have the denominator (z − e^{−aT})⁴ (binomial coefficients), a = 2π·10, fs = 1 kHz", () => {
+    const a = TWO_PI * 10;
+    const den = [1, 4 * a, 6 * a ** 2, 4 * a ** 3, a ** 4];
+    const r = Math.exp(-a / 1000);
+    const expected = [1, -4 * r, 6 * r ** 2, -4 * r ** 3, r ** 4];
+    for (const m of ["zoh", "matched"] as const) {
+      expectCloseRelativeToMax(discretize({ num: [a ** 4], den }, 1000, m).a, expected, 1e-14);
+    }
+  });
+
+  it("characteristicPolynomial of a Jordan-like block keeps a four-fold eigenvalue exact", () => {
+    const m = [[2, 1, 0, 0], [0, 2, 1, 0], [0, 0, 2, 1], [0, 0, 0, 2]];
+    expect(characteristicPolynomial(m)).toEqual([1, -8, 24, -32, 16]);
   });
 });
 
