@@ -1,6 +1,6 @@
 import type { FilterDesign } from "../types";
 import { runForm } from "./design-form";
-import { magnitudeDbAt, peakGainDb, searchGrid } from "./gain";
+import { magnitudeDbAt, referenceDb, searchGrid } from "./gain";
 
 /** Half-power drop in dB: 10·log10(2) = 3.0103 dB (the "−3 dB" point, common practice). */
 export const HALF_POWER_DB = 10 * Math.log10(2);
@@ -24,15 +24,15 @@ export function cutoffPoints(design: FilterDesign, opts: CutoffOptions = {}): nu
   if (!Number.isFinite(dropDb) || dropDb <= 0) throw new Error(`dropDb must be a finite number > 0 dB (got ${dropDb})`);
   const form = runForm(design);
   const fs = design.sampleRateHz;
-  const level = peakGainDb(design) - dropDb;
+  const grid = searchGrid(form, fs);
+  const level = referenceDb(form, fs, grid) - dropDb;
   const above = (f: number) => magnitudeDbAt(form, f, fs) >= level;
-  const grid = searchGrid(fs);
-  const states = grid.map(above);
+  const states = grid.magnitudeDb.map((m) => m >= level);
   const crossings: number[] = [];
-  for (let i = 1; i < grid.length; i++) {
+  for (let i = 1; i < states.length; i++) {
     if (states[i] === states[i - 1]) continue;
-    let lo = grid[i - 1];
-    let hi = grid[i];
+    let lo = grid.freqsHz[i - 1];
+    let hi = grid.freqsHz[i];
     while (hi - lo > CUTOFF_TOLERANCE * hi) {
       const mid = (lo + hi) / 2;
       if (above(mid) === states[i - 1]) lo = mid;

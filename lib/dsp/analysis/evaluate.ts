@@ -1,12 +1,18 @@
-import { cAdd, cDiv, cMul } from "../complex";
+import { cDiv, cMul } from "../complex";
 import type { Complex } from "../types";
 import type { RunForm } from "./design-form";
 
-/** Σ c_k·x^k for real c in ascending powers of x (Horner's rule). */
+/** Σ c_k·x^k for real c in ascending powers of x (Horner's rule, in scalars: FIR designs reach 1000+ taps). */
 export function ascendingPolyAt(c: readonly number[], x: Complex): Complex {
-  let acc: Complex = [0, 0];
-  for (let k = c.length - 1; k >= 0; k--) acc = cAdd(cMul(acc, x), [c[k], 0]);
-  return acc;
+  const [xr, xi] = x;
+  let re = 0;
+  let im = 0;
+  for (let k = c.length - 1; k >= 0; k--) {
+    const t = re * xr - im * xi + c[k];
+    im = re * xi + im * xr;
+    re = t;
+  }
+  return [re, im];
 }
 
 /**

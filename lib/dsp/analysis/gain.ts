@@ -10,29 +10,37 @@ import { magnitudeToDb } from "./units";
  * Throws when a pole sits at z = 1 (an integrator), where the DC gain is unbounded.
  */
 export function dcGain(design: FilterDesign): number {
+  const g = dcGainOrNull(design);
+  if (g === null) throw new Error("dcGain: a section has a pole at z = 1 (1 + a1 + a2 = 0), so the DC gain is unbounded");
+  return g;
+}
+
+/** dcGain, or null when a pole sits at z = 1 (1 + a1 + a2 = 0 in some section). */
+export function dcGainOrNull(design: FilterDesign): number | null {
   const form = runForm(design);
   if (form.kind === "taps") return form.taps.reduce((s, t) => s + t, 0);
   let g = 1;
-  form.sos.forEach((row, i) => {
-    const den = 1 + row[4] + row[5];
-    if (den === 0) throw new Error(`dcGain: section ${i} has a pole at z = 1, so the DC gain is unbounded`);
-    g *= (row[0] + row[1] + row[2]) / den;
-  });
+  for (const [b0, b1, b2, , a1, a2] of form.sos) {
+    const den = 1 + a1 + a2;
+    if (den === 0) return null;
+    g *= (b0 + b1 + b2) / den;
+  }
   return g;
 }
 
 /** Points of the dense search grid (linear and log each) used for the passband reference and cutoffs. */
 export const SEARCH_GRID_POINTS = 8192;
 
-/** The dense search grid in Hz over [0, fs/2]: linear ∪ log (log catches low-frequency features), sorted. */
-export function searchGrid(sampleRateHz: number): number[] {
-  const all = [...linearGrid(sampleRateHz, SEARCH_GRID_POINTS), ...logGrid(sampleRateHz, SEARCH_GRID_POINTS)];
-  return all.sort((a, b) => a - b);
-}
-
 /** |H| in dB (floored at −400 dB) of a run form at f Hz. */
 export function magnitudeDbAt(form: RunForm, freqHz: number, sampleRateHz: number): number {
   return magnitudeToDb(cAbs(transferAt(form, radPerSample(freqHz, sampleRateHz))));
+}
+
+/** The dense search grid in Hz over [0, fs/2] (linear ∪ log, so low-frequency features are caught), sorted, with |H| in dB. */
+export function searchGrid(form: RunForm, sampleRateHz: number): { freqsHz: number[]; magnitudeDb: number[] } {
+  const freqsHz = [...linearGrid(sampleRateHz, SEARCH_GRID_POINTS), ...logGrid(sampleRateHz, SEARCH_GRID_POINTS)];
+  freqsHz.sort((a, b) => a - b);
+  return { freqsHz, magnitudeDb: freqsHz.map((f) => magnitudeDbAt(form, f, sampleRateHz)) };
 }
 
 /** Relative width at which the golden-section refinement of the passband peak stops. */
@@ -45,21 +53,24 @@ const INV_PHI = (Math.sqrt(5) - 1) / 2;
  */
 export function peakGainDb(design: FilterDesign): number {
   const form = runForm(design);
-  const fs = design.sampleRateHz;
-  const grid = searchGrid(fs);
-  const mags = grid.map((f) => magnitudeDbAt(form, f, fs));
+  return referenceDb(form, design.sampleRateHz, searchGrid(form, design.sampleRateHz));
+}
+
+/** peakGainDb from an already evaluated search grid. */
+export function referenceDb(form: RunForm, sampleRateHz: number, grid: ReturnType<typeof searchGrid>): number {
+  const { freqsHz, magnitudeDb } = grid;
   let best = 0;
-  mags.forEach((m, i) => {
-    if (m > mags[best]) best = i;
+  magnitudeDb.forEach((m, i) => {
+    if (m > magnitudeDb[best]) best = i;
   });
-  let lo = grid[Math.max(best - 1, 0)];
-  let hi = grid[Math.min(best + 1, grid.length - 1)];
-  let peak = mags[best];
-  while (hi - lo > PEAK_TOLERANCE * Math.max(hi, fs * PEAK_TOLERANCE)) {
+  let lo = freqsHz[Math.max(best - 1, 0)];
+  let hi = freqsHz[Math.min(best + 1, freqsHz.length - 1)];
+  let peak = magnitudeDb[best];
+  while (hi - lo > PEAK_TOLERANCE * Math.max(hi, sampleRateHz * PEAK_TOLERANCE)) {
     const c = hi - INV_PHI * (hi - lo);
     const d = lo + INV_PHI * (hi - lo);
-    const mc = magnitudeDbAt(form, c, fs);
-    const md = magnitudeDbAt(form, d, fs);
+    const mc = magnitudeDbAt(form, c, sampleRateHz);
+    const md = magnitudeDbAt(form, d, sampleRateHz);
     peak = Math.max(peak, mc, md);
     if (mc > md) hi = d;
     else lo = c;

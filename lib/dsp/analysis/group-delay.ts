@@ -24,7 +24,10 @@ export const ON_CIRCLE_TOLERANCE = 1e-12;
 
 /** Group delay in samples of a run form at each ω in rad/sample. */
 export function groupDelayAt(form: RunForm, omegas: readonly number[]): number[] {
-  if (form.kind === "taps") return omegas.map((w) => firGroupDelay(form.taps, w));
+  if (form.kind === "taps") {
+    const weighted = form.taps.map((t, n) => n * t);
+    return omegas.map((w) => firGroupDelay(form.taps, weighted, w));
+  }
   const sections = form.sos.map((row) => ({ num: factor(row.slice(0, 3)), den: factor(row.slice(3, 6)) }));
   return omegas.map((w) => {
     let tau = 0;
@@ -65,17 +68,19 @@ function rootDelay(root: Complex, omega: number): number {
 /** Horner rounding bound factor: |Σ h[n]·z⁻ⁿ| below this × (N+1)·ε·Σ|h[n]| counts as an exact zero. */
 const ROUNDING_FACTOR = 8;
 
-function firGroupDelay(taps: readonly number[], omega: number): number {
+/** τ(ω) for taps h[n], given n·h[n] as `weighted`. */
+function firGroupDelay(taps: readonly number[], weighted: readonly number[], omega: number): number {
   const x: Complex = [Math.cos(omega), -Math.sin(omega)];
+  const den = ascendingPolyAt(taps, x);
+  const scale = taps.reduce((s, t) => s + Math.abs(t), 0);
+  if (cAbs(den) > roundingBound(taps.length, scale)) {
+    return cDiv(ascendingPolyAt(weighted, x), den)[0];
+  }
   let coeffs: Complex[] = taps.map((t): Complex => [t, 0]);
   let onCircleZeros = 0;
   while (coeffs.length > 1 && isRoundingLevel(coeffs, x)) {
     coeffs = deflate(coeffs, x);
     onCircleZeros++;
-  }
-  if (onCircleZeros === 0) {
-    const num = ascendingPolyAt(taps.map((t, n) => n * t), x);
-    return cDiv(num, ascendingPolyAt(taps, x))[0];
   }
   return onCircleZeros / 2 + derivativeRatio(coeffs, x);
 }
@@ -98,7 +103,12 @@ function isRoundingLevel(q: Complex[], x: Complex): boolean {
     value = cAdd(cMul(value, x), q[n]);
     scale += cAbs(q[n]);
   }
-  return cAbs(value) <= ROUNDING_FACTOR * q.length * Number.EPSILON * scale;
+  return cAbs(value) <= roundingBound(q.length, scale);
+}
+
+/** Horner rounding bound for a polynomial of `length` coefficients with Σ|c| = scale on |x| = 1. */
+function roundingBound(length: number, scale: number): number {
+  return ROUNDING_FACTOR * length * Number.EPSILON * scale;
 }
 
 /** Quotient of Σ q_n·yⁿ by (y − x), synthetic division from the highest power (remainder dropped). */

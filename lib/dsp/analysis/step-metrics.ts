@@ -1,6 +1,6 @@
 import type { FilterDesign } from "../types";
 import { runForm } from "./design-form";
-import { dcGain, peakGainDb } from "./gain";
+import { dcGainOrNull, peakGainDb } from "./gain";
 import { stability } from "./stability";
 import { stepResponse } from "./time-response";
 
@@ -52,8 +52,8 @@ export function stepMetrics(design: FilterDesign): StepMetrics {
   const form = runForm(design);
   const { stable, maxPoleRadius } = stability(design);
   const none = { riseTimeS: null, overshootPercent: null, settlingTimeS: null };
-  if (!stable) return { ...none, finalValue: hasPoleAtDc(design) ? null : dcGain(design) };
-  const finalValue = dcGain(design);
+  const finalValue = dcGainOrNull(design);
+  if (!stable || finalValue === null) return { ...none, finalValue };
   if (Math.abs(finalValue) <= 10 ** ((peakGainDb(design) - DC_BLOCKED_DB) / 20)) return { ...none, finalValue };
 
   const n = simulationLength(maxPoleRadius, form.kind === "taps" ? form.taps.length : 0);
@@ -76,10 +76,6 @@ export function stepMetrics(design: FilterDesign): StepMetrics {
     settlingTimeS: lastOutside === n - 1 ? null : (lastOutside + 1) / fs,
     finalValue,
   };
-}
-
-function hasPoleAtDc(design: FilterDesign): boolean {
-  return (design.sos ?? []).some((row) => 1 + row[4] + row[5] === 0);
 }
 
 function simulationLength(maxPoleRadius: number, firLength: number): number {
