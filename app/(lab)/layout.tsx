@@ -1,5 +1,6 @@
 import type { ReactNode } from "react";
 import { requirePageUser } from "@/app/_lib/auth";
+import { QueryProvider } from "@/components/providers/query-provider";
 import { AppHeader } from "@/components/shell/app-header";
 
 export default async function LabLayout({ children }: { children: ReactNode }) {
@@ -7,7 +8,9 @@ export default async function LabLayout({ children }: { children: ReactNode }) {
   return (
     <>
       <AppHeader user={user} />
-      <main className="mx-auto max-w-screen-2xl px-4 py-6">{children}</main>
+      <main className="mx-auto max-w-screen-2xl px-4 py-6">
+        <QueryProvider>{children}</QueryProvider>
+      </main>
     </>
   );
 }

@@ -43,9 +43,9 @@ export interface ResponseCurves {
 const toDeg = (rad: number[]) => rad.map((r) => (r * 180) / Math.PI);
 
 /** Digital response (and the analog one where a spec has it) on a frequency grid in Hz. */
-export function responseCurves(spec: FilterSpec, design: FilterDesign, freqsHz: number[]): ResponseCurves {
+export function responseCurves(spec: FilterSpec | null, design: FilterDesign, freqsHz: number[]): ResponseCurves {
   const r = frequencyResponse(design, freqsHz);
-  const system = analogSystemFor(spec);
+  const system = spec ? analogSystemFor(spec) : null;
   const a = system ? analogResponse(system, freqsHz) : null;
   return {
     magnitudeDb: r.magnitudeDb,

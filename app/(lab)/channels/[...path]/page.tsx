@@ -1,0 +1,48 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requirePageUser } from "@/app/_lib/auth";
+import { Bench } from "@/components/bench/bench";
+import { db } from "@/db";
+import { findChannelByPath } from "@/db/queries/channels";
+import { roleAtLeast } from "@/lib/auth/roles";
+import { env } from "@/lib/env";
+import { formatHz } from "@/lib/format/units";
+
+/** The sidecar's WebSocket path (server/ws/upgrade.ts WS_PATH). */
+const WS_PATH = "/ws";
+
+type Params = { params: Promise<{ path: string[] }> };
+
+export async function generateMetadata({ params }: Params): Promise<Metadata> {
+  const { path } = await params;
+  return { title: `Bench · ${path.join("/")}` };
+}
+
+export default async function ChannelBenchPage({ params }: Params) {
+  const user = await requirePageUser();
+  const { path } = await params;
+  const channel = await findChannelByPath(db(), path.map(decodeURIComponent).join("/"));
+  if (!channel) notFound();
+  const canEdit = roleAtLeast(user.role, "engineer");
+  return (
+    <div className="space-y-4">
+      <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
+        <h1 className="text-xl font-semibold">{channel.name}</h1>
+        <p className="num text-sm text-slate-500">
+          <Link href="/" className="hover:underline">
+            {channel.rigName}
+          </Link>{" "}
+          / {channel.deviceName} · {channel.path} · {formatHz(channel.sampleRateHz)} · {channel.unit} · device format {channel.coefficientFormat.toUpperCase()}
+        </p>
+        {!canEdit && <p className="text-sm text-slate-500">You are watching as an operator: the live traces and the production filter are shown; trying filters needs the engineer role.</p>}
+      </div>
+      <Bench
+        channel={{ path: channel.path, name: channel.name, unit: channel.unit, sampleRateHz: channel.sampleRateHz, coefficientFormat: channel.coefficientFormat }}
+        canEdit={canEdit}
+        sidecarPort={env().SIDECAR_PORT}
+        wsPath={WS_PATH}
+      />
+    </div>
+  );
+}

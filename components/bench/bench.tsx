@@ -1,0 +1,253 @@
+"use client";
+
+import { useQuery, type UseQueryResult } from "@tanstack/react-query";
+import { useCallback, useEffect, useMemo, useRef, useState } from "react";
+import { Notice } from "@/components/ui/notice";
+import { candidateColor, candidateName, candidateSlot, seedSpec, type Candidate } from "@/lib/bench/candidates";
+import { cautionsFor, type Caution } from "@/lib/bench/cautions";
+import { freeColorIndex, PRODUCTION_COLOR, RAW_COLOR } from "@/lib/bench/colors";
+import { PRODUCTION_SLOT, RAW_SLOT, PRODUCTION_TRACE } from "@/lib/bench/live-store";
+import { defaultSpec } from "@/lib/bench/spec-defaults";
+import { specSummary } from "@/lib/bench/spec-text";
+import { designFilter, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import type { ClientMessage } from "@/lib/protocol";
+import { AnalysisArea } from "./analysis-area";
+import type { AnalysisItem } from "./analysis-views";
+import { fetchProduction, type ProductionFilter } from "./api";
+import { CandidateCards } from "./candidate-cards";
+import { CautionsList } from "./cautions-list";
+import { ComparisonTable } from "./comparison-table";
+import { EditorPanel } from "./editor-panel";
+import { LivePanel, type TraceInfo } from "./live-panel";
+import { SavePanel } from "./save-panel";
+import { SpectrumPanel, type SeedMode } from "./spectrum-panel";
+import { useLiveChannel } from "./use-live-channel";
+
+export interface BenchChannel {
+  path: string;
+  name: string;
+  unit: string;
+  sampleRateHz: number;
+  coefficientFormat: QuantFormat;
+}
+
+/** Least time between two updates of one candidate on the stream, in ms (the live trace follows within a second). */
+const STREAM_UPDATE_MS = 250;
+
+type Designed = { design: FilterDesign; error: null } | { design: null; error: string };
+
+function designOf(spec: FilterSpec): Designed {
+  try {
+    return { design: designFilter(spec), error: null };
+  } catch (err) {
+    return { design: null, error: err instanceof Error ? err.message.replace(/^invalid filter spec:\n/, "") : String(err) };
+  }
+}
+
+/**
+ * The tuning bench of one channel: live traces and spectrum, candidates with their editor, analysis
+ * views, the comparison table and saving. `canEdit` comes from the server (engineer and above); an
+ * operator sees the live traces and the production filter only (the sidecar refuses the rest too).
+ */
+export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: BenchChannel; canEdit: boolean; sidecarPort: number; wsPath: string }) {
+  const fs = channel.sampleRateHz;
+  const [candidates, setCandidates] = useState<Candidate[]>([]);
+  const [editingId, setEditingId] = useState<string | null>(null);
+  const [seedVersion, setSeedVersion] = useState(0);
+  const [showRaw, setShowRaw] = useState(true);
+  const [showProduction, setShowProduction] = useState(true);
+  const [noiseLineHz, setNoiseLineHz] = useState<number | null>(null);
+  const [delayAtHz, setDelayAtHz] = useState<number | null>(null);
+  const [crossoverHz, setCrossoverHz] = useState<number | null>(null);
+  const nextId = useRef(1);
+  const sentRef = useRef(new Map<string, string>());
+  const candidatesRef = useRef(candidates);
+  candidatesRef.current = candidates;
+
+  const production = useQuery({ queryKey: ["production", channel.path], queryFn: () => fetchProduction(channel.path) });
+
+  /** Brings the sidecar's candidates in line with ours: remove + add for a changed spec (the sidecar refuses a duplicate id). */
+  const sync = useCallback((send: (m: ClientMessage) => void) => {
+    if (!canEdit) return;
+    const sent = sentRef.current;
+    const live = new Map(candidatesRef.current.map((c) => [c.id, c]));
+    for (const id of [...sent.keys()]) {
+      if (!live.has(id)) {
+        send({ type: "candidate.remove", channel: channel.path, id });
+        sent.delete(id);
+      }
+    }
+    for (const c of live.values()) {
+      const text = JSON.stringify(c.spec);
+      if (sent.get(c.id) === text || designOf(c.spec).error) continue;
+      if (sent.has(c.id)) send({ type: "candidate.remove", channel: channel.path, id: c.id });
+      send({ type: "candidate.add", channel: channel.path, id: c.id, spec: c.spec });
+      sent.set(c.id, text);
+    }
+  }, [canEdit, channel.path]);
+
+  const live = useLiveChannel({
+    path: channel.path,
+    sampleRateHz: fs,
+    port: sidecarPort,
+    wsPath,
+    onOpen: (send) => {
+      sentRef.current.clear();
+      sync(send);
+    },
+  });
+  const { store, send } = live;
+
+  useEffect(() => {
+    const t = setTimeout(() => sync(send), STREAM_UPDATE_MS);
+    return () => clearTimeout(t);
+  }, [candidates, sync, send]);
+
+  const designs = useMemo(() => new Map(candidates.map((c) => [c.id, designOf(c.spec)])), [candidates]);
+  const cautions = useMemo(() => {
+    const out = new Map<string, Caution[]>();
+    for (const c of candidates) {
+      const d = designs.get(c.id);
+      if (d?.design) {
+        try {
+          out.set(c.id, cautionsFor({ spec: c.spec, design: d.design, deviceFormat: channel.coefficientFormat, crossoverHz }));
+        } catch {
+          out.set(c.id, []);
+        }
+      }
+    }
+    return out;
+  }, [candidates, designs, channel.coefficientFormat, crossoverHz]);
+
+  const addCandidate = (spec?: FilterSpec) => {
+    const colorIndex = freeColorIndex(candidates.map((c) => c.colorIndex));
+    if (colorIndex === null) return;
+    const c: Candidate = { id: `cand-${nextId.current++}`, colorIndex, spec: spec ?? defaultSpec("iir", fs), visible: true };
+    store.bind(c.id, candidateSlot(c));
+    setCandidates((cs) => [...cs, c]);
+    setEditingId(c.id);
+  };
+  const updateSpec = (id: string, spec: FilterSpec) => setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, spec } : c)));
+  const removeCandidate = (id: string) => {
+    store.unbind(id);
+    setCandidates((cs) => cs.filter((c) => c.id !== id));
+    if (editingId === id) setEditingId(null);
+  };
+  const setVisible = (id: string, visible: boolean) => {
+    if (id === "raw") return setShowRaw(visible);
+    if (id === PRODUCTION_TRACE) return setShowProduction(visible);
+    setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, visible } : c)));
+  };
+  const seed = (freqHz: number, mode: SeedMode) => {
+    const editing = candidates.find((c) => c.id === editingId);
+    if (!editing) return addCandidate(seedSpec(null, freqHz, mode, fs));
+    updateSpec(editing.id, seedSpec(editing.spec, freqHz, mode, fs));
+    setSeedVersion((v) => v + 1);
+  };
+
+  const hasProduction = Boolean(production.data);
+  const traces: TraceInfo[] = [
+    { id: "raw", slot: RAW_SLOT, label: "Raw", color: RAW_COLOR, visible: showRaw },
+    ...(hasProduction ? [{ id: PRODUCTION_TRACE, slot: PRODUCTION_SLOT, label: "Production", color: PRODUCTION_COLOR, visible: showProduction }] : []),
+    ...candidates.map((c) => ({ id: c.id, slot: candidateSlot(c), label: candidateName(c), color: candidateColor(c), visible: c.visible })),
+  ];
+  const items: AnalysisItem[] = useMemo(() => {
+    const out: AnalysisItem[] = [];
+    const p = production.data;
+    if (p && showProduction) out.push({ id: PRODUCTION_TRACE, name: `Production (${p.setName} r${p.revision})`, color: PRODUCTION_COLOR, spec: p.spec, design: p.design });
+    for (const c of candidates) {
+      const d = designs.get(c.id);
+      if (c.visible && d?.design) out.push({ id: c.id, name: candidateName(c), color: candidateColor(c), spec: c.spec, design: d.design });
+    }
+    return out;
+  }, [production.data, showProduction, candidates, designs]);
+
+  const editing = candidates.find((c) => c.id === editingId) ?? null;
+  const editingDesign = editing ? designs.get(editing.id) : undefined;
+
+  return (
+    <div className={`space-y-4 ${editing ? "lg:pr-[29rem]" : ""}`}>
+      {live.status.error && (
+        <Notice tone="error" title="The live stream refused a request">
+          {live.status.error}
+        </Notice>
+      )}
+      <LivePanel store={store} status={live.status} traces={traces} unit={channel.unit} onToggle={setVisible} />
+      <ProductionLine production={production} unit={channel.unit} />
+      <SpectrumPanel
+        store={store}
+        traces={traces.slice(0, 1)}
+        unit={channel.unit}
+        title="Live spectrum"
+        onSeed={canEdit ? seed : undefined}
+        onPeaks={(p) => setNoiseLineHz(p[0] ?? null)}
+      />
+      <CandidateCards
+        cards={candidates.map((c) => ({ candidate: c, designError: designs.get(c.id)?.error ?? null, cautionCount: cautions.get(c.id)?.length ?? 0, metrics: live.metrics[c.id] }))}
+        unit={channel.unit}
+        editingId={editingId}
+        canEdit={canEdit}
+        onEdit={setEditingId}
+        onToggle={setVisible}
+        onRemove={removeCandidate}
+        onAdd={() => addCandidate()}
+      />
+      {canEdit && candidates.length === 0 && (
+        <Notice title="No candidates yet">Add a candidate to try a filter on the stream, or click a peak in the live spectrum to start from a notch.</Notice>
+      )}
+      <AnalysisArea
+        items={items}
+        sampleRateHz={fs}
+        deviceFormat={channel.coefficientFormat}
+        spectrum={<SpectrumPanel store={store} traces={traces.filter((t) => t.visible)} unit={channel.unit} title="Spectrum of the shown traces" />}
+      />
+      {candidates.some((c) => (cautions.get(c.id)?.length ?? 0) > 0) && (
+        <section aria-label="Cautions" className="space-y-2">
+          {candidates.map((c) => (
+            <CautionsList key={c.id} cautions={cautions.get(c.id) ?? []} name={candidateName(c)} />
+          ))}
+        </section>
+      )}
+      <ComparisonTable
+        items={items}
+        metrics={live.metrics}
+        noiseLineHz={noiseLineHz}
+        delayAtHz={delayAtHz}
+        onDelayAt={setDelayAtHz}
+        crossoverHz={crossoverHz}
+        onCrossover={setCrossoverHz}
+      />
+      {canEdit && editing && (
+        <EditorPanel
+          candidate={editing}
+          seedVersion={seedVersion}
+          designError={editingDesign?.error ?? null}
+          cautions={cautions.get(editing.id) ?? []}
+          onSpec={(spec) => updateSpec(editing.id, spec)}
+          onClose={() => setEditingId(null)}
+          save={<SavePanel key={editing.id} channel={channel.path} spec={editingDesign?.design ? editing.spec : null} suggestedName={`${channel.name} · ${specSummary(editing.spec)}`} />}
+        />
+      )}
+    </div>
+  );
+}
+
+/** Which revision runs on the device, or why we cannot tell. */
+function ProductionLine({ production, unit }: { production: UseQueryResult<ProductionFilter | null>; unit: string }) {
+  if (production.isPending) return <p className="text-sm text-slate-500">Looking up the production filter…</p>;
+  if (production.isError) {
+    return (
+      <Notice tone="error" title="The production filter could not be loaded">
+        {production.error.message} The live traces still work. <button type="button" className="underline" onClick={() => void production.refetch()}>Try again</button>
+      </Notice>
+    );
+  }
+  const p = production.data;
+  if (!p) return <p className="text-sm text-slate-500">No production filter is active on this channel: the device sends raw samples ({unit}).</p>;
+  return (
+    <p className="text-sm">
+      <span className="mr-1.5 inline-block h-2.5 w-2.5 rounded-full bg-production align-middle" aria-hidden="true" />
+      Production: <span className="font-medium">{p.setName}</span> revision {p.revision} · {specSummary(p.spec)} · active since {new Date(p.activatedAt).toLocaleString()}
+    </p>
+  );
+}

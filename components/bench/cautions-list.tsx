@@ -1,0 +1,20 @@
+import { REVIEW_LINE, type Caution } from "@/lib/bench/cautions";
+
+/** Cautions in plain words, each closing with the line that defers to review and local codes. */
+export function CautionsList({ cautions, name }: { cautions: Caution[]; name?: string }) {
+  if (cautions.length === 0) return null;
+  return (
+    <ul className="space-y-2" aria-label={name ? `Cautions for ${name}` : "Cautions"}>
+      {cautions.map((c) => (
+        <li key={c.kind} data-caution={c.kind} className="rounded-md border border-amber-300 bg-amber-50 px-3 py-2 text-sm text-amber-950 dark:border-amber-700/60 dark:bg-amber-950/30 dark:text-amber-100">
+          <p className="font-medium">
+            {name ? `${name}: ` : ""}
+            {c.title}
+          </p>
+          <p className="mt-0.5">{c.text}</p>
+          <p className="mt-1 text-xs opacity-80">{REVIEW_LINE}</p>
+        </li>
+      ))}
+    </ul>
+  );
+}

@@ -1,0 +1,149 @@
+"use client";
+
+import { useMemo } from "react";
+import { Swatch } from "@/components/ui/swatch";
+import { candidateFigures, type CandidateFigures } from "@/lib/bench/figures";
+import { hz, withUnit } from "@/lib/bench/format";
+import type { CandidateMetrics } from "@/lib/protocol";
+import type { AnalysisItem } from "./analysis-views";
+
+function figuresOf(item: AnalysisItem, noiseLineHz: number | null, delayAtHz: number | null): CandidateFigures | string {
+  try {
+    return candidateFigures(item.design, { noiseLineHz, delayAtHz });
+  } catch (err) {
+    return err instanceof Error ? err.message : String(err);
+  }
+}
+
+const KIND: Record<string, string> = {
+  iir: "IIR",
+  biquad: "Biquad",
+  fir: "FIR",
+  "moving-average": "Moving avg.",
+  differentiator: "Differentiator",
+  ema: "EMA",
+  analog: "Analog → z",
+  coefficients: "Pasted",
+};
+
+function NumberInput({ id, label, value, onChange }: { id: string; label: string; value: number | null; onChange: (v: number | null) => void }) {
+  return (
+    <label htmlFor={id} className="flex items-center gap-1.5 text-sm">
+      <span className="text-slate-500">{label}</span>
+      <input
+        id={id}
+        type="number"
+        min={0}
+        step="any"
+        className="field num w-24 py-1"
+        value={value ?? ""}
+        onChange={(e) => onChange(e.target.value === "" ? null : Number(e.target.value))}
+      />
+      <span className="text-slate-500">Hz</span>
+    </label>
+  );
+}
+
+/**
+ * The closing comparison: per filter its kind and order, sections, −3 dB points, attenuation at the live
+ * spectrum's strongest line, group delay at DC and at a chosen frequency, step overshoot and settling,
+ * largest pole radius, and the sidecar's live metrics. Every number carries its unit.
+ */
+export function ComparisonTable({
+  items,
+  metrics,
+  noiseLineHz,
+  delayAtHz,
+  onDelayAt,
+  crossoverHz,
+  onCrossover,
+}: {
+  items: AnalysisItem[];
+  metrics: Record<string, CandidateMetrics>;
+  noiseLineHz: number | null;
+  delayAtHz: number | null;
+  onDelayAt: (hz: number | null) => void;
+  crossoverHz: number | null;
+  onCrossover: (hz: number | null) => void;
+}) {
+  const rows = useMemo(() => items.map((it) => ({ it, f: figuresOf(it, noiseLineHz, delayAtHz) })), [items, noiseLineHz, delayAtHz]);
+  const th = "px-2 py-1.5 text-left font-medium whitespace-nowrap";
+  const td = "px-2 py-1.5 whitespace-nowrap";
+  return (
+    <section aria-label="Comparison" className="card overflow-hidden">
+      <div className="flex flex-wrap items-center gap-4 border-b border-slate-200 px-4 py-2.5 dark:border-slate-800">
+        <h2 className="font-medium">Comparison</h2>
+        <NumberInput id="delay-at" label="Group delay at" value={delayAtHz} onChange={onDelayAt} />
+        <NumberInput id="crossover" label="Loop crossover" value={crossoverHz} onChange={onCrossover} />
+        <span className="text-xs text-slate-500">Strongest noise line: {noiseLineHz === null ? "waiting for the live spectrum" : hz(noiseLineHz)}</span>
+      </div>
+      {items.length === 0 ? (
+        <p className="px-4 py-4 text-sm text-slate-500">No filters to compare yet. Add a candidate above; the production filter joins the table when the channel has one.</p>
+      ) : (
+        <div className="overflow-x-auto">
+          <table className="num w-full text-xs" data-testid="comparison-table">
+            <thead className="bg-slate-50 text-slate-500 dark:bg-slate-900/60">
+              <tr>
+                <th className={th}>Filter</th>
+                <th className={th}>Kind · order</th>
+                <th className={th}>Sections / taps</th>
+                <th className={th}>−3 dB</th>
+                <th className={th}>Atten. at {noiseLineHz === null ? "line" : hz(noiseLineHz, 3)}</th>
+                <th className={th}>Delay at DC</th>
+                <th className={th}>Delay at {delayAtHz === null ? "f" : hz(delayAtHz, 3)}</th>
+                <th className={th}>Overshoot</th>
+                <th className={th}>Settling 2 %</th>
+                <th className={th}>Max |pole|</th>
+                <th className={th}>Live lag</th>
+                <th className={th}>Live atten. (measured / predicted)</th>
+              </tr>
+            </thead>
+            <tbody>
+              {rows.map(({ it, f }) => {
+                const m = metrics[it.id];
+                if (typeof f === "string") {
+                  return (
+                    <tr key={it.id} className="border-t border-slate-200 dark:border-slate-800">
+                      <td className={`${td} font-sans`}>{it.name}</td>
+                      <td colSpan={11} className={`${td} font-sans text-red-700 dark:text-red-300`}>
+                        {f}
+                      </td>
+                    </tr>
+                  );
+                }
+                return (
+                  <tr key={it.id} className="border-t border-slate-200 dark:border-slate-800" data-row={it.id}>
+                    <td className={`${td} font-sans`}>
+                      <span className="flex items-center gap-1.5">
+                        <Swatch color={it.color} /> {it.name}
+                      </span>
+                    </td>
+                    <td className={td}>
+                      {it.spec ? KIND[it.spec.kind] : "—"} · {f.order}
+                    </td>
+                    <td className={td}>{f.sections !== null ? `${f.sections} SOS` : `${f.taps} taps`}</td>
+                    <td className={td}>{f.cutoffHz.length ? f.cutoffHz.map((c) => hz(c, 4)).join(", ") : "—"}</td>
+                    <td className={td}>{withUnit(f.attenuationAtNoiseDb, "dB")}</td>
+                    <td className={td}>
+                      {withUnit(f.delayDcMs, "ms")} <span className="text-slate-500">({withUnit(f.delayDcSamples, "samples")})</span>
+                    </td>
+                    <td className={td}>
+                      {f.delayAtMs === null ? "—" : <>{withUnit(f.delayAtMs, "ms")} <span className="text-slate-500">({withUnit(f.delayAtSamples, "samples")})</span></>}
+                    </td>
+                    <td className={td}>{withUnit(f.overshootPercent, "%")}</td>
+                    <td className={td}>{withUnit(f.settlingTimeS === null ? null : f.settlingTimeS * 1000, "ms")}</td>
+                    <td className={`${td} ${f.stable ? "" : "text-red-700 dark:text-red-300"}`}>{withUnit(f.maxPoleRadius, "", 4)}</td>
+                    <td className={td}>{withUnit(m?.lagMs, "ms")}</td>
+                    <td className={td}>
+                      {withUnit(m?.measuredAttenuationDb, "dB")} / {withUnit(m?.predictedAttenuationDb, "dB")}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </section>
+  );
+}

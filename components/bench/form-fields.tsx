@@ -1,0 +1,143 @@
+"use client";
+
+import { useState } from "react";
+import { Controller, useFormContext, type FieldErrors, type FieldValues } from "react-hook-form";
+import { parseCoefficientText } from "@/lib/dsp";
+
+/** The message of the error at a dotted path (e.g. "cutoffHz.1"), or of its parent when the child has none. */
+export function errorAt(errors: FieldErrors<FieldValues>, path: string): string | undefined {
+  let node: unknown = errors;
+  let found: string | undefined;
+  for (const key of path.split(".")) {
+    if (node === null || typeof node !== "object") break;
+    node = (node as Record<string, unknown>)[key];
+    const message = node && typeof node === "object" ? (node as { message?: unknown }).message : undefined;
+    if (typeof message === "string") found = message;
+  }
+  return found;
+}
+
+function FieldMessage({ id, message }: { id: string; message?: string }) {
+  if (!message) return null;
+  return (
+    <p id={id} role="alert" className="mt-1 text-xs text-red-700 dark:text-red-300">
+      {message}
+    </p>
+  );
+}
+
+const fieldId = (name: string) => `spec-${name.replace(/\./g, "-")}`;
+
+/** A number input; empty reads as NaN (refused by the schema) or, when optional, as absent. */
+export function NumberField({ name, label, unit, optional = false, step = "any" }: { name: string; label: string; unit?: string; optional?: boolean; step?: string }) {
+  const { register, formState } = useFormContext();
+  const message = errorAt(formState.errors, name);
+  const id = fieldId(name);
+  return (
+    <div>
+      <label htmlFor={id} className="label">
+        {label}
+        {unit && <span className="ml-1 normal-case text-slate-400">({unit})</span>}
+      </label>
+      <input
+        id={id}
+        type="number"
+        step={step}
+        inputMode="decimal"
+        aria-invalid={message ? true : undefined}
+        aria-describedby={message ? `${id}-error` : undefined}
+        className="field num"
+        {...register(name, { setValueAs: (v: unknown) => (v === "" || v === undefined || v === null ? (optional ? undefined : NaN) : Number(v)) })}
+      />
+      <FieldMessage id={`${id}-error`} message={message} />
+    </div>
+  );
+}
+
+export function SelectField({ name, label, options, onPicked }: { name: string; label: string; options: readonly { value: string; label: string }[]; onPicked?: (v: string) => void }) {
+  const { register, formState } = useFormContext();
+  const message = errorAt(formState.errors, name);
+  const id = fieldId(name);
+  const reg = register(name);
+  return (
+    <div>
+      <label htmlFor={id} className="label">
+        {label}
+      </label>
+      <select
+        id={id}
+        className="field"
+        {...reg}
+        onChange={(e) => {
+          void reg.onChange(e);
+          onPicked?.(e.target.value);
+        }}
+      >
+        {options.map((o) => (
+          <option key={o.value} value={o.value}>
+            {o.label}
+          </option>
+        ))}
+      </select>
+      <FieldMessage id={`${id}-error`} message={message} />
+    </div>
+  );
+}
+
+const show = (v: unknown) => (Array.isArray(v) ? v.map((row) => (Array.isArray(row) ? row.join(", ") : String(row))).join(Array.isArray(v[0]) ? "\n" : ", ") : "");
+
+/**
+ * Coefficients typed or pasted as text (numpy, C, MATLAB styles; parseCoefficientText). `rows` asks
+ * for a list of rows (SOS); otherwise a flat list. A text that does not parse keeps the last good value
+ * and says where it stopped.
+ */
+export function ListField({ name, label, rows = false, lines = 2, hint }: { name: string; label: string; rows?: boolean; lines?: number; hint?: string }) {
+  const { control, formState } = useFormContext();
+  const [parseError, setParseError] = useState<string | null>(null);
+  const id = fieldId(name);
+  const message = parseError ?? errorAt(formState.errors, name);
+  return (
+    <Controller
+      control={control}
+      name={name}
+      render={({ field }) => (
+        <div>
+          <label htmlFor={id} className="label">
+            {label}
+          </label>
+          <textarea
+            id={id}
+            rows={lines}
+            spellCheck={false}
+            defaultValue={show(field.value)}
+            aria-invalid={message ? true : undefined}
+            aria-describedby={message ? `${id}-error` : undefined}
+            className="field num text-xs"
+            onBlur={field.onBlur}
+            onChange={(e) => {
+              const text = e.target.value;
+              if (text.trim() === "") {
+                setParseError(null);
+                field.onChange(undefined);
+                return;
+              }
+              try {
+                const parsed = parseCoefficientText(text);
+                const nested = Array.isArray(parsed[0]);
+                if (rows) field.onChange(nested ? parsed : [parsed]);
+                else if (nested && (parsed as number[][]).length === 1) field.onChange((parsed as number[][])[0]);
+                else if (nested) throw new Error("give one list of numbers here, not rows");
+                else field.onChange(parsed);
+                setParseError(null);
+              } catch (err) {
+                setParseError(err instanceof Error ? err.message : String(err));
+              }
+            }}
+          />
+          {hint && !message && <p className="mt-1 text-xs text-slate-500">{hint}</p>}
+          <FieldMessage id={`${id}-error`} message={message} />
+        </div>
+      )}
+    />
+  );
+}

@@ -1,0 +1,115 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useEffect, useRef, useState } from "react";
+import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
+import { estimateOrder, IIR_FAMILIES, IIR_RESPONSES, orderRequirementSchema, type FilterSpec, type OrderRequirement } from "@/lib/dsp";
+import { hz } from "@/lib/bench/format";
+import { NumberField, SelectField } from "./form-fields";
+
+const FAMILY_LABELS: Record<string, string> = { butterworth: "Butterworth", chebyshev1: "Chebyshev I", chebyshev2: "Chebyshev II", elliptic: "Elliptic", bessel: "Bessel" };
+
+/** The IIR spec that meets a requirement at its estimated order (ripple/attenuation passed where the family uses them). */
+export function specFromRequirement(req: OrderRequirement): FilterSpec {
+  const { order, cutoffHz } = estimateOrder(req);
+  const ripple = req.family === "chebyshev1" || req.family === "elliptic";
+  const atten = req.family === "chebyshev2" || req.family === "elliptic";
+  return {
+    kind: "iir",
+    family: req.family,
+    response: req.response,
+    order,
+    cutoffHz,
+    sampleRateHz: req.sampleRateHz,
+    ...(ripple ? { passbandRippleDb: req.passbandRippleDb } : {}),
+    ...(atten ? { stopbandAttenuationDb: req.stopbandAttenuationDb } : {}),
+  };
+}
+
+/** A starting requirement at sample rate fs: pass to 0.08·fs, 40 dB down by 0.16·fs (product choice). */
+export function defaultRequirement(fs: number): OrderRequirement {
+  return {
+    family: "butterworth",
+    response: "lowpass",
+    passbandHz: Math.round(fs * 0.08),
+    stopbandHz: Math.round(fs * 0.16),
+    passbandRippleDb: 1,
+    stopbandAttenuationDb: 40,
+    sampleRateHz: fs,
+  };
+}
+
+function edges(response: string, current: unknown, wider: boolean): number | [number, number] {
+  const band = response === "bandpass" || response === "bandstop";
+  if (band) {
+    if (Array.isArray(current)) return current as [number, number];
+    const f = typeof current === "number" ? current : 10;
+    return wider ? [f * 0.6, f * 1.6] : [f * 0.8, f * 1.25];
+  }
+  return Array.isArray(current) ? Math.sqrt(current[0] * current[1]) : (current as number);
+}
+
+/**
+ * An IIR requirement (pass and stop edges, ripple, attenuation) checked by lib/dsp's orderRequirementSchema;
+ * each valid requirement is turned into a design at the order estimateOrder finds.
+ */
+export function RequirementForm({ sampleRateHz, onValid }: { sampleRateHz: number; onValid: (spec: FilterSpec) => void }) {
+  const form = useForm<OrderRequirement>({
+    resolver: zodResolver(orderRequirementSchema) as unknown as Resolver<OrderRequirement>,
+    mode: "onChange",
+    defaultValues: defaultRequirement(sampleRateHz),
+  });
+  const values = useWatch({ control: form.control }) as OrderRequirement;
+  const [estimate, setEstimate] = useState<{ text: string; error: boolean } | null>(null);
+  const onValidRef = useRef(onValid);
+  onValidRef.current = onValid;
+
+  useEffect(() => {
+    const parsed = orderRequirementSchema.safeParse(values);
+    if (!parsed.success) return setEstimate(null);
+    try {
+      const spec = specFromRequirement(parsed.data);
+      if (spec.kind !== "iir") return;
+      const cut = typeof spec.cutoffHz === "number" ? hz(spec.cutoffHz) : `${hz(spec.cutoffHz[0])}–${hz(spec.cutoffHz[1])}`;
+      setEstimate({ text: `Estimated order ${spec.order}, natural cutoff ${cut}.`, error: false });
+      onValidRef.current(spec);
+    } catch (err) {
+      setEstimate({ text: err instanceof Error ? err.message : String(err), error: true });
+    }
+  }, [values]);
+
+  const band = Array.isArray(values.passbandHz);
+  const onResponse = (r: string) => {
+    form.setValue("passbandHz", edges(r, form.getValues("passbandHz"), r === "bandstop"), { shouldValidate: true });
+    form.setValue("stopbandHz", edges(r, form.getValues("stopbandHz"), r === "bandpass"), { shouldValidate: true });
+  };
+
+  return (
+    <FormProvider {...form}>
+      <form className="grid grid-cols-2 gap-3" onSubmit={(e) => e.preventDefault()} aria-label="Filter requirement" noValidate>
+        <SelectField name="family" label="Family" options={IIR_FAMILIES.map((f) => ({ value: f, label: FAMILY_LABELS[f] }))} />
+        <SelectField name="response" label="Response" options={IIR_RESPONSES.map((r) => ({ value: r, label: r }))} onPicked={onResponse} />
+        {band ? (
+          <>
+            <NumberField name="passbandHz.0" label="Pass edge, low" unit="Hz" />
+            <NumberField name="passbandHz.1" label="Pass edge, high" unit="Hz" />
+            <NumberField name="stopbandHz.0" label="Stop edge, low" unit="Hz" />
+            <NumberField name="stopbandHz.1" label="Stop edge, high" unit="Hz" />
+          </>
+        ) : (
+          <>
+            <NumberField name="passbandHz" label="Pass edge" unit="Hz" />
+            <NumberField name="stopbandHz" label="Stop edge" unit="Hz" />
+          </>
+        )}
+        <NumberField name="passbandRippleDb" label="Passband ripple" unit="dB" />
+        <NumberField name="stopbandAttenuationDb" label="Stopband attenuation" unit="dB" />
+        {estimate && (
+          <p role={estimate.error ? "alert" : "status"} className={`col-span-2 text-sm ${estimate.error ? "text-red-700 dark:text-red-300" : "text-slate-600 dark:text-slate-300"}`}>
+            {estimate.text}
+          </p>
+        )}
+      </form>
+    </FormProvider>
+  );
+}

@@ -1,0 +1,144 @@
+"use client";
+
+import { useEffect, useMemo, useState } from "react";
+import type uPlot from "uplot";
+import { UPlotChart } from "@/components/charts/uplot-chart";
+import { staticSource } from "@/components/charts/sources";
+import { Swatch } from "@/components/ui/swatch";
+import { hz, withUnit } from "@/lib/bench/format";
+import type { LiveStore } from "@/lib/bench/live-store";
+import { liveSpectrum, type LiveSpectrum } from "@/lib/bench/spectrum";
+import type { TraceInfo } from "./live-panel";
+
+/** Seconds of signal each spectrum is taken over, and how often it is refreshed (ms). */
+const SPECTRUM_SECONDS = 4;
+const REFRESH_MS = 500;
+
+export type SeedMode = "notch" | "cutoff";
+
+interface Computed {
+  /** Spectrum of the first trace (whose peaks are labelled) and the others on the same bins. */
+  lead: LiveSpectrum;
+  others: (number[] | null)[];
+}
+
+function compute(store: LiveStore, traces: TraceInfo[]): Computed | null {
+  const [first, ...rest] = traces;
+  if (!first) return null;
+  const samples = store.recent(first.slot, SPECTRUM_SECONDS);
+  const lead = liveSpectrum(samples, store.sampleRateHz);
+  if (!lead) return null;
+  const others = rest.map((t) => {
+    const x = store.recent(t.slot, SPECTRUM_SECONDS);
+    if (x.length < samples.length) return null;
+    return liveSpectrum(x.subarray(x.length - samples.length), store.sampleRateHz, 0)?.psdDb ?? null;
+  });
+  return { lead, others };
+}
+
+/**
+ * Welch PSD of live traces on a log frequency axis (the first trace's strongest peaks labelled in Hz),
+ * refreshed twice a second. With `onSeed`, a peak (or a click on the chart) seeds a notch or a cutoff.
+ */
+export function SpectrumPanel({
+  store,
+  traces,
+  unit,
+  title,
+  onSeed,
+  onPeaks,
+}: {
+  store: LiveStore;
+  traces: TraceInfo[];
+  unit: string;
+  title: string;
+  onSeed?: (freqHz: number, mode: SeedMode) => void;
+  onPeaks?: (peaksHz: number[]) => void;
+}) {
+  const [computed, setComputed] = useState<Computed | null>(null);
+  const [paused, setPaused] = useState(false);
+  const key = traces.map((t) => `${t.id}:${t.slot}`).join(",");
+  useEffect(() => {
+    if (paused) return;
+    const tick = () => {
+      const c = compute(store, traces);
+      setComputed(c);
+      if (c) onPeaks?.(c.lead.peaks.map((p) => p.freqHz));
+    };
+    tick();
+    const id = setInterval(tick, REFRESH_MS);
+    return () => clearInterval(id);
+  }, [store, key, paused]);
+
+  const source = useMemo(() => {
+    if (!computed) return staticSource([[], ...traces.map(() => [])] as uPlot.AlignedData);
+    const { freqsHz, psdDb } = computed.lead;
+    const from = freqsHz[0] === 0 ? 1 : 0;
+    return staticSource([freqsHz.slice(from), psdDb.slice(from), ...computed.others.map((o) => (o ? o.slice(from) : freqsHz.slice(from).map(() => null)))] as uPlot.AlignedData);
+  }, [computed]);
+  const peaks = computed?.lead.peaks ?? [];
+  const marks = peaks.map((p) => ({ x: p.freqHz, label: hz(p.freqHz, 3) }));
+  const nearestPeak = (f: number) => {
+    let best: number | null = null;
+    for (const p of peaks) if (Math.abs(Math.log(p.freqHz / f)) < 0.08 && (best === null || Math.abs(p.freqHz - f) < Math.abs(best - f))) best = p.freqHz;
+    return best ?? f;
+  };
+
+  return (
+    <section aria-label={title} className="card overflow-hidden">
+      <div className="flex flex-wrap items-center gap-3 border-b border-slate-200 px-4 py-2.5 dark:border-slate-800">
+        <h2 className="font-medium">{title}</h2>
+        <span className="text-xs text-slate-500">
+          Welch PSD over the last {SPECTRUM_SECONDS} s, dB re 1 {unit}²/Hz
+        </span>
+        <button type="button" className="btn-quiet ml-auto py-1" aria-pressed={paused} onClick={() => setPaused(!paused)}>
+          {paused ? "Resume" : "Hold"}
+        </button>
+      </div>
+      <div className="grid gap-3 p-3 lg:grid-cols-[1fr_16rem]">
+        <div className="rounded-md bg-canvas p-2">
+          {!computed && <p className="px-2 py-1 text-sm text-slate-300">Waiting for a few seconds of samples to estimate the spectrum…</p>}
+          <UPlotChart
+            label={`${title}: power spectral density against frequency`}
+            testId="spectrum-chart"
+            series={traces.map((t) => ({ label: t.label, color: t.color, unit: "dB", width: t.id === "raw" ? 1 : 1.5 }))}
+            source={source}
+            x={{ kind: "log", label: "Frequency (Hz)", unit: "Hz" }}
+            axes={[{ scale: "y", label: "PSD (dB)" }]}
+            height={240}
+            marks={marks}
+            onPick={onSeed ? (f) => onSeed(nearestPeak(f), "notch") : undefined}
+          />
+        </div>
+        <div>
+          <h3 className="label flex items-center gap-1.5">
+            <Swatch color={traces[0]?.color ?? "#94a3b8"} /> Strongest peaks
+          </h3>
+          {peaks.length === 0 ? (
+            <p className="text-sm text-slate-500">{computed ? "No clear peaks (none 10 dB above its surroundings)." : "Estimating…"}</p>
+          ) : (
+            <ol className="space-y-1" data-testid="spectrum-peaks">
+              {peaks.map((p) => (
+                <li key={p.freqHz} className="flex items-center gap-2 text-sm">
+                  <span className="num w-20">{hz(p.freqHz, 4)}</span>
+                  <span className="num w-14 text-xs text-slate-500">{withUnit(p.prominenceDb, "dB", 2)}</span>
+                  {onSeed && (
+                    <span className="ml-auto flex gap-1">
+                      <button type="button" className="btn-quiet px-1.5 py-0.5 text-xs" onClick={() => onSeed(p.freqHz, "notch")} aria-label={`Notch at ${hz(p.freqHz, 4)}`}>
+                        Notch
+                      </button>
+                      <button type="button" className="btn-quiet px-1.5 py-0.5 text-xs" onClick={() => onSeed(p.freqHz, "cutoff")} aria-label={`Cutoff at ${hz(p.freqHz, 4)}`}>
+                        Cutoff
+                      </button>
+                    </span>
+                  )}
+                </li>
+              ))}
+            </ol>
+          )}
+          {onSeed && <p className="mt-2 text-xs text-slate-500">Click a peak on the chart to seed a notch for the candidate being edited.</p>}
+        </div>
+      </div>
+    </section>
+  );
+}

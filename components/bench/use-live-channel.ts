@@ -1,0 +1,140 @@
+"use client";
+
+import { useEffect, useMemo, useRef, useState } from "react";
+import { reconnectDelayMs } from "@/lib/bench/backoff";
+import { HISTORY_SECONDS, LiveStore } from "@/lib/bench/live-store";
+import { serverMessageSchema, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
+
+export type LinkState = "connecting" | "live" | "reconnecting";
+
+export interface LiveStatus {
+  link: LinkState;
+  /** When the next reconnect attempt starts (ms since the epoch), while reconnecting. */
+  retryAt: number | null;
+  /** The broker link as the sidecar reports it. */
+  mqtt: "connected" | "reconnecting" | "closed" | null;
+  droppedFrames: number;
+  /** When the last frame arrived (ms since the epoch). */
+  lastFrameAt: number | null;
+  /** The last refusal or failure, in the sidecar's words. */
+  error: string | null;
+}
+
+export interface LiveChannel {
+  store: LiveStore;
+  status: LiveStatus;
+  metrics: Record<string, CandidateMetrics>;
+  /** Sends a message now if the link is open (messages while closed are dropped; onOpen re-sends state). */
+  send(message: ClientMessage): void;
+}
+
+interface Options {
+  path: string;
+  sampleRateHz: number;
+  /** ws://<page host>:<port><wsPath> */
+  port: number;
+  wsPath: string;
+  /** Called on every (re)connection after subscribing, to re-send the candidates the sidecar forgot. */
+  onOpen: (send: (m: ClientMessage) => void) => void;
+}
+
+const INITIAL: LiveStatus = { link: "connecting", retryAt: null, mqtt: null, droppedFrames: 0, lastFrameAt: null, error: null };
+
+/**
+ * The live WebSocket of one channel: subscribes at full rate (no server decimation, so spectra see
+ * every sample), feeds frames into a LiveStore, keeps status and metrics, and reconnects by itself
+ * with exponential backoff.
+ */
+export function useLiveChannel(opts: Options): LiveChannel {
+  const store = useMemo(() => new LiveStore(opts.sampleRateHz), [opts.sampleRateHz]);
+  const [status, setStatus] = useState<LiveStatus>(INITIAL);
+  const [metrics, setMetrics] = useState<Record<string, CandidateMetrics>>({});
+  const socketRef = useRef<WebSocket | null>(null);
+  const onOpenRef = useRef(opts.onOpen);
+  onOpenRef.current = opts.onOpen;
+
+  useEffect(() => {
+    let attempt = 0;
+    let timer: ReturnType<typeof setTimeout> | null = null;
+    let closed = false;
+    let lastFrameShown = 0;
+    const scheme = window.location.protocol === "https:" ? "wss" : "ws";
+    const url = `${scheme}://${window.location.hostname}:${opts.port}${opts.wsPath}`;
+
+    const handle = (msg: ServerMessage) => {
+      switch (msg.type) {
+        case "frame": {
+          if (msg.channel !== opts.path) return;
+          store.push(msg);
+          const now = Date.now();
+          if (now - lastFrameShown > 1000) {
+            lastFrameShown = now;
+            setStatus((s) => ({ ...s, lastFrameAt: now }));
+          }
+          return;
+        }
+        case "status":
+          setStatus((s) => ({ ...s, mqtt: msg.mqtt, droppedFrames: msg.droppedFrames }));
+          return;
+        case "metrics":
+          if (msg.channel === opts.path) setMetrics(msg.candidates);
+          return;
+        case "error":
+          setStatus((s) => ({ ...s, error: msg.message }));
+          return;
+        case "hello":
+          return;
+      }
+    };
+
+    const connect = () => {
+      const ws = new WebSocket(url);
+      socketRef.current = ws;
+      const send = (m: ClientMessage) => {
+        if (ws.readyState === WebSocket.OPEN) ws.send(JSON.stringify(m));
+      };
+      ws.onopen = () => {
+        attempt = 0;
+        setStatus((s) => ({ ...s, link: "live", retryAt: null, error: null }));
+        send({ type: "subscribe", channel: opts.path });
+        send({ type: "window", channel: opts.path, seconds: HISTORY_SECONDS, maxPoints: 1_000_000 });
+        onOpenRef.current(send);
+      };
+      ws.onmessage = (ev) => {
+        if (typeof ev.data !== "string") return;
+        let json: unknown;
+        try {
+          json = JSON.parse(ev.data);
+        } catch {
+          return;
+        }
+        const parsed = serverMessageSchema.safeParse(json);
+        if (parsed.success) handle(parsed.data);
+      };
+      ws.onclose = () => {
+        socketRef.current = null;
+        if (closed) return;
+        const delay = reconnectDelayMs(attempt++, Math.random());
+        setStatus((s) => ({ ...s, link: "reconnecting", retryAt: Date.now() + delay }));
+        timer = setTimeout(connect, delay);
+      };
+    };
+    connect();
+    return () => {
+      closed = true;
+      if (timer) clearTimeout(timer);
+      socketRef.current?.close();
+      socketRef.current = null;
+    };
+  }, [opts.path, opts.port, opts.wsPath, store]);
+
+  const send = useMemo(
+    () => (m: ClientMessage) => {
+      const ws = socketRef.current;
+      if (ws && ws.readyState === WebSocket.OPEN) ws.send(JSON.stringify(m));
+    },
+    [],
+  );
+
+  return { store, status, metrics, send };
+}

@@ -1,0 +1,289 @@
+"use client";
+
+import { useEffect, useRef } from "react";
+import uPlot from "uplot";
+import "uplot/dist/uPlot.min.css";
+import "./chart.css";
+import { trim } from "@/lib/format/units";
+import type { ChartSource } from "./sources";
+
+export interface ChartSeries {
+  label: string;
+  color: string;
+  /** Unit shown with the value under the cursor. */
+  unit: string;
+  show?: boolean;
+  width?: number;
+  dash?: number[];
+  /** y scale key; "y" (left axis) unless given. */
+  scale?: string;
+}
+
+export interface ChartAxis {
+  scale: string;
+  label: string;
+  side?: "left" | "right";
+  /** Tick labels from values (e.g. samples shown as ms on a second axis). */
+  format?: (v: number) => string;
+}
+
+/** A labelled vertical marker (e.g. a spectral peak) drawn over the plot. */
+export interface ChartMark {
+  x: number;
+  label: string;
+}
+
+export interface UPlotChartProps {
+  /** Accessible name of the chart. */
+  label: string;
+  series: ChartSeries[];
+  source: ChartSource;
+  /** time: x in s since the epoch; log: x in Hz on a log axis; linear: x as it is. */
+  x: { kind: "time" | "log" | "linear"; label: string; unit: string };
+  axes: ChartAxis[];
+  height: number;
+  /** Manual y range of the "y" scale; null or absent means auto. */
+  yRange?: [number, number] | null;
+  /** Stops pulling data from the source (the chart keeps what it shows). */
+  paused?: boolean;
+  /** The engineer zoomed in (true) or reset the zoom with a double click (false). */
+  onZoom?: (zoomed: boolean) => void;
+  /** A click (not a drag) at x. */
+  onPick?: (x: number) => void;
+  /** The legend toggled series i (0-based, without x). */
+  onToggle?: (index: number, show: boolean) => void;
+  /** Vertical markers with labels, drawn on every redraw. */
+  marks?: ChartMark[];
+  testId?: string;
+}
+
+const AXIS_STROKE = "#94a3b8";
+const GRID = { stroke: "rgba(148, 163, 184, 0.14)", width: 1 };
+const TICKS = { stroke: "rgba(148, 163, 184, 0.3)", width: 1 };
+
+const formatValue = (unit: string) => (_u: uPlot, v: number | null) => (v == null ? "—" : `${trim(v, 4).replace("-", "−")} ${unit}`.trim());
+
+function seriesOptions(s: ChartSeries): uPlot.Series {
+  return {
+    label: s.label,
+    stroke: s.color,
+    width: s.width ?? 1.25,
+    dash: s.dash,
+    scale: s.scale ?? "y",
+    show: s.show ?? true,
+    spanGaps: false,
+    points: { show: false },
+    value: formatValue(s.unit),
+  };
+}
+
+/**
+ * The one uPlot wrapper: the plot is created once on mount and destroyed on unmount; data is pulled
+ * from `source` at most once per animation frame (after the source reports a change); series are
+ * added, removed and shown in place. Drag zooms x, shift-drag pans, a double click resets; the x axis
+ * may be time, linear or log₁₀. The canvas is dark in both themes.
+ */
+export function UPlotChart(props: UPlotChartProps) {
+  const hostRef = useRef<HTMLDivElement>(null);
+  const plotRef = useRef<uPlot | null>(null);
+  const propsRef = useRef(props);
+  propsRef.current = props;
+  const zoomedRef = useRef(false);
+  const scheduleRef = useRef<() => void>(() => {});
+  const seriesKey = props.series.map((s) => `${s.label}|${s.color}|${s.scale ?? "y"}|${s.dash ?? ""}`).join(";");
+  const builtKeyRef = useRef(seriesKey);
+
+  useEffect(() => {
+    const host = hostRef.current;
+    if (!host) return;
+    const p = propsRef.current;
+    let frame = 0;
+    let destroyed = false;
+
+    const xRange = (_u: uPlot, min: number | null, max: number | null): uPlot.Range.MinMax => {
+      const live = propsRef.current.source.xRange?.() ?? null;
+      if (live && !zoomedRef.current) return live;
+      if (min == null || max == null) return [0, 1];
+      if (p.x.kind === "log") return uPlot.rangeLog(min, max, 10, true);
+      return min === max ? [min - 1, max + 1] : [min, max];
+    };
+    const yRange = (_u: uPlot, min: number | null, max: number | null): uPlot.Range.MinMax => {
+      const manual = propsRef.current.yRange;
+      if (manual) return manual;
+      if (min == null || max == null) return [-1, 1];
+      return uPlot.rangeNum(min, max, 0.08, true);
+    };
+    const scales: uPlot.Scales = {
+      x: p.x.kind === "log" ? { time: false, distr: 3, log: 10, range: xRange } : { time: p.x.kind === "time", range: xRange },
+    };
+    for (const a of p.axes) scales[a.scale] = { range: a.scale === "y" ? yRange : (_u, min, max) => (min == null || max == null ? [-1, 1] : uPlot.rangeNum(min, max, 0.08, true)) };
+    const axis = (a: Partial<uPlot.Axis>): uPlot.Axis => ({ stroke: AXIS_STROKE, grid: GRID, ticks: TICKS, font: "11px var(--font-mono), monospace", labelFont: "11px var(--font-inter), sans-serif", ...a });
+
+    const panPlugin: uPlot.Plugin = {
+      hooks: {
+        init: (u) => {
+          let start: { x: number; min: number; max: number } | null = null;
+          const onDown = (e: MouseEvent) => {
+            if (!e.shiftKey || e.button !== 0) return;
+            e.stopPropagation();
+            start = { x: e.clientX, min: u.scales.x.min ?? 0, max: u.scales.x.max ?? 1 };
+            zoomedRef.current = true;
+            propsRef.current.onZoom?.(true);
+          };
+          const onMove = (e: MouseEvent) => {
+            if (!start) return;
+            const width = u.over.getBoundingClientRect().width || 1;
+            const frac = (e.clientX - start.x) / width;
+            if (p.x.kind === "log") {
+              const k = Math.pow(start.max / start.min, -frac);
+              u.setScale("x", { min: start.min * k, max: start.max * k });
+            } else {
+              const d = -frac * (start.max - start.min);
+              u.setScale("x", { min: start.min + d, max: start.max + d });
+            }
+          };
+          const onUp = () => (start = null);
+          const onDbl = () => {
+            zoomedRef.current = false;
+            propsRef.current.onZoom?.(false);
+            scheduleRef.current();
+          };
+          u.over.addEventListener("mousedown", onDown, true);
+          window.addEventListener("mousemove", onMove);
+          window.addEventListener("mouseup", onUp);
+          u.over.addEventListener("dblclick", onDbl);
+          u.over.addEventListener("click", (e) => {
+            if (u.select.width > 2 || e.shiftKey) return;
+            const v = u.posToVal(e.offsetX, "x");
+            if (Number.isFinite(v)) propsRef.current.onPick?.(v);
+          });
+          (u as uPlot & { _cleanupPan?: () => void })._cleanupPan = () => {
+            window.removeEventListener("mousemove", onMove);
+            window.removeEventListener("mouseup", onUp);
+          };
+        },
+        setSelect: (u) => {
+          if (u.select.width > 2) {
+            zoomedRef.current = true;
+            propsRef.current.onZoom?.(true);
+          }
+        },
+        draw: (u) => {
+          const marks = propsRef.current.marks;
+          if (!marks?.length) return;
+          const ctx = u.ctx;
+          const dpr = uPlot.pxRatio;
+          ctx.save();
+          ctx.font = `${11 * dpr}px var(--font-mono), monospace`;
+          ctx.textAlign = "center";
+          marks.forEach((m, i) => {
+            const x = u.valToPos(m.x, "x", true);
+            if (x < u.bbox.left || x > u.bbox.left + u.bbox.width) return;
+            ctx.strokeStyle = "rgba(226, 232, 240, 0.35)";
+            ctx.setLineDash([3 * dpr, 3 * dpr]);
+            ctx.beginPath();
+            ctx.moveTo(x, u.bbox.top);
+            ctx.lineTo(x, u.bbox.top + u.bbox.height);
+            ctx.stroke();
+            ctx.fillStyle = "#e2e8f0";
+            ctx.fillText(m.label, x, u.bbox.top + (12 + (i % 2) * 13) * dpr);
+          });
+          ctx.restore();
+        },
+        setSeries: (_u, idx, opts) => {
+          if (idx != null && idx > 0 && opts.show !== undefined) propsRef.current.onToggle?.(idx - 1, opts.show);
+        },
+      },
+    };
+
+    const opts: uPlot.Options = {
+      width: Math.max(200, host.clientWidth),
+      height: p.height,
+      scales,
+      series: [
+        { label: p.x.label, value: p.x.kind === "time" ? "{HH}:{mm}:{ss}.{fff}" : formatValue(p.x.unit) },
+        ...p.series.map(seriesOptions),
+      ],
+      axes: [
+        axis({ label: p.x.label, scale: "x", space: p.x.kind === "log" ? 40 : 70 }),
+        ...p.axes.map((a) =>
+          axis({
+            scale: a.scale,
+            label: a.label,
+            side: a.side === "right" ? 1 : 3,
+            grid: a.side === "right" ? { show: false } : GRID,
+            size: 56,
+            values: a.format ? (_u: uPlot, splits: number[]) => splits.map((v) => a.format!(v)) : undefined,
+          }),
+        ),
+      ],
+      cursor: { drag: { x: true, y: false, setScale: true }, points: { size: 5 } },
+      legend: { show: true, live: true },
+      plugins: [panPlugin],
+    };
+    const initial = p.source.snapshot(opts.width);
+    const plot = new uPlot(opts, initial, host);
+    plotRef.current = plot;
+
+    const flush = () => {
+      frame = 0;
+      if (destroyed || propsRef.current.paused) return;
+      plot.setData(propsRef.current.source.snapshot(plot.width), !zoomedRef.current);
+    };
+    const schedule = () => {
+      if (!frame && !destroyed) frame = requestAnimationFrame(flush);
+    };
+    scheduleRef.current = schedule;
+    const resize = new ResizeObserver(() => {
+      const width = Math.max(200, host.clientWidth);
+      if (width !== plot.width) plot.setSize({ width, height: propsRef.current.height });
+    });
+    resize.observe(host);
+
+    return () => {
+      destroyed = true;
+      if (frame) cancelAnimationFrame(frame);
+      resize.disconnect();
+      (plot as uPlot & { _cleanupPan?: () => void })._cleanupPan?.();
+      plot.destroy();
+      plotRef.current = null;
+    };
+  }, []);
+
+  // A new set of series is rebuilt in place; a new source is followed (its changes redraw once per frame).
+  useEffect(() => {
+    const plot = plotRef.current;
+    if (!plot) return;
+    if (builtKeyRef.current !== seriesKey) {
+      builtKeyRef.current = seriesKey;
+      while (plot.series.length > 1) plot.delSeries(plot.series.length - 1);
+      propsRef.current.series.forEach((s) => plot.addSeries(seriesOptions(s)));
+    }
+    scheduleRef.current();
+    return propsRef.current.source.subscribe(() => scheduleRef.current());
+  }, [seriesKey, props.source]);
+
+  const showKey = props.series.map((s) => (s.show ?? true ? 1 : 0)).join("");
+  useEffect(() => {
+    const plot = plotRef.current;
+    if (!plot) return;
+    propsRef.current.series.forEach((s, i) => {
+      const show = s.show ?? true;
+      if (plot.series[i + 1] && plot.series[i + 1].show !== show) plot.setSeries(i + 1, { show }, false);
+    });
+  }, [showKey]);
+
+  // A manual y range, a resumed stream or a new height: redraw with the new settings.
+  const yKey = props.yRange ? props.yRange.join(",") : "auto";
+  useEffect(() => {
+    const plot = plotRef.current;
+    if (!plot) return;
+    if (plot.height !== props.height) plot.setSize({ width: plot.width, height: props.height });
+    if (!props.paused) zoomedRef.current = false;
+    if (props.yRange) plot.setScale("y", { min: props.yRange[0], max: props.yRange[1] });
+    else if (!zoomedRef.current) plot.setData(plot.data, true);
+    scheduleRef.current();
+  }, [yKey, props.paused, props.height]);
+
+  return <div ref={hostRef} role="img" aria-label={props.label} data-testid={props.testId} className="tw-chart w-full" />;
+}
