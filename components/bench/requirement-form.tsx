@@ -3,41 +3,12 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useRef, useState } from "react";
 import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
-import { estimateOrder, IIR_FAMILIES, IIR_RESPONSES, orderRequirementSchema, type FilterSpec, type OrderRequirement } from "@/lib/dsp";
+import { IIR_FAMILIES, IIR_RESPONSES, orderRequirementSchema, type FilterSpec, type OrderRequirement } from "@/lib/dsp";
+import { defaultRequirement, specFromRequirement } from "@/lib/bench/requirement";
 import { hz } from "@/lib/bench/format";
 import { NumberField, SelectField } from "./form-fields";
 
 const FAMILY_LABELS: Record<string, string> = { butterworth: "Butterworth", chebyshev1: "Chebyshev I", chebyshev2: "Chebyshev II", elliptic: "Elliptic", bessel: "Bessel" };
-
-/** The IIR spec that meets a requirement at its estimated order (ripple/attenuation passed where the family uses them). */
-export function specFromRequirement(req: OrderRequirement): FilterSpec {
-  const { order, cutoffHz } = estimateOrder(req);
-  const ripple = req.family === "chebyshev1" || req.family === "elliptic";
-  const atten = req.family === "chebyshev2" || req.family === "elliptic";
-  return {
-    kind: "iir",
-    family: req.family,
-    response: req.response,
-    order,
-    cutoffHz,
-    sampleRateHz: req.sampleRateHz,
-    ...(ripple ? { passbandRippleDb: req.passbandRippleDb } : {}),
-    ...(atten ? { stopbandAttenuationDb: req.stopbandAttenuationDb } : {}),
-  };
-}
-
-/** A starting requirement at sample rate fs: pass to 0.08·fs, 40 dB down by 0.16·fs (product choice). */
-export function defaultRequirement(fs: number): OrderRequirement {
-  return {
-    family: "butterworth",
-    response: "lowpass",
-    passbandHz: Math.round(fs * 0.08),
-    stopbandHz: Math.round(fs * 0.16),
-    passbandRippleDb: 1,
-    stopbandAttenuationDb: 40,
-    sampleRateHz: fs,
-  };
-}
 
 function edges(response: string, current: unknown, wider: boolean): number | [number, number] {
   const band = response === "bandpass" || response === "bandstop";
