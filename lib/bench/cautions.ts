@@ -70,7 +70,7 @@ function loopCaution(design: FilterDesign, crossoverHz: number | null | undefine
     return {
       kind: "loop",
       title: "Delay inside a control loop",
-      text: `If this filter sits inside a control loop, it delays the signal by about ${delay} and costs ${withUnit(lag, "°", 2)} of phase at the ${hz(crossoverHz)} crossover, which comes straight off the phase margin.`,
+      text: `If this filter sits inside a control loop, it delays the signal by about ${delay} and costs ${withUnit(lag, "", 2)}° of phase at the ${hz(crossoverHz)} crossover, which comes straight off the phase margin.`,
     };
   }
   if (delayMs < CAUTION_LIMITS.loopDelayMs) return null;

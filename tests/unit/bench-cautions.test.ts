@@ -1,0 +1,54 @@
+import { describe, expect, it } from "vitest";
+import { CAUTION_LIMITS, cautionsFor, phaseLagDeg, REVIEW_LINE } from "@/lib/bench/cautions";
+import { designFilter, type FilterSpec } from "@/lib/dsp";
+
+const fs = 1000;
+const kinds = (spec: FilterSpec, deviceFormat: "f32" | "q15" | "q31" = "f32", crossoverHz: number | null = null) =>
+  cautionsFor({ spec, design: designFilter(spec), deviceFormat, crossoverHz }).map((c) => c.kind);
+
+describe("cautions", () => {
+  it("end with the line that defers to review, safety documentation and local codes", () => {
+    expect(REVIEW_LINE).toBe("Confirm with your team's review and the machine's safety documentation; local codes and licensed engineers decide.");
+  });
+
+  it("say nothing for a short moving average", () => {
+    expect(kinds({ kind: "moving-average", length: 3, sampleRateHz: fs }, "q15")).toEqual([]);
+  });
+
+  it("flag poles within 1 % of the unit circle and a notch that may hide a fault", () => {
+    // A 50 Hz notch with Q 30 at 1 kHz has its poles at r ≈ 1 − π·f0/(Q·fs) ≈ 0.9948 (common practice).
+    const spec: FilterSpec = { kind: "biquad", shape: "notch", centerHz: 50, q: 30, sampleRateHz: fs };
+    const found = cautionsFor({ spec, design: designFilter(spec), deviceFormat: "f32" });
+    expect(found.map((c) => c.kind)).toEqual(["poles", "notch"]);
+    expect(found[0].text).toContain("0.9949");
+    expect(found[1].text).toContain("49.17 Hz–50.83 Hz");
+  });
+
+  it("flag a quantization to the device format that moves the response by more than 1 dB", () => {
+    const spec: FilterSpec = { kind: "iir", family: "butterworth", response: "lowpass", order: 8, cutoffHz: 2, sampleRateHz: fs };
+    expect(kinds(spec, "q15")).toContain("quantization");
+    expect(kinds(spec, "q31")).not.toContain("quantization");
+  });
+
+  it("flag a cutoff above 0.45·fs", () => {
+    const spec: FilterSpec = { kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 460, sampleRateHz: fs };
+    expect(kinds(spec)).toContain("nyquist");
+    expect(kinds({ ...spec, cutoffHz: CAUTION_LIMITS.nyquistFraction * fs })).not.toContain("nyquist");
+  });
+
+  it("state the delay and the phase it costs at the loop crossover", () => {
+    const spec: FilterSpec = { kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 100, sampleRateHz: fs };
+    expect(kinds(spec, "f32", 5)).not.toContain("loop");
+    const loop = cautionsFor({ spec, design: designFilter(spec), deviceFormat: "f32", crossoverHz: 30 }).find((c) => c.kind === "loop");
+    expect(loop?.text).toMatch(/delays the signal by about 2\.\d+ ms and costs \d+° of phase at the 30 Hz crossover/);
+    // Without a crossover, a delay of ≥ 2 ms asks for one.
+    expect(cautionsFor({ spec, design: designFilter(spec), deviceFormat: "f32" }).find((c) => c.kind === "loop")?.text).toMatch(/enter the loop's crossover/);
+  });
+
+  it("measure the phase lag of a 2nd-order Butterworth at a tenth of its corner as published", () => {
+    // field notes §1.3: a 2nd-order Butterworth with its corner 10× the crossover costs 8.1° [num]; at
+    // fs = 1 MHz the bilinear warping at 1 kHz is negligible.
+    const design = designFilter({ kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 1000, sampleRateHz: 1e6 });
+    expect(phaseLagDeg(design, 100)).toBeCloseTo(8.1, 1);
+  });
+});
