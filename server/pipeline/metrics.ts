@@ -1,33 +1,56 @@
-import { findPeaks, frequencyResponse, welch, type FilterDesign } from "@/lib/dsp";
+import FFT from "fft.js";
+import { findPeaks, frequencyResponse, welch, type FilterDesign, type SpectralPeak, type WelchResult } from "@/lib/dsp";
 import type { CandidateMetrics } from "@/lib/protocol";
 
 /** Largest lag searched, in seconds and in samples (whichever is smaller). */
 export const MAX_LAG_SECONDS = 0.1;
 export const MAX_LAG_SAMPLES = 256;
 
+const ffts = new Map<number, FFT>();
+
+function fftOf(size: number): FFT {
+  let fft = ffts.get(size);
+  if (!fft) ffts.set(size, (fft = new FFT(size)));
+  return fft;
+}
+
 /**
  * Lag of y behind x in samples: the k in [0, maxLag] maximising the cross-correlation
- * Σ (x[n−k] − x̄)(y[n] − ȳ) over the overlap, normalised by overlap length (direct time-domain
- * cross-correlation peak; Knapp & Carter 1976 describe the general estimator, used here unweighted).
+ * Σ (x[n−k] − x̄)(y[n] − ȳ) divided by the overlap length n − k (unweighted cross-correlation peak;
+ * Knapp & Carter 1976 describe the general estimator). All lags come from one zero-padded FFT
+ * product, IFFT(conj(X)·Y), by the correlation theorem (Oppenheim & Schafer, Discrete-Time Signal Processing).
  */
 export function crossCorrelationLag(x: Float64Array, y: Float64Array, maxLag: number): number {
   const n = Math.min(x.length, y.length);
-  let mx = 0;
-  let my = 0;
+  let size = 2;
+  while (size < 2 * n) size *= 2;
+  const fft = fftOf(size);
+  const mean = (v: Float64Array) => v.subarray(0, n).reduce((a, b) => a + b, 0) / n;
+  const mx = mean(x);
+  const my = mean(y);
+  const a = new Array<number>(2 * size).fill(0);
+  const b = new Array<number>(2 * size).fill(0);
   for (let i = 0; i < n; i++) {
-    mx += x[i];
-    my += y[i];
+    a[2 * i] = x[i] - mx;
+    b[2 * i] = y[i] - my;
   }
-  mx /= n;
-  my /= n;
+  const fa = fft.createComplexArray();
+  const fb = fft.createComplexArray();
+  fft.transform(fa, a);
+  fft.transform(fb, b);
+  for (let k = 0; k < size; k++) {
+    const [ar, ai, br, bi] = [fa[2 * k], fa[2 * k + 1], fb[2 * k], fb[2 * k + 1]];
+    a[2 * k] = ar * br + ai * bi;
+    a[2 * k + 1] = ar * bi - ai * br;
+  }
+  const r = fft.createComplexArray();
+  fft.inverseTransform(r, a);
   let best = 0;
   let bestValue = -Infinity;
   for (let k = 0; k <= Math.min(maxLag, n - 2); k++) {
-    let s = 0;
-    for (let i = k; i < n; i++) s += (x[i - k] - mx) * (y[i] - my);
-    s /= n - k;
-    if (s > bestValue) {
-      bestValue = s;
+    const v = r[2 * k] / (n - k);
+    if (v > bestValue) {
+      bestValue = v;
       best = k;
     }
   }
@@ -46,28 +69,40 @@ function psdAt(freqsHz: number[], psd: number[], f: number): number {
   return psd[Math.min(psd.length - 1, Math.max(0, Math.round(f / step)))];
 }
 
+/** Samples per Welch segment for the metrics (fs/segment = bin spacing in Hz). */
+const segmentFor = (n: number) => Math.min(n, 1024);
+
+/** Raw spectrum and its strongest line, computed once per channel and shared by its candidates. */
+export interface RawSpectrum {
+  psd: WelchResult;
+  line: SpectralPeak | undefined;
+}
+
+export function rawSpectrum(raw: Float64Array, sampleRateHz: number): RawSpectrum {
+  const psd = welch(raw, sampleRateHz, { segmentLength: segmentFor(raw.length) });
+  return { psd, line: findPeaks(psd.freqsHz, psd.psd, { count: 1 })[0] };
+}
+
 /**
  * Live metrics of one candidate from equally long, time-aligned blocks of raw input and candidate
  * output (the last second, taken only once the filter has run long enough to settle):
  * - lagMs: cross-correlation lag of output behind raw;
  * - removedRms: RMS of raw delayed by that lag minus the output, in the channel's unit;
  * - noiseLineHz: strongest spectral peak of raw (Welch PSD, findPeaks);
- * - measuredAttenuationDb: 10·log10 of raw PSD over output PSD at that line;
+ * - measuredAttenuationDb: 10·log10 of raw PSD over output PSD at that line's bin;
  * - predictedAttenuationDb: −|H| in dB of the design at that line.
  */
-export function candidateMetrics(raw: Float64Array, out: Float64Array, design: FilterDesign): CandidateMetrics {
+export function candidateMetrics(raw: Float64Array, out: Float64Array, design: FilterDesign, spectrum: RawSpectrum): CandidateMetrics {
   const fs = design.sampleRateHz;
   const maxLag = Math.min(MAX_LAG_SAMPLES, Math.round(MAX_LAG_SECONDS * fs));
   const lag = crossCorrelationLag(raw, out, maxLag);
   const removed = new Float64Array(raw.length - lag);
   for (let i = lag; i < raw.length; i++) removed[i - lag] = raw[i - lag] - out[i];
-  const segmentLength = Math.min(raw.length, 1024);
-  const rawPsd = welch(raw, fs, { segmentLength });
-  const [line] = findPeaks(rawPsd.freqsHz, rawPsd.psd, { count: 1 });
   const base = { removedRms: rms(removed), lagMs: (lag * 1000) / fs };
+  const { line } = spectrum;
   if (!line) return { ...base, noiseLineHz: null, measuredAttenuationDb: null, predictedAttenuationDb: null };
-  const outPsd = welch(out, fs, { segmentLength });
-  const ratio = psdAt(rawPsd.freqsHz, rawPsd.psd, line.freqHz) / psdAt(outPsd.freqsHz, outPsd.psd, line.freqHz);
+  const outPsd = welch(out, fs, { segmentLength: segmentFor(out.length) });
+  const ratio = psdAt(spectrum.psd.freqsHz, spectrum.psd.psd, line.freqHz) / psdAt(outPsd.freqsHz, outPsd.psd, line.freqHz);
   return {
     ...base,
     noiseLineHz: line.freqHz,

@@ -1,7 +1,7 @@
 import { createFilterBank, type FilterDesign } from "@/lib/dsp";
 import { MAX_CANDIDATES_PER_CLIENT, type CandidateMetrics, type SampleBatch } from "@/lib/protocol";
 import type { BatchSink, ChannelInfo } from "../ingest/ingest";
-import { candidateMetrics } from "./metrics";
+import { candidateMetrics, rawSpectrum, type RawSpectrum } from "./metrics";
 import { SampleRing } from "./ring";
 
 /** Filter key of the production slot in every channel's bank and in frames. */
@@ -190,6 +190,8 @@ export function createPipeline(deps: {
       const fs = ch.info.sampleRateHz;
       const n = Math.ceil(fs);
       const result: Record<string, CandidateMetrics> = {};
+      const raw = ch.raw.latest(n);
+      let spectrum: RawSpectrum | undefined;
       for (const [key, c] of ch.candidates) {
         if (!key.startsWith(`${owner}/`)) continue;
         const id = key.slice(owner.length + 1);
@@ -198,7 +200,8 @@ export function createPipeline(deps: {
           continue;
         }
         try {
-          result[id] = candidateMetrics(ch.raw.latest(n), c.output.latest(n), c.design);
+          spectrum ??= rawSpectrum(raw, fs);
+          result[id] = candidateMetrics(raw, c.output.latest(n), c.design, spectrum);
         } catch {
           result[id] = EMPTY_METRICS;
         }

@@ -52,7 +52,8 @@ export interface Hub {
   message(id: string, text: string): void;
   /** Sends new samples of every channel to its subscribers (driven by the frame timer). */
   tick(): void;
-  metricsTick(): void;
+  /** Sends metrics for the channels in one slice (channel index mod slices); no arguments: all of them. */
+  metricsTick(slice?: number, slices?: number): void;
   statusTick(): void;
   start(): void;
   stop(): void;
@@ -226,10 +227,11 @@ export function createHub(opts: HubOptions): Hub {
         if (blocks.length) sendFrames(path, blocks);
       }
     },
-    metricsTick() {
+    metricsTick(slice = 0, slices = 1) {
+      const paths = opts.pipeline.paths();
       for (const state of clients.values()) {
         for (const [path, ids] of state.candidates) {
-          if (!ids.size || !state.subs.has(path)) continue;
+          if (!ids.size || !state.subs.has(path) || paths.indexOf(path) % slices !== slice) continue;
           send(state, { type: "metrics", channel: path, candidates: opts.pipeline.metrics(path, state.conn.id) });
         }
       }
@@ -243,8 +245,17 @@ export function createHub(opts: HubOptions): Hub {
       for (const [key, view] of views) if (!live.has(view)) views.delete(key);
     },
     start() {
-      timers.push(opts.clock.setInterval(() => guarded("frame", hub.tick), opts.frameIntervalMs ?? 33));
-      timers.push(opts.clock.setInterval(() => guarded("metrics", hub.metricsTick), opts.metricsIntervalMs ?? 1000));
+      // Metrics are spread over the frame ticks (channel i on tick i mod slices), so each channel's
+      // come about every metricsIntervalMs without one long pause of the event loop.
+      const frameMs = opts.frameIntervalMs ?? 33;
+      const slices = Math.max(1, Math.round((opts.metricsIntervalMs ?? 1000) / frameMs));
+      let tickCount = 0;
+      timers.push(
+        opts.clock.setInterval(() => {
+          guarded("frame", hub.tick);
+          guarded("metrics", () => hub.metricsTick(tickCount++ % slices, slices));
+        }, frameMs),
+      );
       timers.push(opts.clock.setInterval(() => guarded("status", hub.statusTick), opts.statusIntervalMs ?? 2000));
     },
     stop() {

@@ -1,0 +1,278 @@
+/**
+ * Live pipeline bench: device publish → embedded broker → ingest → filters → WebSocket frame.
+ * Run: `node --import tsx tests/bench/pipeline.bench.ts` (or `npx tsx ...`) with DATABASE_URL or
+ * TEST_DATABASE_URL pointing at a PostgreSQL cluster; it creates and drops its own database.
+ *
+ * The sidecar runs in this process (its CPU share comes from process.cpuUsage); devices and the
+ * browser-like WebSocket client run in a child process so they are not counted. Latency is from
+ * the publish of a message to the arrival of the frame that carries it, frame interval included.
+ * Loopback only; the channel-count search is bounded and stops by itself. Last line: JSON.
+ */
+import { fork } from "node:child_process";
+import { monitorEventLoopDelay } from "node:perf_hooks";
+import { fileURLToPath } from "node:url";
+import { sealData } from "iron-session";
+import mqtt from "mqtt";
+import pg from "pg";
+import WebSocket from "ws";
+import { createDb } from "@/db/client";
+import { hashPassword } from "@/lib/auth/password";
+import { SESSION_COOKIE } from "@/lib/auth/session-config";
+import { encodeBinarySamples, samplesTopic, type ServerMessage } from "@/lib/protocol";
+import { migrateToLatest } from "@/migrations/migrator";
+import { startSidecar } from "@/server/sidecar";
+import { systemClock } from "@/server/clock";
+
+const FS = 2000;
+const BATCH = 40; // 20 ms of samples per message
+const CHANNELS_PER_DEVICE = 8;
+const CANDIDATES_PER_CHANNEL = 4;
+const MAIN_CHANNELS = 64;
+const MAIN_SECONDS = 10;
+const STEP_SECONDS = 5;
+const MAX_CHANNELS = 512; // bound of the search
+const STEP = 64;
+/** A step is sustained when p99 latency stays under this and no frame was dropped or lost. */
+const P99_LIMIT_MS = 250;
+const SECRET = "pipeline-bench-secret-0123456789abcdef0123456789";
+
+const CANDIDATES = [
+  { kind: "iir", family: "butterworth", response: "lowpass", order: 4, cutoffHz: 100, sampleRateHz: FS },
+  { kind: "biquad", shape: "notch", centerHz: 50, q: 5, sampleRateHz: FS },
+  { kind: "fir", response: "lowpass", window: "hamming", taps: 31, cutoffHz: 200, sampleRateHz: FS },
+  { kind: "moving-average", length: 8, sampleRateHz: FS },
+];
+
+interface LoadJob {
+  mqttUrl: string;
+  httpPort: number;
+  cookie: string;
+  paths: string[];
+  seconds: number;
+}
+
+interface LoadResult {
+  published: number;
+  publishedSamples: number;
+  receivedSamples: number;
+  latenciesMs: number[];
+  droppedFrames: number;
+  /** CPU share of the load process (devices + WebSocket client) over the measured window. */
+  loadCpuShare: number;
+}
+
+function quantile(sorted: number[], q: number): number {
+  if (!sorted.length) return Number.NaN;
+  return sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))];
+}
+
+/** Child process: devices publishing binary batches and one engineer's WebSocket with candidates on every channel. */
+async function runLoad(job: LoadJob): Promise<LoadResult> {
+  const ws = new WebSocket(`ws://127.0.0.1:${job.httpPort}/ws`, { headers: { cookie: job.cookie } });
+  const sentAt = new Map<string, number>();
+  const latencies: number[] = [];
+  let receivedSamples = 0;
+  let droppedFrames = 0;
+  /** Sequence numbers published inside the measured window. */
+  const window = { first: Infinity, last: Infinity };
+  let barrier: (() => void) | undefined;
+  ws.on("message", (data) => {
+    const m = JSON.parse(data.toString()) as ServerMessage;
+    if (m.type === "frame") {
+      const t = sentAt.get(`${m.channel}#${m.seq}`);
+      if (m.seq >= window.first && m.seq <= window.last && t !== undefined) {
+        latencies.push(performance.now() - t);
+        receivedSamples += m.samples;
+      }
+    } else if (m.type === "status") {
+      droppedFrames = Math.max(droppedFrames, m.droppedFrames);
+    } else if (m.type === "error" && m.code === "unknown_channel") {
+      barrier?.();
+    }
+  });
+  await new Promise<void>((resolve, reject) => {
+    ws.once("open", () => resolve());
+    ws.once("error", reject);
+  });
+  for (const channel of job.paths) {
+    ws.send(JSON.stringify({ type: "subscribe", channel }));
+    CANDIDATES.forEach((spec, i) => ws.send(JSON.stringify({ type: "candidate.add", channel, id: `k${i}`, spec })));
+  }
+  await new Promise<void>((resolve) => {
+    barrier = resolve;
+    ws.send(JSON.stringify({ type: "subscribe", channel: "no/such/channel" }));
+  });
+
+  const devices = new Map<string, string[]>();
+  for (const p of job.paths) {
+    const device = p.split("/").slice(0, 2).join("/");
+    devices.set(device, [...(devices.get(device) ?? []), p]);
+  }
+  const clients = await Promise.all([...devices.keys()].map(() => mqtt.connectAsync(job.mqttUrl, { reconnectPeriod: 0 })));
+  const values = Float64Array.from({ length: BATCH }, (_, i) => Math.sin((2 * Math.PI * 50 * i) / FS) + 0.1 * Math.cos(i));
+  let seq = 0;
+  let published = 0;
+  let publishedSamples = 0;
+  const groups = [...devices.values()];
+  const started = performance.now();
+  // Publishes by elapsed time (one batch per 20 ms per channel), so timer drift does not lower the rate.
+  const timer = setInterval(() => {
+    const due = Math.floor((performance.now() - started) / 20);
+    for (; seq < due; seq++) {
+      const measured = seq >= window.first && seq <= window.last;
+      clients.forEach((client, d) => {
+        for (const path of groups[d]) {
+          const payload = Buffer.from(encodeBinarySamples({ seq, t0: seq * 20, sampleRateHz: FS, values }));
+          sentAt.set(`${path}#${seq}`, performance.now());
+          client.publish(samplesTopic(path), payload);
+          if (measured) {
+            published++;
+            publishedSamples += BATCH;
+          }
+        }
+      });
+    }
+  }, 5);
+  await new Promise((r) => setTimeout(r, 1000)); // warm-up
+  window.first = seq;
+  process.send?.({ type: "measuring" });
+  const cpu = process.cpuUsage();
+  await new Promise((r) => setTimeout(r, job.seconds * 1000));
+  const used = process.cpuUsage(cpu);
+  const loadCpuShare = (used.user + used.system) / 1000 / (job.seconds * 1000);
+  window.last = seq - 1;
+  process.send?.({ type: "stopped" });
+  await new Promise((r) => setTimeout(r, 1000)); // let the last frames arrive
+  clearInterval(timer);
+  ws.close();
+  await Promise.all(clients.map((c) => c.endAsync()));
+  return { published, publishedSamples, receivedSamples, latenciesMs: latencies, droppedFrames, loadCpuShare };
+}
+
+async function step(job: LoadJob) {
+  const child = fork(fileURLToPath(import.meta.url), ["--load"], { execArgv: ["--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
+  let cpuStart = process.cpuUsage();
+  let wallStart = performance.now();
+  let cpuShare = Number.NaN;
+  const loopDelay = monitorEventLoopDelay({ resolution: 5 });
+  const result = await new Promise<LoadResult>((resolve, reject) => {
+    child.on("message", (m: { type: string; result?: LoadResult }) => {
+      if (m.type === "measuring") {
+        cpuStart = process.cpuUsage();
+        wallStart = performance.now();
+        loopDelay.enable();
+      } else if (m.type === "stopped") {
+        const used = process.cpuUsage(cpuStart);
+        cpuShare = (used.user + used.system) / 1000 / (performance.now() - wallStart);
+        loopDelay.disable();
+      } else if (m.type === "result" && m.result) {
+        resolve(m.result);
+      }
+    });
+    child.on("error", reject);
+    child.on("exit", (code) => code !== 0 && reject(new Error(`load process exited with ${code}`)));
+    child.send(job);
+  });
+  const sorted = [...result.latenciesMs].sort((a, b) => a - b);
+  const coverage = result.publishedSamples ? result.receivedSamples / result.publishedSamples : 0;
+  const p99 = quantile(sorted, 0.99);
+  return {
+    channels: job.paths.length,
+    messagesPerSecond: Math.round(result.published / job.seconds),
+    p50Ms: Number(quantile(sorted, 0.5).toFixed(2)),
+    p99Ms: Number(p99.toFixed(2)),
+    sidecarCpuShare: Number(cpuShare.toFixed(3)),
+    sidecarLoopDelayP99Ms: Number((loopDelay.percentile(99) / 1e6).toFixed(1)),
+    loadCpuShare: Number(result.loadCpuShare.toFixed(3)),
+    droppedFrames: result.droppedFrames,
+    sampleCoverage: Number(coverage.toFixed(4)),
+    sustained: p99 < P99_LIMIT_MS && result.droppedFrames === 0 && coverage > 0.99,
+  };
+}
+
+async function main(): Promise<void> {
+  const base = process.env.TEST_DATABASE_URL ?? process.env.DATABASE_URL;
+  if (!base) throw new Error("set DATABASE_URL or TEST_DATABASE_URL to a PostgreSQL cluster");
+  const name = `tw_pipeline_bench_${process.pid}`;
+  const admin = new pg.Client({ connectionString: base });
+  await admin.connect();
+  await admin.query(`create database "${name}"`);
+  const url = new URL(base);
+  url.pathname = `/${name}`;
+  const db = createDb(url.toString(), 4);
+  try {
+    await migrateToLatest(db);
+    const rig = await db.insertInto("rigs").values({ key: "bench", name: "Bench rig" }).returning("id").executeTakeFirstOrThrow();
+    const paths: string[] = [];
+    for (let d = 0; d < MAX_CHANNELS / CHANNELS_PER_DEVICE; d++) {
+      const key = `node-${String(d).padStart(3, "0")}`;
+      const dev = await db.insertInto("devices").values({ rig_id: rig.id, key, name: key }).returning("id").executeTakeFirstOrThrow();
+      const rows = Array.from({ length: CHANNELS_PER_DEVICE }, (_, c) => ({
+        device_id: dev.id, key: `ch-${c}`, name: `ch ${c}`, unit: "V", sample_rate_hz: FS, range_min: -10, range_max: 10,
+      }));
+      await db.insertInto("channels").values(rows).execute();
+      paths.push(...rows.map((r) => `bench/${key}/${r.key}`));
+    }
+    const user = await db.insertInto("users")
+      .values({ email: "bench@tapwright.test", display_name: "Bench Engineer", password_hash: await hashPassword("bench-password"), role: "engineer" })
+      .returning(["id", "session_version"]).executeTakeFirstOrThrow();
+    const cookie = `${SESSION_COOKIE}=${await sealData({ userId: user.id, sessionVersion: user.session_version }, { password: SECRET, ttl: 3600 })}`;
+    const quiet = { info: () => undefined, warn: (m: string) => console.error(m) };
+    const sidecar = await startSidecar({
+      db, clock: systemClock, logger: quiet, sessionSecret: SECRET, sessionTtlSeconds: 3600,
+      http: { host: "127.0.0.1", port: 0 },
+      mqtt: { mode: "embedded", host: "127.0.0.1", port: 0, requireDeviceAuth: false },
+      republishFiltered: false,
+    });
+    try {
+      const job = (n: number, seconds: number): LoadJob => ({ mqttUrl: sidecar.mqttUrl, httpPort: sidecar.httpPort, cookie, paths: paths.slice(0, n), seconds });
+      const main = await step(job(MAIN_CHANNELS, MAIN_SECONDS));
+      console.log(`${MAIN_CHANNELS} channels × ${FS} Hz × ${CANDIDATES_PER_CHANNEL} candidates:`, main);
+      let largestSustained = main.sustained ? MAIN_CHANNELS : 0;
+      const search = [];
+      for (let n = MAIN_CHANNELS + STEP; main.sustained && n <= MAX_CHANNELS; n += STEP) {
+        const r = await step(job(n, STEP_SECONDS));
+        console.log(`${n} channels:`, r);
+        search.push(r);
+        if (!r.sustained) break;
+        largestSustained = n;
+      }
+      console.log(JSON.stringify({
+        bench: "pipeline",
+        sampleRateHz: FS,
+        candidatesPerChannel: CANDIDATES_PER_CHANNEL,
+        channels: MAIN_CHANNELS,
+        p50Ms: main.p50Ms,
+        p99Ms: main.p99Ms,
+        sidecarCpuShare: main.sidecarCpuShare,
+        sidecarLoopDelayP99Ms: main.sidecarLoopDelayP99Ms,
+        loadCpuShare: main.loadCpuShare,
+        droppedFrames: main.droppedFrames,
+        sampleCoverage: main.sampleCoverage,
+        largestSustainedChannels: largestSustained,
+        searchBound: MAX_CHANNELS,
+        search,
+      }));
+    } finally {
+      await sidecar.close();
+    }
+  } finally {
+    await db.destroy();
+    await admin.query(`drop database if exists "${name}" with (force)`);
+    await admin.end();
+  }
+}
+
+if (process.argv.includes("--load")) {
+  process.once("message", (job: LoadJob) => {
+    runLoad(job).then(
+      (result) => process.send?.({ type: "result", result }, () => process.exit(0)),
+      (err: unknown) => {
+        console.error(err);
+        process.exit(1);
+      },
+    );
+  });
+} else {
+  await main();
+}
