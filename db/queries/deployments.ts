@@ -297,3 +297,16 @@ export async function failDeployment(trx: Transaction<Database>, id: number, rea
   await notifyOutcome(trx, d, "failed", `Reason: ${reason}`);
   return d;
 }
+
+/** Per channel: the active revision's label and whether a deployment is pending (the promote form). */
+export async function channelDeploymentStates(db: Conn, channelIds: number[]): Promise<Map<number, { active: string | null; pending: boolean }>> {
+  const out = new Map(channelIds.map((id) => [id, { active: null as string | null, pending: false }]));
+  if (channelIds.length === 0) return out;
+  const rows = await deploymentQuery(db).where("p.channel_id", "in", channelIds).where("p.state", "in", ["active", "pending"]).execute();
+  for (const r of rows) {
+    const entry = out.get(r.channelId)!;
+    if (r.state === "pending") entry.pending = true;
+    else entry.active = `${r.setName} r${r.revision}`;
+  }
+  return out;
+}

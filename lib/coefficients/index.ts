@@ -1,4 +1,5 @@
 export * from "./analysis";
 export * from "./device-config";
+export * from "./diff";
 export * from "./revision-content";
 export * from "./sections";
