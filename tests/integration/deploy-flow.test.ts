@@ -15,11 +15,11 @@ import { systemClock, type Logger } from "@/server/clock";
 import { startDeploymentWorker, type DeploymentWorker } from "@/server/deploy/worker";
 import { createConfigExchange } from "@/server/devices/config-exchange";
 import { answerConfig } from "@/server/demo-rig/config-handler";
-import { actAs, butterSpec, jsonRequest, setUpLab, type Accounts } from "./sets-fixture";
+import { actAs, butterSpec, jsonRequest, params, pathParams, setUpLab, type Accounts } from "./sets-fixture";
 
 vi.mock("@/db", async () => (await import("./sets-fixture")).dbModule);
 vi.mock("@/app/_lib/auth", async () => (await import("./sets-fixture")).authModule);
-const productionRoute = await import("@/app/api/v1/channels/[...path]/production/route");
+const productionRoute = await import("@/app/api/v1/channels/[rig]/[device]/[channel]/production/route");
 const promoteRoute = await import("@/app/api/v1/revisions/[id]/promote/route");
 
 const TORQUE = "gearbox-endurance/torque-node/input-torque";
@@ -115,7 +115,7 @@ describe("promotion through the device's acknowledgement", () => {
     expect(call?.design?.sos?.length).toBe(1);
 
     actAs(users.operator);
-    const res = await productionRoute.GET(jsonRequest("GET", `/api/v1/channels/${TORQUE}/production`), { params: Promise.resolve({ path: TORQUE.split("/") }) });
+    const res = await productionRoute.GET(jsonRequest("GET", `/api/v1/channels/${TORQUE}/production`), params(pathParams(TORQUE)));
     expect(res.status).toBe(200);
     expect(await res.json()).toMatchObject({ revisionId: first, revision: 1, setName: "Torque LP 100", spec: butterSpec() });
 
@@ -184,9 +184,12 @@ describe("promotion through the device's acknowledgement", () => {
 
 function retainedConfig(rig: string, device: string): Promise<DeviceConfig | null> {
   return new Promise((resolve) => {
-    const stream = broker.persistence.createRetainedStream(`tapwright/v1/${rig}/${device}/config`);
+    // aedes keeps retained messages in its persistence; its types do not declare the field.
+    const { persistence } = broker as unknown as { persistence: { createRetainedStream(pattern: string): NodeJS.ReadableStream } };
+    const stream = persistence.createRetainedStream(`tapwright/v1/${rig}/${device}/config`);
     let found: DeviceConfig | null = null;
-    stream.on("data", (packet: { payload: Buffer }) => {
+    stream.on("data", (packet: { payload: Buffer } | string | Buffer) => {
+      if (typeof packet === "string" || Buffer.isBuffer(packet)) return;
       if (packet.payload.length) found = JSON.parse(packet.payload.toString("utf8")) as DeviceConfig;
     });
     stream.on("end", () => resolve(found));

@@ -1,13 +1,13 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { actAs, butterSpec, jsonRequest, params, setUpLab, type Accounts } from "./sets-fixture";
+import { actAs, butterSpec, jsonRequest, params, pathParams, setUpLab, type Accounts } from "./sets-fixture";
 
 vi.mock("@/db", async () => (await import("./sets-fixture")).dbModule);
 vi.mock("@/app/_lib/auth", async () => (await import("./sets-fixture")).authModule);
 
 const setsRoute = await import("@/app/api/v1/sets/route");
 const revisionsRoute = await import("@/app/api/v1/sets/[id]/revisions/route");
-const productionRoute = await import("@/app/api/v1/channels/[...path]/production/route");
+const productionRoute = await import("@/app/api/v1/channels/[rig]/[device]/[channel]/production/route");
 
 let lab: Awaited<ReturnType<typeof setUpLab>>;
 let users: Accounts;
@@ -100,7 +100,7 @@ describe("GET /api/v1/sets", () => {
 describe("GET /api/v1/channels/{path}/production", () => {
   it("answers 404 while nothing is active", async () => {
     actAs(users.operator);
-    const res = await productionRoute.GET(jsonRequest("GET", `/api/v1/channels/${CHANNEL}/production`), params({ path: CHANNEL.split("/") }));
+    const res = await productionRoute.GET(jsonRequest("GET", `/api/v1/channels/${CHANNEL}/production`), params(pathParams(CHANNEL)));
     expect(res.status).toBe(404);
   });
 });

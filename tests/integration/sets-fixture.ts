@@ -74,3 +74,9 @@ export function jsonRequest(method: string, url: string, body?: unknown): Reques
 }
 
 export const params = <T>(value: T) => ({ params: Promise.resolve(value) });
+
+/** Route params of the production route for a channel path. */
+export function pathParams(path: string): { rig: string; device: string; channel: string } {
+  const [rig, device, channel] = path.split("/");
+  return { rig, device, channel };
+}

@@ -5,9 +5,13 @@ import { findActiveDeployment } from "@/db/queries/deployments";
 import { AppError } from "@/lib/errors";
 import { handler } from "@/lib/http/handler";
 
-/** The channel's production filter: the revision its device acknowledged last. */
-export const GET = handler(async (_req, ctx: { params: Promise<{ path: string[] }> }) => {
-  const path = (await ctx.params).path.join("/");
+/**
+ * The channel's production filter: the revision its device acknowledged last. Three dynamic segments,
+ * not `[...path]`, because Next allows nothing after a catch-all segment.
+ */
+export const GET = handler(async (_req, ctx: { params: Promise<{ rig: string; device: string; channel: string }> }) => {
+  const { rig, device, channel: key } = await ctx.params;
+  const path = `${rig}/${device}/${key}`;
   await requireUser();
   const channel = await findChannelByPath(db(), path);
   if (!channel) throw new AppError("not_found", `No channel ${path}.`);
