@@ -3,7 +3,8 @@ import { createDb } from "@/db/client";
 import { sessionOptions } from "@/lib/auth/session-config";
 import { env } from "@/lib/env";
 import { consoleLogger, systemClock } from "./clock";
-import { startSidecar } from "./sidecar";
+import { startDeploymentWorker, type DeploymentWorker } from "./deploy/worker";
+import { startSidecar, type Sidecar } from "./sidecar";
 
 /** Composition root: reads the environment once and starts the sidecar; SIGTERM/SIGINT stop it cleanly. */
 const e = env();
@@ -11,7 +12,30 @@ const db = createDb(e.DATABASE_URL);
 const loopback = "127.0.0.1";
 const ttl = sessionOptions(e.SESSION_SECRET, e.COOKIE_SECURE === "1").ttl ?? 60 * 60 * 12;
 
-const sidecar = await startSidecar({
+let sidecar: Sidecar | undefined;
+let deployments: DeploymentWorker | undefined;
+let stopping = false;
+
+async function shutdown(signal: string): Promise<void> {
+  if (stopping) return;
+  stopping = true;
+  consoleLogger.info(`${signal}: shutting down`);
+  const force = setTimeout(() => process.exit(1), 5000);
+  force.unref();
+  try {
+    await deployments?.stop();
+    await sidecar?.close();
+    await db.destroy();
+    process.exit(0);
+  } catch (err) {
+    consoleLogger.warn(`shutdown failed: ${err instanceof Error ? err.message : String(err)}`);
+    process.exit(1);
+  }
+}
+process.on("SIGTERM", () => void shutdown("SIGTERM"));
+process.on("SIGINT", () => void shutdown("SIGINT"));
+
+sidecar = await startSidecar({
   db,
   clock: systemClock,
   logger: consoleLogger,
@@ -42,25 +66,17 @@ const sidecar = await startSidecar({
   demo: e.DEMO === "1" ? { seed: e.DEMO_SEED } : undefined,
 });
 
+// Promotion: pending deployments go to devices through the config exchange; acknowledged ones switch the production slot.
+deployments = await startDeploymentWorker({
+  db,
+  databaseUrl: e.DATABASE_URL,
+  exchange: sidecar.configs,
+  bus: sidecar.bus,
+  pipeline: sidecar.pipeline,
+  clock: systemClock,
+  logger: consoleLogger,
+});
+
 consoleLogger.info(
   `listening on http://${loopback}:${sidecar.httpPort} (health: /health, WebSocket: /ws); MQTT ${sidecar.mqttUrl}`,
 );
-
-let stopping = false;
-async function shutdown(signal: string): Promise<void> {
-  if (stopping) return;
-  stopping = true;
-  consoleLogger.info(`${signal}: shutting down`);
-  const force = setTimeout(() => process.exit(1), 5000);
-  force.unref();
-  try {
-    await sidecar.close();
-    await db.destroy();
-    process.exit(0);
-  } catch (err) {
-    consoleLogger.warn(`shutdown failed: ${err instanceof Error ? err.message : String(err)}`);
-    process.exit(1);
-  }
-}
-process.on("SIGTERM", () => void shutdown("SIGTERM"));
-process.on("SIGINT", () => void shutdown("SIGINT"));
