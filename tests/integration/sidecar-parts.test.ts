@@ -1,0 +1,66 @@
+import { describe, expect, it } from "vitest";
+import { findPeaks, welch } from "@/lib/dsp";
+import { backoffDelay } from "@/server/broker/mqtt-bus";
+import { topicMatches } from "@/server/broker/bus";
+import { systemClock, type Clock } from "@/server/clock";
+import { createSignalSource } from "@/server/demo-rig/signals";
+import { RECIPES } from "@/server/demo-rig/recipes";
+import { mulberry32 } from "@/server/demo-rig/prng";
+import { createFaultLog } from "@/server/ingest/fault-log";
+
+/** The process clock with a time that only moves when the test says so. */
+function manualClock(start = 0): Clock & { advance(ms: number): void } {
+  let now = start;
+  return { ...systemClock, now: () => now, advance: (ms) => void (now += ms) };
+}
+
+describe("sidecar parts", () => {
+  it("backoff grows exponentially to its cap, scaled by the jitter draw", () => {
+    expect([0, 1, 2, 3, 10].map((a) => backoffDelay(a, 250, 10_000, () => 0.999999))).toEqual([250, 500, 1000, 2000, 10_000]);
+    expect(backoffDelay(5, 250, 10_000, () => 0)).toBe(0);
+    expect(backoffDelay(2, 250, 10_000, () => 0.5)).toBe(500);
+  });
+
+  it("logs each fault kind at most once per interval and still counts every one", () => {
+    const clock = manualClock();
+    const lines: string[] = [];
+    const faults = createFaultLog({ clock, logger: { info: () => undefined, warn: (m) => lines.push(m) }, logEveryMs: 60_000 });
+    for (let i = 0; i < 500; i++) faults.record("a/b/c", "bad_json");
+    faults.record("a/b/c", "seq_gap");
+    expect(lines).toHaveLength(2);
+    clock.advance(60_000);
+    faults.record("x/y/z", "bad_json");
+    expect(lines).toHaveLength(3);
+    expect(lines[2]).toMatch(/499 more/);
+    expect(faults.totals()).toEqual({ bad_json: 501, seq_gap: 1 });
+    expect(faults.byChannel()["a/b/c"]).toEqual({ bad_json: 500, seq_gap: 1 });
+  });
+
+  it("matches MQTT wildcards and strips a shared-subscription prefix", () => {
+    expect(topicMatches("tapwright/v1/+/+/+/samples", "tapwright/v1/a/b/c/samples")).toBe(true);
+    expect(topicMatches("$share/g/tapwright/v1/+/+/+/samples", "tapwright/v1/a/b/c/samples")).toBe(true);
+    expect(topicMatches("tapwright/v1/+/+/+/samples", "tapwright/v1/a/b/samples")).toBe(false);
+    expect(topicMatches("tapwright/#", "tapwright/v1/a")).toBe(true);
+  });
+
+  it("mulberry32 is deterministic and the demo streams repeat from the same seed", () => {
+    const a = mulberry32(1);
+    const b = mulberry32(1);
+    expect(Array.from({ length: 5 }, a)).toEqual(Array.from({ length: 5 }, b));
+    const recipe = RECIPES["hydraulic-press/env-node/frame-strain"];
+    const s1 = createSignalSource(recipe, 1000, 99);
+    const s2 = createSignalSource(recipe, 1000, 99);
+    expect(Array.from(s1.next(500))).toEqual(Array.from(s2.next(500)));
+    expect(Array.from(createSignalSource(recipe, 1000, 100).next(10))).not.toEqual(Array.from(s1.next(10)));
+  });
+
+  it("the demo strain channel carries its 50 Hz hum and the housing its resonance near 1.2 kHz", () => {
+    const strain = createSignalSource(RECIPES["hydraulic-press/env-node/frame-strain"], 1000, 5).next(4000);
+    const s = welch(strain, 1000, { segmentLength: 1000 });
+    expect(findPeaks(s.freqsHz, s.psd, { count: 1 })[0].freqHz).toBeCloseTo(50, 0);
+    const accel = createSignalSource(RECIPES["gearbox-endurance/vibe-node/housing-accel"], 5000, 5).next(20_000);
+    const a = welch(accel, 5000, { segmentLength: 1000 });
+    const band = (lo: number, hi: number) => a.psd.filter((_, k) => a.freqsHz[k] >= lo && a.freqsHz[k] <= hi).reduce((x, y) => x + y, 0);
+    expect(band(1100, 1300)).toBeGreaterThan(5 * band(1900, 2100));
+  });
+});
