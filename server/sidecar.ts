@@ -126,6 +126,12 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
       status: bus.state === "connected" ? ("ok" as const) : ("degraded" as const),
       mqtt: bus.state,
       channels: channels.length,
+      production: Object.fromEntries(
+        channels.flatMap((c) => {
+          const revision = pipeline.productionRevision(c.path);
+          return revision === null ? [] : [[c.path, revision]];
+        }),
+      ),
       clients: hub.clientCount,
       accepted: { ...ingest.accepted },
       faults: faults.totals(),

@@ -41,6 +41,7 @@ export class CandidateLimitError extends Error {}
 export interface Pipeline extends BatchSink {
   /** Sets or clears (design null) the channel's production filter; its state starts at rest. */
   setProductionFilter(path: string, revisionId: string, design: FilterDesign | null): void;
+  /** The revision in the production slot, or null. */
   productionRevision(path: string): string | null;
   /** Adds a candidate for `owner`; throws CandidateLimitError past MAX_CANDIDATES_PER_CLIENT or for a taken id. */
   addCandidate(path: string, owner: string, id: string, design: FilterDesign): void;
@@ -51,8 +52,6 @@ export interface Pipeline extends BatchSink {
   drain(path: string): PendingBlock[];
   /** Live metrics of an owner's candidates on a channel (null fields until a candidate has settled). */
   metrics(path: string, owner: string): Record<string, CandidateMetrics>;
-  /** The last `seconds` of raw samples (at most the history kept). */
-  history(path: string, seconds: number): Float64Array;
   channel(path: string): ChannelInfo | undefined;
   paths(): string[];
 }
@@ -207,10 +206,6 @@ export function createPipeline(deps: {
         }
       }
       return result;
-    },
-    history: (path, seconds) => {
-      const ch = channelOf(path);
-      return ch.raw.latest(Math.round(seconds * ch.info.sampleRateHz));
     },
     channel: (path) => live.get(path)?.info,
     paths: () => [...live.keys()],

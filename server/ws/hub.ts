@@ -1,6 +1,7 @@
 import { designFilter } from "@/lib/dsp";
 import type { SessionUser } from "@/lib/auth/guard";
 import { requireRole } from "@/lib/auth/guard";
+import type { Role } from "@/lib/auth/roles";
 import { AppError } from "@/lib/errors";
 import { clientMessageSchema, type ClientMessage, type ServerMessage, type WsErrorCode } from "@/lib/protocol";
 import type { BusState } from "../broker/bus";
@@ -60,6 +61,15 @@ export interface Hub {
   readonly clientCount: number;
 }
 
+/** Least role per client message: watching is for everyone signed in, trying filters for engineers. */
+const REQUIRED_ROLE: Record<ClientMessage["type"], Role> = {
+  subscribe: "operator",
+  unsubscribe: "operator",
+  window: "operator",
+  "candidate.add": "engineer",
+  "candidate.remove": "engineer",
+};
+
 class Refusal extends Error {
   constructor(readonly code: WsErrorCode, message: string) {
     super(message);
@@ -107,13 +117,14 @@ export function createHub(opts: HubOptions): Hub {
     for (const key of views.keys()) if (key.startsWith(`${path}|${state.conn.id}|`)) views.delete(key);
   }
 
+  /** Entry order for every message: (parsed) → role → channel → act. */
   function handle(state: ClientState, msg: ClientMessage): void {
     const { pipeline } = opts;
+    requireRole(state.conn.user, REQUIRED_ROLE[msg.type]);
     const info = pipeline.channel(msg.channel);
     if (!info) throw new Refusal("unknown_channel", `No channel ${msg.channel}.`);
     switch (msg.type) {
       case "subscribe":
-        requireRole(state.conn.user, "operator");
         state.subs.set(msg.channel, state.subs.get(msg.channel) ?? { window: null });
         return;
       case "unsubscribe":
@@ -126,7 +137,6 @@ export function createHub(opts: HubOptions): Hub {
         return;
       }
       case "candidate.add": {
-        requireRole(state.conn.user, "engineer");
         if (msg.spec.sampleRateHz !== info.sampleRateHz) {
           throw new Refusal("bad_spec", `The spec's sample rate must be the channel's ${info.sampleRateHz} Hz.`);
         }
@@ -150,7 +160,6 @@ export function createHub(opts: HubOptions): Hub {
         return;
       }
       case "candidate.remove": {
-        requireRole(state.conn.user, "engineer");
         if (!pipeline.removeCandidate(msg.channel, state.conn.id, msg.id)) {
           throw new Refusal("unknown_candidate", `No candidate ${msg.id} on ${msg.channel}.`);
         }
