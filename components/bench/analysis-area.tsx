@@ -62,7 +62,7 @@ export function AnalysisArea({ items, sampleRateHz, deviceFormat, spectrum }: { 
       </div>
       <div className={`grid gap-4 p-4 ${shown.length > 1 ? "xl:grid-cols-2" : ""}`}>
         {shown.map((v) => (
-          <div key={v} role="tabpanel" aria-label={v}>
+          <div key={v} role="tabpanel" aria-label={v} className="min-w-0">
             {shown.length > 1 && <h3 className="mb-2 text-sm font-medium">{v}</h3>}
             {body(v)}
           </div>

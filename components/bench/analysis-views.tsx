@@ -19,6 +19,9 @@ export interface AnalysisItem {
   design: FilterDesign;
 }
 
+/** Lowest magnitude the Bode and fixed-point plots range down to, in dB (product choice). */
+const MAGNITUDE_FLOOR_DB = -120;
+
 /** Points on the log frequency grid of the analysis plots. */
 const GRID_POINTS = 600;
 
@@ -40,7 +43,7 @@ function useCurves(items: AnalysisItem[], freqs: number[]): (ResponseCurves | nu
 
 const hzAxis = { kind: "log" as const, label: "Frequency (Hz)", unit: "Hz" };
 
-function Chart({ title, testId, series, data, yLabel, kind = "log", height = 220, axes }: {
+function Chart({ title, testId, series, data, yLabel, kind = "log", height = 220, axes, floor }: {
   title: string;
   testId: string;
   series: ChartSeries[];
@@ -49,6 +52,7 @@ function Chart({ title, testId, series, data, yLabel, kind = "log", height = 220
   kind?: "log" | "linear";
   height?: number;
   axes?: { scale: string; label: string; side?: "left" | "right"; format?: (v: number) => string }[];
+  floor?: number;
 }) {
   const source = useMemo(() => staticSource(data), [data]);
   return (
@@ -61,7 +65,7 @@ function Chart({ title, testId, series, data, yLabel, kind = "log", height = 220
           series={series}
           source={source}
           x={kind === "log" ? hzAxis : { kind: "linear", label: "Time (ms)", unit: "ms" }}
-          axes={axes ?? [{ scale: "y", label: yLabel }]}
+          axes={axes ?? [{ scale: "y", label: yLabel, floor }]}
           height={height}
         />
       </div>
@@ -97,7 +101,7 @@ export function ResponseView({ items, freqs }: { items: AnalysisItem[]; freqs: n
   if (items.length === 0) return <Empty />;
   return (
     <div className="space-y-3">
-      <Chart title="Magnitude (dB)" testId="bode-magnitude" series={series.map((s) => ({ ...s, unit: "dB" }))} data={mag} yLabel="dB" />
+      <Chart title="Magnitude (dB)" testId="bode-magnitude" series={series.map((s) => ({ ...s, unit: "dB" }))} data={mag} yLabel="dB" floor={MAGNITUDE_FLOOR_DB} />
       <Chart title="Phase (°)" testId="bode-phase" series={series.map((s) => ({ ...s, unit: "°" }))} data={phase} yLabel="degrees" height={180} />
       <p className="text-xs text-slate-500">Dashed: the analog prototype (no prewarping) — where it departs from the solid line, the bilinear map has warped the frequency axis.</p>
     </div>
@@ -231,7 +235,7 @@ export function FixedView({ items, freqs, deviceFormat }: { items: AnalysisItem[
           ))}
         </select>
       </label>
-      <Chart title={`${item.name}: magnitude quantized vs float64 (dB)`} testId="fixed-point" series={series} data={[freqs, ...cols] as uPlot.AlignedData} yLabel="dB" />
+      <Chart title={`${item.name}: magnitude quantized vs float64 (dB)`} testId="fixed-point" series={series} data={[freqs, ...cols] as uPlot.AlignedData} yLabel="dB" floor={MAGNITUDE_FLOOR_DB} />
       <table className="num w-full text-xs">
         <thead className="text-left text-slate-500">
           <tr>

@@ -180,7 +180,7 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
         unit={channel.unit}
         title="Live spectrum"
         onSeed={canEdit ? seed : undefined}
-        onPeaks={(p) => setNoiseLineHz(p[0] ?? null)}
+        onPeaks={(p) => p.length > 0 && setNoiseLineHz(p[0])}
       />
       <CandidateCards
         cards={candidates.map((c) => ({ candidate: c, designError: designs.get(c.id)?.error ?? null, cautionCount: cautions.get(c.id)?.length ?? 0, metrics: live.metrics[c.id] }))}

@@ -51,7 +51,7 @@ export function EditorPanel({
       <div className="flex-1 space-y-4 overflow-y-auto px-4 py-4">
         <div>
           <label htmlFor="spec-kind" className="label">
-            Design
+            Kind of filter
           </label>
           <select
             id="spec-kind"

@@ -112,7 +112,7 @@ export function useLiveChannel(opts: Options): LiveChannel {
         if (parsed.success) handle(parsed.data);
       };
       ws.onclose = () => {
-        socketRef.current = null;
+        if (socketRef.current === ws) socketRef.current = null;
         if (closed) return;
         const delay = reconnectDelayMs(attempt++, Math.random());
         setStatus((s) => ({ ...s, link: "reconnecting", retryAt: Date.now() + delay }));
@@ -123,8 +123,9 @@ export function useLiveChannel(opts: Options): LiveChannel {
     return () => {
       closed = true;
       if (timer) clearTimeout(timer);
-      socketRef.current?.close();
+      const ws = socketRef.current;
       socketRef.current = null;
+      ws?.close();
     };
   }, [opts.path, opts.port, opts.wsPath, store]);
 

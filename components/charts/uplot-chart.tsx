@@ -25,6 +25,8 @@ export interface ChartAxis {
   side?: "left" | "right";
   /** Tick labels from values (e.g. samples shown as ms on a second axis). */
   format?: (v: number) => string;
+  /** The auto range never reaches below this (e.g. −120 dB, so deep notches do not flatten a Bode plot). */
+  floor?: number;
 }
 
 /** A labelled vertical marker (e.g. a spectral peak) drawn over the plot. */
@@ -103,20 +105,26 @@ export function UPlotChart(props: UPlotChartProps) {
     const xRange = (_u: uPlot, min: number | null, max: number | null): uPlot.Range.MinMax => {
       const live = propsRef.current.source.xRange?.() ?? null;
       if (live && !zoomedRef.current) return live;
+      if (p.x.kind === "log") {
+        // A log axis needs a positive range: an empty plot shows one to a thousand.
+        if (min == null || max == null || !(min > 0) || !(max > min)) return [1, 1000];
+        return uPlot.rangeLog(min, max, 10, true);
+      }
       if (min == null || max == null) return [0, 1];
-      if (p.x.kind === "log") return uPlot.rangeLog(min, max, 10, true);
       return min === max ? [min - 1, max + 1] : [min, max];
     };
-    const yRange = (_u: uPlot, min: number | null, max: number | null): uPlot.Range.MinMax => {
-      const manual = propsRef.current.yRange;
-      if (manual) return manual;
+    const autoRange = (floor: number | undefined) => (_u: uPlot, min: number | null, max: number | null): uPlot.Range.MinMax => {
       if (min == null || max == null) return [-1, 1];
-      return uPlot.rangeNum(min, max, 0.08, true);
+      const lo = floor === undefined ? min : Math.min(Math.max(min, floor), max);
+      return uPlot.rangeNum(lo, max, 0.08, true);
     };
     const scales: uPlot.Scales = {
       x: p.x.kind === "log" ? { time: false, distr: 3, log: 10, range: xRange } : { time: p.x.kind === "time", range: xRange },
     };
-    for (const a of p.axes) scales[a.scale] = { range: a.scale === "y" ? yRange : (_u, min, max) => (min == null || max == null ? [-1, 1] : uPlot.rangeNum(min, max, 0.08, true)) };
+    for (const a of p.axes) {
+      const auto = autoRange(a.floor);
+      scales[a.scale] ??= { range: a.scale === "y" ? (u, min, max) => propsRef.current.yRange ?? auto(u, min, max) : auto };
+    }
     const axis = (a: Partial<uPlot.Axis>): uPlot.Axis => ({ stroke: AXIS_STROKE, grid: GRID, ticks: TICKS, font: "11px var(--font-mono), monospace", labelFont: "11px var(--font-inter), sans-serif", ...a });
 
     const panPlugin: uPlot.Plugin = {
@@ -285,5 +293,5 @@ export function UPlotChart(props: UPlotChartProps) {
     scheduleRef.current();
   }, [yKey, props.paused, props.height]);
 
-  return <div ref={hostRef} role="img" aria-label={props.label} data-testid={props.testId} className="tw-chart w-full" />;
+  return <div ref={hostRef} role="img" aria-label={props.label} data-testid={props.testId} className="tw-chart w-full min-w-0 overflow-hidden" />;
 }

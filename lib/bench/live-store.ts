@@ -74,13 +74,20 @@ export class LiveStore {
     return this.latestValues;
   }
 
-  /** The last `seconds` of one slot's samples as a contiguous run of finite values (for spectra). */
+  /**
+   * The finite samples of one slot over the last `seconds` s, gaps left out (for spectra: a lost message
+   * of a few samples costs a small phase jump, far less than shortening the estimate to the last gap).
+   */
   recent(slot: number, seconds: number): Float64Array {
     const end = this.ring.length;
     const from = this.ring.lowerBound(this.ring.lastX() - seconds);
-    let start = end;
-    while (start > from && Number.isFinite(this.ring.y(slot, start - 1))) start--;
-    return this.ring.copySeries(slot, start, end);
+    const out = new Float64Array(end - from);
+    let n = 0;
+    for (let i = from; i < end; i++) {
+      const v = this.ring.y(slot, i);
+      if (Number.isFinite(v)) out[n++] = v;
+    }
+    return out.slice(0, n);
   }
 
   subscribe(listener: () => void): () => void {

@@ -68,11 +68,12 @@ describe("LiveStore", () => {
     expect(column(store.ring, RAW_SLOT)).toEqual([9]);
   });
 
-  it("gives the recent run of finite samples of a slot", () => {
+  it("gives the recent finite samples of a slot, gaps left out", () => {
     const store = new LiveStore(1000, 1);
     store.push(frame(0, [1, 2]));
     store.push(frame(10, [3, 4, 5]));
-    expect(Array.from(store.recent(RAW_SLOT, 1))).toEqual([3, 4, 5]);
+    expect(Array.from(store.recent(RAW_SLOT, 1))).toEqual([1, 2, 3, 4, 5]);
+    expect(Array.from(store.recent(RAW_SLOT, 0.0015))).toEqual([4, 5]);
   });
 
   it("tells listeners of frames and of a candidate's removal", () => {
