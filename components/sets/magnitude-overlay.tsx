@@ -36,7 +36,7 @@ export function MagnitudeOverlay({ freqsHz, series, title }: Props) {
   const dbTicks = Array.from({ length: Math.floor((top - bottom) / 20) + 1 }, (_, i) => top - i * 20);
   return (
     <figure className="space-y-1">
-      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-label={title} className="w-full rounded-md bg-canvas" data-testid="magnitude-overlay">
+      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-label={title} className="w-full max-w-3xl rounded-md bg-canvas" data-testid="magnitude-overlay">
         {decades.map((f) => (
           <g key={f}>
             <line x1={px(f)} x2={px(f)} y1={PAD.top} y2={H - PAD.bottom} stroke="#334155" strokeWidth={0.5} />
