@@ -50,8 +50,3 @@ export async function upsertDeviceCredential(
     )
     .execute();
 }
-
-export async function deleteDeviceCredential(db: Conn, username: string): Promise<boolean> {
-  const result = await db.deleteFrom("device_credentials").where("username", "=", username).executeTakeFirst();
-  return result.numDeletedRows > 0n;
-}
