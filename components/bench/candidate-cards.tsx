@@ -43,6 +43,7 @@ export function CandidateCards({
           <li
             key={c.id}
             data-testid={`candidate-${c.colorIndex}`}
+            data-trace={c.id}
             className={`card flex flex-col gap-2 p-3 ${editingId === c.id ? "ring-2 ring-brand-500" : ""}`}
           >
             <div className="flex items-center gap-2">
