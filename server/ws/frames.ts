@@ -18,7 +18,10 @@ function pick(view: ViewState, block: PendingBlock, from: number, to: number, bu
   const traces: Record<string, number[]> = {};
   for (const [key, id] of view.traceIds) {
     const trace = block.traces.get(key);
-    if (trace) traces[id] = reduce(trace);
+    if (!trace) continue;
+    // JSON has no NaN or ±∞: a trace that diverged (an unstable candidate) is left out of the frame.
+    const points = reduce(trace);
+    if (points.every(Number.isFinite)) traces[id] = points;
   }
   const frame: FrameMessage = {
     type: "frame",

@@ -7,6 +7,7 @@ import { createSignalSource } from "@/server/demo-rig/signals";
 import { RECIPES } from "@/server/demo-rig/recipes";
 import { mulberry32 } from "@/server/demo-rig/prng";
 import { createFaultLog } from "@/server/ingest/fault-log";
+import { buildFrames } from "@/server/ws/frames";
 
 /** The process clock with a time that only moves when the test says so. */
 function manualClock(start = 0): Clock & { advance(ms: number): void } {
@@ -41,6 +42,14 @@ describe("sidecar parts", () => {
     expect(topicMatches("$share/g/tapwright/v1/+/+/+/samples", "tapwright/v1/a/b/c/samples")).toBe(true);
     expect(topicMatches("tapwright/v1/+/+/+/samples", "tapwright/v1/a/b/samples")).toBe(false);
     expect(topicMatches("tapwright/#", "tapwright/v1/a")).toBe(true);
+  });
+
+  it("frames leave out a trace that is not finite", () => {
+    const view = { path: "a/b/c", sampleRateHz: 100, traceIds: new Map([["production", "production"], ["o/x", "x"]]), bucket: 1, carry: null };
+    const block = { seq: 4, lastSeq: 5, t0: 10, raw: [1, 2], traces: new Map([["production", [1, 2]], ["o/x", [1, Number.NaN]]]) };
+    const [frame] = buildFrames(view, [block]);
+    expect(frame.traces).toEqual({ production: [1, 2] });
+    expect(frame).toMatchObject({ seq: 5, t0: 10, samples: 2, decimated: false });
   });
 
   it("mulberry32 is deterministic and the demo streams repeat from the same seed", () => {
