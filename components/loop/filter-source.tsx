@@ -1,0 +1,186 @@
+"use client";
+
+import { useQuery } from "@tanstack/react-query";
+import { useEffect, useMemo, useState } from "react";
+import { fetchProduction, fetchSets } from "@/components/bench/api";
+import { SpecForm } from "@/components/bench/spec-form";
+import { Notice } from "@/components/ui/notice";
+import { Segmented } from "@/components/ui/segmented";
+import { defaultSpec, KIND_LABELS, SPEC_KINDS, type SpecKind } from "@/lib/bench/spec-defaults";
+import { designFilter, filterSpecSchema, type FilterDesign, type FilterSpec } from "@/lib/dsp";
+import { startingSpec } from "./defaults";
+
+/** The sensor filter the loop is checked with, or why there is none yet. */
+export type PickedFilter = { design: FilterDesign; label: string } | { design: null; reason: string };
+
+type Source = "production" | "set" | "typed";
+
+interface RevisionDetail {
+  revision: number;
+  spec: FilterSpec;
+  design: FilterDesign;
+}
+
+async function fetchLatestRevision(setId: string): Promise<RevisionDetail | null> {
+  const res = await fetch(`/api/v1/sets/${encodeURIComponent(setId)}`, { credentials: "same-origin" });
+  if (!res.ok) throw new Error(res.status === 404 ? "That set no longer exists." : `The set could not be loaded (HTTP ${res.status}).`);
+  const body = (await res.json()) as { revisions: RevisionDetail[] };
+  return body.revisions[0] ?? null;
+}
+
+function describeSpec(spec: FilterSpec): string {
+  if (spec.kind === "iir") return `${spec.family} ${spec.response} · order ${spec.order} · ${Array.isArray(spec.cutoffHz) ? spec.cutoffHz.join("–") : spec.cutoffHz} Hz`;
+  return KIND_LABELS[spec.kind as SpecKind] ?? spec.kind;
+}
+
+function design(spec: FilterSpec): { design: FilterDesign } | { error: string } {
+  try {
+    return { design: designFilter(spec) };
+  } catch (err) {
+    return { error: err instanceof Error ? err.message : "the design failed" };
+  }
+}
+
+/** A spec pasted as JSON, checked by lib/dsp's filterSpecSchema. */
+function JsonSpec({ sampleRateHz, onSpec }: { sampleRateHz: number; onSpec: (spec: FilterSpec | null, error: string | null) => void }) {
+  const [text, setText] = useState(() => JSON.stringify(startingSpec(sampleRateHz), null, 1));
+  useEffect(() => {
+    let value: unknown;
+    try {
+      value = JSON.parse(text);
+    } catch {
+      onSpec(null, "This is not valid JSON.");
+      return;
+    }
+    const parsed = filterSpecSchema.safeParse(value);
+    if (parsed.success) onSpec(parsed.data, null);
+    else onSpec(null, parsed.error.issues.map((i) => `${i.path.join(".") || "(spec)"}: ${i.message}`).join("; "));
+  }, [text, onSpec]);
+  return (
+    <div>
+      <label htmlFor="loop-spec-json" className="label">
+        Filter spec (JSON)
+      </label>
+      <textarea id="loop-spec-json" rows={8} className="field num text-xs" value={text} onChange={(e) => setText(e.target.value)} spellCheck={false} />
+    </div>
+  );
+}
+
+/**
+ * Where the sensor filter comes from: the channel's production revision, the latest revision of a saved
+ * set, or a spec typed here (form or JSON). Reports the chosen design (or why there is none) at once.
+ */
+export function FilterSource({ path, sampleRateHz, onPick }: { path: string; sampleRateHz: number; onPick: (f: PickedFilter) => void }) {
+  const [source, setSource] = useState<Source>("production");
+  const [setId, setSetId] = useState("");
+  const [typing, setTyping] = useState<"form" | "json">("form");
+  const [spec, setSpec] = useState<FilterSpec>(() => startingSpec(sampleRateHz));
+  const [jsonState, setJsonState] = useState<{ spec: FilterSpec | null; error: string | null }>({ spec: null, error: null });
+  const [formVersion, setFormVersion] = useState(0);
+
+  const production = useQuery({ queryKey: ["production", path], queryFn: () => fetchProduction(path), enabled: source === "production" });
+  const sets = useQuery({ queryKey: ["sets", path], queryFn: () => fetchSets(path), enabled: source === "set" });
+  const revision = useQuery({ queryKey: ["set-latest", setId], queryFn: () => fetchLatestRevision(setId), enabled: source === "set" && setId !== "" });
+
+  const onJson = useMemo(() => (s: FilterSpec | null, error: string | null) => setJsonState({ spec: s, error }), []);
+
+  const picked: PickedFilter = useMemo(() => {
+    if (source === "production") {
+      if (production.isPending) return { design: null, reason: "Loading the production filter…" };
+      if (production.isError) return { design: null, reason: `The production filter could not be loaded: ${production.error.message}` };
+      if (!production.data) return { design: null, reason: "Nothing is active on this channel yet. Pick a saved set or type a filter." };
+      return { design: production.data.design, label: `Production: ${production.data.setName} r${production.data.revision}` };
+    }
+    if (source === "set") {
+      if (setId === "") return { design: null, reason: "Pick a saved set." };
+      if (revision.isPending) return { design: null, reason: "Loading the set's latest revision…" };
+      if (revision.isError) return { design: null, reason: revision.error.message };
+      if (!revision.data) return { design: null, reason: "That set has no revision yet." };
+      const name = sets.data?.find((s) => String(s.id) === setId)?.name ?? "set";
+      return { design: revision.data.design, label: `${name} r${revision.data.revision} · ${describeSpec(revision.data.spec)}` };
+    }
+    const typed = typing === "json" ? jsonState.spec : spec;
+    if (!typed) return { design: null, reason: `The JSON spec is refused: ${jsonState.error ?? "empty"}` };
+    const result = design(typed);
+    return "error" in result ? { design: null, reason: `The design failed: ${result.error}` } : { design: result.design, label: `Typed: ${describeSpec(typed)}` };
+  }, [source, production.isPending, production.isError, production.error, production.data, setId, revision.isPending, revision.isError, revision.error, revision.data, sets.data, typing, jsonState, spec]);
+
+  useEffect(() => onPick(picked), [picked, onPick]);
+
+  return (
+    <section className="card space-y-3 p-4" aria-label="Sensor filter">
+      <h2 className="font-medium">Sensor filter F(z)</h2>
+      <Segmented
+        label="Filter source"
+        value={source}
+        onChange={setSource}
+        options={[
+          { value: "production", label: "Production filter" },
+          { value: "set", label: "Saved set" },
+          { value: "typed", label: "Type a filter" },
+        ]}
+      />
+      {source === "production" && production.data === null && <Notice title="Nothing active">No production filter is active on this channel. Pick a saved set or type a filter.</Notice>}
+      {source === "set" && (
+        <div>
+          <label htmlFor="loop-set" className="label">
+            Coefficient set (latest revision)
+          </label>
+          <select id="loop-set" className="field" value={setId} onChange={(e) => setSetId(e.target.value)}>
+            <option value="">{sets.isPending ? "Loading sets…" : sets.data?.length ? "Pick a set" : "No sets for this channel"}</option>
+            {sets.data?.map((s) => (
+              <option key={String(s.id)} value={String(s.id)}>
+                {s.name} (r{s.latestRevision}, {s.status})
+              </option>
+            ))}
+          </select>
+          {sets.isError && <p className="mt-1 text-xs text-red-700 dark:text-red-300">The sets could not be loaded: {sets.error.message}</p>}
+        </div>
+      )}
+      {source === "typed" && (
+        <div className="space-y-3">
+          <Segmented
+            label="How to type the filter"
+            value={typing}
+            onChange={setTyping}
+            options={[
+              { value: "form", label: "Form" },
+              { value: "json", label: "Paste JSON" },
+            ]}
+          />
+          {typing === "form" ? (
+            <>
+              <div>
+                <label htmlFor="loop-spec-kind" className="label">
+                  Design
+                </label>
+                <select
+                  id="loop-spec-kind"
+                  className="field"
+                  value={spec.kind}
+                  onChange={(e) => {
+                    const kind = e.target.value as SpecKind;
+                    setSpec(kind === "iir" ? startingSpec(sampleRateHz) : defaultSpec(kind, sampleRateHz));
+                    setFormVersion((v) => v + 1);
+                  }}
+                >
+                  {SPEC_KINDS.map((k) => (
+                    <option key={k} value={k}>
+                      {KIND_LABELS[k]}
+                    </option>
+                  ))}
+                </select>
+              </div>
+              <SpecForm key={`${spec.kind}-${formVersion}`} initial={spec} onValid={setSpec} />
+            </>
+          ) : (
+            <JsonSpec sampleRateHz={sampleRateHz} onSpec={onJson} />
+          )}
+        </div>
+      )}
+      <p className="text-sm text-slate-600 dark:text-slate-300" data-testid="loop-filter-status">
+        {picked.design ? picked.label : picked.reason}
+      </p>
+    </section>
+  );
+}

@@ -1,0 +1,107 @@
+"use client";
+
+import { useMemo } from "react";
+import type uPlot from "uplot";
+import { staticSource } from "@/components/charts/sources";
+import { UPlotChart, type ChartMark, type ChartSeries } from "@/components/charts/uplot-chart";
+import { withUnit } from "@/lib/bench/format";
+import type { LoopAnalysis } from "./analysis";
+import { GUIDE_COLOR, WITH_COLOR, WITHOUT_COLOR } from "./colors";
+
+function Figure({ title, children }: { title: string; children: React.ReactNode }) {
+  return (
+    <figure className="m-0">
+      <figcaption className="mb-1 text-xs font-medium text-slate-600 dark:text-slate-300">{title}</figcaption>
+      <div className="rounded-md bg-canvas p-2">{children}</div>
+    </figure>
+  );
+}
+
+const pair = (withFilter: boolean): ChartSeries[] => [
+  { label: "Without filter", color: WITHOUT_COLOR, unit: "", width: 1.5 },
+  ...(withFilter ? [{ label: "With filter", color: WITH_COLOR, unit: "", width: 1.5 }] : []),
+];
+
+function crossoverMarks(without: LoopAnalysis, withF: LoopAnalysis | null, kind: "gain" | "phase"): ChartMark[] {
+  const marks: ChartMark[] = [];
+  const add = (a: LoopAnalysis, tag: string) => {
+    const hz = kind === "gain" ? a.margins.gainCrossoverHz : a.margins.phaseCrossoverHz;
+    if (hz !== null) marks.push({ x: hz, label: `${kind === "gain" ? "fc" : "f180"} ${tag} ${withUnit(hz, "Hz", 3)}` });
+  };
+  add(without, "without");
+  if (withF) add(withF, "with");
+  return marks;
+}
+
+/** Bode plot of L(e^{jω}) with and without the filter: magnitude (0 dB guide, gain crossovers) and phase (−180° guide, phase crossovers). */
+export function BodeCharts({ freqs, without, withF }: { freqs: number[]; without: LoopAnalysis; withF: LoopAnalysis | null }) {
+  const mag = useMemo(() => {
+    const cols: (number | null)[][] = [without.response.magnitudeDb];
+    if (withF) cols.push(withF.response.magnitudeDb);
+    cols.push(freqs.map(() => 0));
+    return staticSource([freqs, ...cols] as uPlot.AlignedData);
+  }, [freqs, without, withF]);
+  const phase = useMemo(() => {
+    const cols: (number | null)[][] = [without.response.phaseDeg];
+    if (withF) cols.push(withF.response.phaseDeg);
+    cols.push(freqs.map(() => -180));
+    return staticSource([freqs, ...cols] as uPlot.AlignedData);
+  }, [freqs, without, withF]);
+  const hzAxis = { kind: "log" as const, label: "Frequency (Hz)", unit: "Hz" };
+  return (
+    <div className="grid gap-4 xl:grid-cols-2">
+      <Figure title="Loop gain |L| (dB)">
+        <UPlotChart
+          label="Loop gain magnitude"
+          testId="loop-bode-magnitude"
+          series={[...pair(!!withF).map((s) => ({ ...s, unit: "dB" })), { label: "0 dB", color: GUIDE_COLOR, unit: "dB", dash: [4, 4], width: 1 }]}
+          source={mag}
+          x={hzAxis}
+          axes={[{ scale: "y", label: "dB" }]}
+          marks={crossoverMarks(without, withF, "gain")}
+          height={240}
+        />
+      </Figure>
+      <Figure title="Loop phase arg L (°)">
+        <UPlotChart
+          label="Loop phase"
+          testId="loop-bode-phase"
+          series={[...pair(!!withF).map((s) => ({ ...s, unit: "°" })), { label: "−180°", color: GUIDE_COLOR, unit: "°", dash: [4, 4], width: 1 }]}
+          source={phase}
+          x={hzAxis}
+          axes={[{ scale: "y", label: "°" }]}
+          marks={[...crossoverMarks(without, withF, "gain"), ...crossoverMarks(without, withF, "phase")]}
+          height={240}
+        />
+      </Figure>
+    </div>
+  );
+}
+
+/** Beyond this the step is off the chart (an unstable loop); the sample is left as a gap. */
+const STEP_CLIP = 10;
+
+/** Closed-loop plant output for a unit reference step, with and without the filter, against time in ms. */
+export function StepChart({ without, withF }: { without: LoopAnalysis; withF: LoopAnalysis | null }) {
+  const source = useMemo(() => {
+    const clip = (ys: number[]) => ys.map((y) => (Number.isFinite(y) && Math.abs(y) <= STEP_CLIP ? y : null));
+    const t = without.step.timeS.map((s) => s * 1000);
+    const cols: (number | null)[][] = [clip(without.step.output)];
+    if (withF) cols.push(clip(withF.step.output));
+    cols.push(t.map(() => 1));
+    return staticSource([t, ...cols] as uPlot.AlignedData);
+  }, [without, withF]);
+  return (
+    <Figure title="Closed-loop step: plant output for a unit reference step">
+      <UPlotChart
+        label="Closed-loop step response"
+        testId="loop-step"
+        series={[...pair(!!withF).map((s) => ({ ...s, unit: "" })), { label: "Reference", color: GUIDE_COLOR, unit: "", dash: [4, 4], width: 1 }]}
+        source={source}
+        x={{ kind: "linear", label: "Time (ms)", unit: "ms" }}
+        axes={[{ scale: "y", label: "× step" }]}
+        height={260}
+      />
+    </Figure>
+  );
+}
