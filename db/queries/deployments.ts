@@ -30,6 +30,9 @@ function deploymentQuery(db: Conn) {
     .innerJoin("devices as d", "d.id", "c.device_id")
     .innerJoin("rigs as rg", "rg.id", "d.rig_id")
     .innerJoin("users as u", "u.id", "p.requested_by")
+    .innerJoin("channels as sc", "sc.id", "s.channel_id")
+    .innerJoin("devices as sd", "sd.id", "sc.device_id")
+    .innerJoin("rigs as sr", "sr.id", "sd.rig_id")
     .select([
       "p.id",
       "p.kind",
@@ -56,6 +59,7 @@ function deploymentQuery(db: Conn) {
       "r.spec",
       "s.id as setId",
       "s.name as setName",
+      sql<string>`sr.key || '/' || sd.key || '/' || sc.key`.as("setChannel"),
     ]);
 }
 
@@ -85,6 +89,8 @@ export interface DeploymentView {
   spec: FilterSpec;
   setId: number;
   setName: string;
+  /** The set's own channel (a deployment may go to another channel of the same sample rate). */
+  setChannel: string;
 }
 
 export async function findDeployment(db: Conn, id: number): Promise<DeploymentView | undefined> {
@@ -243,7 +249,7 @@ export async function requestRollback(
 }
 
 function refOf(d: DeploymentView): DeploymentRef {
-  return { setId: d.setId, setName: d.setName, revision: d.revision, channel: d.channel, target: d.channel };
+  return { setId: d.setId, setName: d.setName, revision: d.revision, channel: d.setChannel, target: d.channel };
 }
 
 async function notifyOutcome(trx: Transaction<Database>, d: DeploymentView, outcome: "promoted" | "failed" | "rolled_back", detail: string) {

@@ -48,7 +48,7 @@ export function deploymentMail(d: DeploymentRef, outcome: "promoted" | "failed" 
   }[outcome];
   return {
     kind: outcome,
-    subject: `${what.head}: ${title(d)} → ${d.target}`,
+    subject: `${what.head}: ${title(d)}${d.target === d.channel ? "" : ` → ${d.target}`}`,
     body: `Revision ${d.revision} of "${d.setName}" ${what.line}` + (detail ? `\n\n${detail}` : "") + footer(d),
   };
 }

@@ -33,15 +33,15 @@ describe("mail through the outbox and the SMTP fake", () => {
 
   it("delivers an outbox message with nodemailer to the fake, which stores it decoded in the mailbox", async () => {
     smtp = await startFakeSmtp({ db: lab.db, port: 0, logger });
-    await enqueueMail(lab.db, ["engineer@tapwright.test", "lead@tapwright.test"], deploymentMail({ ...ref, target: ref.channel }, "promoted", "Checksum ab12."));
+    await enqueueMail(lab.db, ["engineer@tapwright.test", "lead@tapwright.test"], deploymentMail({ ...ref, target: "hydraulic-press/env-node/frame-strain" }, "promoted", "Checksum ab12."));
     const sender = startOutboxSender({ db: lab.db, transport: smtpTransport("127.0.0.1", smtp.port), from: "Tapwright <tapwright@tapwright.test>", clock: manualClock, logger });
     expect(await sender.drain()).toBe(1);
     await sender.stop();
     const [m] = await mailbox();
-    expect(m.subject).toBe(`Active: Torque LP r3 (${ref.channel}) → ${ref.channel}`);
+    expect(m.subject).toBe(`Active: Torque LP r3 (${ref.channel}) → hydraulic-press/env-node/frame-strain`);
     expect(m.envelope_to).toEqual(["engineer@tapwright.test", "lead@tapwright.test"]);
     expect(m.envelope_from).toBe("tapwright@tapwright.test");
-    expect(m.body).toContain("is now active on gearbox-endurance/torque-node/input-torque; the device acknowledged it.");
+    expect(m.body).toContain("is now active on hydraulic-press/env-node/frame-strain; the device acknowledged it.");
     expect(m.body).toContain("— Tapwright");
     const outbox = await lab.db.selectFrom("mail_outbox").select(["sent_at", "attempts"]).executeTakeFirstOrThrow();
     expect(outbox.sent_at).not.toBeNull();

@@ -74,6 +74,7 @@ describe("device config", () => {
     const design = designFilter(butter);
     const config = await signDeviceConfig(unsignedDeviceConfig("7", target("q15"), quantizeForTarget(design, target("q15"))));
     expect(answerConfig(torqueNode, Buffer.from(JSON.stringify(config)))).toMatchObject({ status: "applied", revisionId: "7" });
+    if (config.format !== "q15") throw new Error("expected q15");
     const tampered = { ...config, sections: config.sections.map((s, i) => (i === 0 ? { ...s, shift: s.shift + 1 } : s)) };
     expect(answerConfig(torqueNode, Buffer.from(JSON.stringify(tampered)))).toMatchObject({ status: "refused", reason: "checksum mismatch" });
   });
