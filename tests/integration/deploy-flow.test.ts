@@ -66,6 +66,7 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await worker.stop();
+  await worker.idle();
   await new Promise<void>((r) => broker.close(() => r()));
   await lab.close();
 });
