@@ -219,4 +219,3 @@ export function findSet(db: Conn, id: number) {
     .where("s.id", "=", id)
     .executeTakeFirst();
 }
-export type SetDetail = NonNullable<Awaited<ReturnType<typeof findSet>>>;
