@@ -4,7 +4,6 @@ import { useQuery } from "@tanstack/react-query";
 import { useEffect, useMemo, useState } from "react";
 import { fetchProduction, fetchSets } from "@/components/bench/api";
 import { SpecForm } from "@/components/bench/spec-form";
-import { Notice } from "@/components/ui/notice";
 import { Segmented } from "@/components/ui/segmented";
 import { defaultSpec, KIND_LABELS, SPEC_KINDS, type SpecKind } from "@/lib/bench/spec-defaults";
 import { designFilter, filterSpecSchema, type FilterDesign, type FilterSpec } from "@/lib/dsp";
@@ -120,7 +119,6 @@ export function FilterSource({ path, sampleRateHz, onPick }: { path: string; sam
           { value: "typed", label: "Type a filter" },
         ]}
       />
-      {source === "production" && production.data === null && <Notice title="Nothing active">No production filter is active on this channel. Pick a saved set or type a filter.</Notice>}
       {source === "set" && (
         <div>
           <label htmlFor="loop-set" className="label">

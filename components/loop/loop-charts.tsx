@@ -17,10 +17,13 @@ function Figure({ title, children }: { title: string; children: React.ReactNode 
   );
 }
 
-const pair = (withFilter: boolean): ChartSeries[] => [
-  { label: "Without filter", color: WITHOUT_COLOR, unit: "", width: 1.5 },
-  ...(withFilter ? [{ label: "With filter", color: WITH_COLOR, unit: "", width: 1.5 }] : []),
+/** Both series always exist (the wrapper keeps one series set per chart); without a filter its column is empty. */
+const pair = (unit: string): ChartSeries[] => [
+  { label: "Without filter", color: WITHOUT_COLOR, unit, width: 1.5 },
+  { label: "With filter", color: WITH_COLOR, unit, width: 1.5 },
 ];
+
+const orGap = (values: number[] | undefined, length: number): (number | null)[] => values ?? new Array<null>(length).fill(null);
 
 function crossoverMarks(without: LoopAnalysis, withF: LoopAnalysis | null, kind: "gain" | "phase"): ChartMark[] {
   const marks: ChartMark[] = [];
@@ -33,19 +36,23 @@ function crossoverMarks(without: LoopAnalysis, withF: LoopAnalysis | null, kind:
   return marks;
 }
 
+/** Depth shown below the lowest point of the loop without the filter, so a filter's notch or Nyquist zero does not flatten the plot. */
+const MAGNITUDE_DEPTH_DB = 60;
+
+function magnitudeRange(without: number[], withF: number[] | null): [number, number] {
+  const all = [...without, ...(withF ?? [])].filter(Number.isFinite);
+  const top = Math.max(...all);
+  const bottom = Math.max(Math.min(...all), Math.min(...without.filter(Number.isFinite)) - MAGNITUDE_DEPTH_DB);
+  return [Math.floor(bottom / 20) * 20, Math.ceil(top / 20) * 20];
+}
+
 /** Bode plot of L(e^{jω}) with and without the filter: magnitude (0 dB guide, gain crossovers) and phase (−180° guide, phase crossovers). */
 export function BodeCharts({ freqs, without, withF }: { freqs: number[]; without: LoopAnalysis; withF: LoopAnalysis | null }) {
   const mag = useMemo(() => {
-    const cols: (number | null)[][] = [without.response.magnitudeDb];
-    if (withF) cols.push(withF.response.magnitudeDb);
-    cols.push(freqs.map(() => 0));
-    return staticSource([freqs, ...cols] as uPlot.AlignedData);
+    return staticSource([freqs, without.response.magnitudeDb, orGap(withF?.response.magnitudeDb, freqs.length), freqs.map(() => 0)] as uPlot.AlignedData);
   }, [freqs, without, withF]);
   const phase = useMemo(() => {
-    const cols: (number | null)[][] = [without.response.phaseDeg];
-    if (withF) cols.push(withF.response.phaseDeg);
-    cols.push(freqs.map(() => -180));
-    return staticSource([freqs, ...cols] as uPlot.AlignedData);
+    return staticSource([freqs, without.response.phaseDeg, orGap(withF?.response.phaseDeg, freqs.length), freqs.map(() => -180)] as uPlot.AlignedData);
   }, [freqs, without, withF]);
   const hzAxis = { kind: "log" as const, label: "Frequency (Hz)", unit: "Hz" };
   return (
@@ -54,11 +61,12 @@ export function BodeCharts({ freqs, without, withF }: { freqs: number[]; without
         <UPlotChart
           label="Loop gain magnitude"
           testId="loop-bode-magnitude"
-          series={[...pair(!!withF).map((s) => ({ ...s, unit: "dB" })), { label: "0 dB", color: GUIDE_COLOR, unit: "dB", dash: [4, 4], width: 1 }]}
+          series={[...pair("dB"), { label: "0 dB", color: GUIDE_COLOR, unit: "dB", dash: [4, 4], width: 1 }]}
           source={mag}
           x={hzAxis}
           axes={[{ scale: "y", label: "dB" }]}
           marks={crossoverMarks(without, withF, "gain")}
+          yRange={magnitudeRange(without.response.magnitudeDb, withF?.response.magnitudeDb ?? null)}
           height={240}
         />
       </Figure>
@@ -66,7 +74,7 @@ export function BodeCharts({ freqs, without, withF }: { freqs: number[]; without
         <UPlotChart
           label="Loop phase"
           testId="loop-bode-phase"
-          series={[...pair(!!withF).map((s) => ({ ...s, unit: "°" })), { label: "−180°", color: GUIDE_COLOR, unit: "°", dash: [4, 4], width: 1 }]}
+          series={[...pair("°"), { label: "−180°", color: GUIDE_COLOR, unit: "°", dash: [4, 4], width: 1 }]}
           source={phase}
           x={hzAxis}
           axes={[{ scale: "y", label: "°" }]}
@@ -86,17 +94,14 @@ export function StepChart({ without, withF }: { without: LoopAnalysis; withF: Lo
   const source = useMemo(() => {
     const clip = (ys: number[]) => ys.map((y) => (Number.isFinite(y) && Math.abs(y) <= STEP_CLIP ? y : null));
     const t = without.step.timeS.map((s) => s * 1000);
-    const cols: (number | null)[][] = [clip(without.step.output)];
-    if (withF) cols.push(clip(withF.step.output));
-    cols.push(t.map(() => 1));
-    return staticSource([t, ...cols] as uPlot.AlignedData);
+    return staticSource([t, clip(without.step.output), withF ? clip(withF.step.output) : orGap(undefined, t.length), t.map(() => 1)] as uPlot.AlignedData);
   }, [without, withF]);
   return (
     <Figure title="Closed-loop step: plant output for a unit reference step">
       <UPlotChart
         label="Closed-loop step response"
         testId="loop-step"
-        series={[...pair(!!withF).map((s) => ({ ...s, unit: "" })), { label: "Reference", color: GUIDE_COLOR, unit: "", dash: [4, 4], width: 1 }]}
+        series={[...pair(""), { label: "Reference", color: GUIDE_COLOR, unit: "", dash: [4, 4], width: 1 }]}
         source={source}
         x={{ kind: "linear", label: "Time (ms)", unit: "ms" }}
         axes={[{ scale: "y", label: "× step" }]}

@@ -1,6 +1,6 @@
 "use client";
 
-import { useCallback, useDeferredValue, useMemo, useState } from "react";
+import { useCallback, useDeferredValue, useEffect, useMemo, useState } from "react";
 import { Notice } from "@/components/ui/notice";
 import { Segmented } from "@/components/ui/segmented";
 import { REVIEW_LINE } from "@/lib/bench/cautions";
@@ -43,6 +43,9 @@ export function LoopCheck({ channel }: { channel: { path: string; name: string; 
   const [picked, setPicked] = useState<PickedFilter>({ design: null, reason: "Loading…" });
   const [view, setView] = useState<LocusView>("near-one");
   const onPick = useCallback((f: PickedFilter) => setPicked(f), []);
+  // The analysis runs in the browser only (the server's floating point may differ in the last bits, and it saves the server the work).
+  const [mounted, setMounted] = useState(false);
+  useEffect(() => setMounted(true), []);
 
   const parsed = useMemo(() => parseInputs(inputs, fs), [inputs, fs]);
   const freqs = useMemo(() => bodeFrequencies(fs), [fs]);
@@ -50,7 +53,7 @@ export function LoopCheck({ channel }: { channel: { path: string; name: string; 
   const filter = useDeferredValue(picked.design);
 
   const results = useMemo(() => {
-    if (!model) return null;
+    if (!model || !mounted) return null;
     return attempt((): Results => {
       const base = withFilter(model, null);
       const margins = stabilityMargins(base);
@@ -63,7 +66,7 @@ export function LoopCheck({ channel }: { channel: { path: string; name: string; 
       const warnings = [without.poles.warning, withF?.poles.warning].filter((w): w is string => !!w);
       return { without, withF, lag, locusWithout: locusData(base), locusWith: withModel ? locusData(withModel) : null, warnings };
     });
-  }, [model, filter, freqs, fs]);
+  }, [model, filter, freqs, fs, mounted]);
 
   const r = results && "value" in results ? results.value : null;
   const cautions = r ? loopCautions(r.without, r.withF, r.lag, r.without.margins.gainCrossoverHz) : [];
@@ -75,6 +78,7 @@ export function LoopCheck({ channel }: { channel: { path: string; name: string; 
         <LoopInputsForm inputs={inputs} onChange={setInputs} errors={parsed.ok ? [] : parsed.errors} />
         <section className="card space-y-3 p-4 lg:col-span-2 2xl:col-span-1" aria-label="Margins and cautions">
           <h2 className="font-medium">Margins</h2>
+          {!mounted && <Notice title="Computing the loop…">The margins, plots and root locus are computed in your browser.</Notice>}
           {!parsed.ok && <Notice tone="warn" title="Fix the plant or controller">The loop is drawn again as soon as every field is valid.</Notice>}
           {results && "error" in results && <Notice tone="error" title="The loop could not be computed">{results.error}</Notice>}
           {r && <MarginsTable without={r.without} withF={r.withF} lag={r.lag} />}

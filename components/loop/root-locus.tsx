@@ -20,8 +20,8 @@ const WINDOWS: Record<LocusView, { cx: number; cy: number; half: number }> = {
 export function RootLocus({ data, color, title, view, testId }: { data: LocusData; color: string; title: string; view: LocusView; testId: string }) {
   const w = WINDOWS[view];
   const scale = (SIZE / 2 - PAD) / w.half;
-  const px = (re: number) => SIZE / 2 + (re - w.cx) * scale;
-  const py = (im: number) => SIZE / 2 - (im - w.cy) * scale;
+  const px = (re: number) => Math.round((SIZE / 2 + (re - w.cx) * scale) * 100) / 100;
+  const py = (im: number) => Math.round((SIZE / 2 - (im - w.cy) * scale) * 100) / 100;
   const inside = (p: Complex) => Math.abs(p[0] - w.cx) <= w.half * 1.08 && Math.abs(p[1] - w.cy) <= w.half * 1.08;
   const m = 4.5;
   const unstable = data.current.some((p) => Math.hypot(p[0], p[1]) >= 1);
