@@ -48,7 +48,7 @@ export function LivePanel({
   const slotsRef = useRef<number[]>([]);
   slotsRef.current = traces.map((t) => t.slot);
   const source = useMemo(() => liveSource(store, () => slotsRef.current, () => windowRef.current), [store]);
-  const series: ChartSeries[] = traces.map((t) => ({ label: t.label, color: t.color, unit, show: t.visible, width: t.id === "raw" ? 1 : 1.5 }));
+  const series: ChartSeries[] = traces.map((t) => ({ label: t.label, color: t.color, unit, show: t.visible, width: 1 }));
   const lo = Number(yMin);
   const hi = Number(yMax);
   const yRange: [number, number] | null = manualY && yMin !== "" && yMax !== "" && lo < hi ? [lo, hi] : null;
