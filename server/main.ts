@@ -4,6 +4,7 @@ import { sessionOptions } from "@/lib/auth/session-config";
 import { env } from "@/lib/env";
 import { consoleLogger, systemClock } from "./clock";
 import { startDeploymentWorker, type DeploymentWorker } from "./deploy/worker";
+import { smtpTransport, startOutboxSender, type OutboxSender } from "./mail/outbox-sender";
 import { startSidecar, type Sidecar } from "./sidecar";
 
 /** Composition root: reads the environment once and starts the sidecar; SIGTERM/SIGINT stop it cleanly. */
@@ -14,6 +15,7 @@ const ttl = sessionOptions(e.SESSION_SECRET, e.COOKIE_SECURE === "1").ttl ?? 60 
 
 let sidecar: Sidecar | undefined;
 let deployments: DeploymentWorker | undefined;
+let outbox: OutboxSender | undefined;
 let stopping = false;
 
 async function shutdown(signal: string): Promise<void> {
@@ -23,6 +25,7 @@ async function shutdown(signal: string): Promise<void> {
   const force = setTimeout(() => process.exit(1), 5000);
   force.unref();
   try {
+    await outbox?.stop();
     await deployments?.stop();
     await sidecar?.close();
     await db.destroy();
@@ -73,6 +76,15 @@ deployments = await startDeploymentWorker({
   exchange: sidecar.configs,
   bus: sidecar.bus,
   pipeline: sidecar.pipeline,
+  clock: systemClock,
+  logger: consoleLogger,
+});
+
+// Mail: notifications written to the outbox in the same transaction as their event are delivered with retries.
+outbox = startOutboxSender({
+  db,
+  transport: smtpTransport("127.0.0.1", e.SMTP_PORT),
+  from: e.MAIL_FROM,
   clock: systemClock,
   logger: consoleLogger,
 });

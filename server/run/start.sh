@@ -1,5 +1,6 @@
 #!/usr/bin/env bash
-# `npm start`: set everything up, then run the web app and the sidecar (broker, live filters, demo rig).
+# `npm start`: set everything up, then run the web app, the local mail catcher and the sidecar
+# (broker, live filters, deployments, outbox, demo rig).
 set -euo pipefail
 ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)
 cd "$ROOT"
@@ -11,11 +12,13 @@ cleanup() { for p in "${pids[@]}"; do kill "$p" 2>/dev/null || true; done; wait 
 trap cleanup EXIT INT TERM
 
 node_modules/.bin/next start -H 127.0.0.1 -p "$PORT" & pids+=($!)
+node --import tsx server/mail/fake-smtp-main.ts & pids+=($!)
 node --import tsx server/main.ts & pids+=($!)
 
 cat <<MSG
 
   Tapwright is starting on http://127.0.0.1:$PORT
+  (sidecar http://127.0.0.1:${SIDECAR_PORT:-3001}/health, MQTT 127.0.0.1:${MQTT_PORT:-1883}, mail catcher 127.0.0.1:${SMTP_PORT:-2525})
   Demo accounts (password: ${DEMO_PASSWORD:-tapwright-demo}):
     operator@tapwright.test   engineer@tapwright.test
     lead@tapwright.test       admin@tapwright.test
