@@ -23,7 +23,7 @@ export function filterPhaseCost(design: FilterDesign, atHz: number): PhaseCost {
     throw new Error(`atHz must satisfy 0 < f < fs/2 = ${fs / 2} Hz (got ${atHz})`);
   }
   const points = Math.max(64, Math.ceil((UNWRAP_POINTS_PER_BAND * atHz) / (fs / 2)));
-  const grid = linearGrid(2 * atHz, points);
+  const grid = linearGrid(2 * atHz, points); // 0 … atHz inclusive (linearGrid spans 0 to half the rate it is given)
   const phase = frequencyResponse(design, grid).phaseRad;
   const lagDeg = (-phase[phase.length - 1] * 180) / Math.PI;
   return { lagDeg, lagMs: (lagDeg / (360 * atHz)) * 1000 };

@@ -1,5 +1,6 @@
 import { radPerSample, runForm, type RunForm } from "../analysis/design-form";
 import { ascendingPolyAt, transferAt } from "../analysis/evaluate";
+import { magnitudeToDb } from "../analysis/units";
 import { unwrappedArg } from "../analysis/unwrap";
 import { cAbs, cDiv, cMul } from "../complex";
 import type { Complex } from "../types";
@@ -25,7 +26,7 @@ export function loopEvaluator(blocks: LoopBlocks): LoopEvaluator {
 }
 
 export interface LoopResponse {
-  /** 20·log10|L| in dB. */
+  /** 20·log10|L| in dB, floored at MAGNITUDE_FLOOR_DB like the filter analysis. */
   magnitudeDb: number[];
   /** arg L in degrees, unwrapped along the given frequency order (numpy.unwrap rule). */
   phaseDeg: number[];
@@ -37,7 +38,7 @@ export function loopResponse(model: unknown, freqsHz: readonly number[]): LoopRe
   const at = loopEvaluator(loopBlocks(m));
   const values = freqsHz.map((f) => at(radPerSample(f, m.sampleRateHz)));
   return {
-    magnitudeDb: values.map((v) => 20 * Math.log10(cAbs(v))),
+    magnitudeDb: values.map((v) => magnitudeToDb(cAbs(v))),
     phaseDeg: unwrappedArg(values).map((r) => (r * 180) / Math.PI),
   };
 }

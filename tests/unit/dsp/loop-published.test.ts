@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { designFilter } from "@/lib/dsp/design";
-import { closedLoopPoles, closedLoopStep, filterPhaseCost, rootLocus, stabilityMargins, type LoopModel } from "@/lib/dsp/loop";
+import { closedLoopPoles, closedLoopStep, controllerTf, filterPhaseCost, rootLocus, stabilityMargins, type LoopModel } from "@/lib/dsp/loop";
 
 const DEG = 180 / Math.PI;
 const p1 = { kind: "pid" as const, kp: 1, ki: 0, kd: 0, n: 10, method: "tustin" as const };
@@ -92,4 +92,16 @@ describe("phase cost of sensor filters at the crossover (field notes §1.3, scip
     expect(cost.lagDeg).toBeCloseTo(36, 10);
     expect(cost.lagMs).toBeCloseTo(2, 10);
   });
+});
+
+describe("PID derivative-filter pole per discretisation (field notes §1.4: Tf = 0.4 ms, h = 1 ms)", () => {
+  // Kd = 0.004, Kp = 1, N = 10 gives Tf = Kd/(Kp·N) = 0.4 ms; with Ki = 0 the controller has only that pole.
+  const expected = { "backward-euler": 0.2857, tustin: -0.1111, zoh: 0.0821, "forward-euler": -1.5 } as const;
+  for (const [method, pole] of Object.entries(expected)) {
+    it(`${method}: pole ${pole}`, () => {
+      const { a } = controllerTf({ kind: "pid", kp: 1, ki: 0, kd: 0.004, n: 10, method: method as keyof typeof expected }, 1000);
+      expect(a).toHaveLength(2);
+      expect(-a[1]).toBeCloseTo(pole, 4); // published to 4 decimals
+    });
+  }
 });
