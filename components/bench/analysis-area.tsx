@@ -11,12 +11,26 @@ type View = (typeof VIEWS)[number];
  * The analysis views, overlaid for the shown filters: one view at a time, or several pinned side by
  * side. Everything is computed in the browser from lib/dsp, so an edit re-plots at once.
  */
-export function AnalysisArea({ items, sampleRateHz, deviceFormat, spectrum }: { items: AnalysisItem[]; sampleRateHz: number; deviceFormat: QuantFormat; spectrum: ReactNode }) {
+export function AnalysisArea({
+  items,
+  sampleRateHz,
+  deviceFormat,
+  spectrum,
+  emptyText,
+}: {
+  items: AnalysisItem[];
+  sampleRateHz: number;
+  deviceFormat: QuantFormat;
+  spectrum: ReactNode;
+  /** What to say when there is no filter to analyse (the live spectrum still shows). */
+  emptyText: string;
+}) {
   const [active, setActive] = useState<View>("Response");
   const [pinned, setPinned] = useState<View[]>([]);
   const freqs = useFrequencyGrid(sampleRateHz);
   const shown = pinned.includes(active) ? pinned : [...pinned, active];
   const body = (v: View) => {
+    if (items.length === 0 && v !== "Spectrum") return <p className="text-sm text-slate-500">{emptyText}</p>;
     switch (v) {
       case "Response":
         return <ResponseView items={items} freqs={freqs} />;

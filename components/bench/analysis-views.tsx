@@ -73,10 +73,6 @@ function Chart({ title, testId, series, data, yLabel, kind = "log", height = 220
   );
 }
 
-function Empty() {
-  return <p className="text-sm text-slate-500">Nothing to analyse yet: add a candidate, or show one that is hidden. The production filter appears here when the channel has one.</p>;
-}
-
 /** Bode magnitude and phase on a log frequency axis, each digital response beside its analog prototype (dashed) so the warping shows. */
 export function ResponseView({ items, freqs }: { items: AnalysisItem[]; freqs: number[] }) {
   const curves = useCurves(items, freqs);
@@ -98,7 +94,6 @@ export function ResponseView({ items, freqs }: { items: AnalysisItem[]; freqs: n
     });
     return { series, mag: [freqs, ...mag] as uPlot.AlignedData, phase: [freqs, ...phase] as uPlot.AlignedData };
   }, [items, curves, freqs]);
-  if (items.length === 0) return <Empty />;
   return (
     <div className="space-y-3">
       <Chart title="Magnitude (dB)" testId="bode-magnitude" series={series.map((s) => ({ ...s, unit: "dB" }))} data={mag} yLabel="dB" floor={MAGNITUDE_FLOOR_DB} />
@@ -113,7 +108,6 @@ export function DelayView({ items, freqs, sampleRateHz }: { items: AnalysisItem[
   const curves = useCurves(items, freqs);
   const shown = items.map((it, i) => ({ it, c: curves[i] })).filter((x): x is { it: AnalysisItem; c: ResponseCurves } => x.c !== null);
   const data = useMemo(() => [freqs, ...shown.map((x) => x.c.groupDelaySamples)] as uPlot.AlignedData, [shown, freqs]);
-  if (items.length === 0) return <Empty />;
   const ms = (v: number) => withUnit((1000 * v) / sampleRateHz, "", 3);
   return (
     <Chart
@@ -140,7 +134,6 @@ export function PolesView({ items }: { items: AnalysisItem[] }) {
     }),
     [items],
   );
-  if (items.length === 0) return <Empty />;
   return (
     <div className="grid gap-4 sm:grid-cols-2">
       <PoleZeroMap plane="z" label="Pole-zero map in the z-plane" sets={items.map((it) => ({ name: it.name, color: it.color, zeros: it.design.zeros, poles: it.design.poles }))} />
@@ -166,7 +159,6 @@ export function StepView({ items }: { items: AnalysisItem[] }) {
       impulse: [longest.map((t) => t * 1000), ...shown.map((x) => pad(x.c.impulse))] as uPlot.AlignedData,
     };
   }, [items, curves]);
-  if (items.length === 0) return <Empty />;
   return (
     <div className="space-y-3">
       <Chart title="Step response" testId="step-response" kind="linear" series={series} data={step} yLabel="output" />
@@ -215,7 +207,7 @@ export function FixedView({ items, freqs, deviceFormat }: { items: AnalysisItem[
     const float = safe(() => responseCurves(null, item.design, freqs));
     return { float, formats: fixedPreview(item.design, freqs) };
   }, [item, freqs]);
-  if (!item || !result) return <Empty />;
+  if (!item || !result) return null;
   const series: ChartSeries[] = [{ label: "float64", color: "#e2e8f0", unit: "dB", width: 2 }];
   const cols: (number | null)[][] = [result.float?.magnitudeDb ?? freqs.map(() => null)];
   for (const f of result.formats) {

@@ -199,6 +199,11 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
         items={items}
         sampleRateHz={fs}
         deviceFormat={channel.coefficientFormat}
+        emptyText={
+          canEdit
+            ? "Nothing to analyse yet: add a candidate, or show one that is hidden. The production filter appears here when the channel has one."
+            : "No production filter is active on this channel, so there is nothing to analyse. Engineers try candidate filters here."
+        }
         spectrum={<SpectrumPanel store={store} traces={traces.filter((t) => t.visible)} unit={channel.unit} title="Spectrum of the shown traces" />}
       />
       {candidates.some((c) => (cautions.get(c.id)?.length ?? 0) > 0) && (
@@ -216,6 +221,11 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
         onDelayAt={setDelayAtHz}
         crossoverHz={crossoverHz}
         onCrossover={setCrossoverHz}
+        emptyText={
+          canEdit
+            ? "No filters to compare yet. Add a candidate above; the production filter joins the table when the channel has one."
+            : "No production filter is active on this channel, so there is nothing to compare."
+        }
       />
       {canEdit && editing && (
         <EditorPanel

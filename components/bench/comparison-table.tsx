@@ -57,6 +57,7 @@ export function ComparisonTable({
   onDelayAt,
   crossoverHz,
   onCrossover,
+  emptyText,
 }: {
   items: AnalysisItem[];
   metrics: Record<string, CandidateMetrics>;
@@ -65,6 +66,7 @@ export function ComparisonTable({
   onDelayAt: (hz: number | null) => void;
   crossoverHz: number | null;
   onCrossover: (hz: number | null) => void;
+  emptyText: string;
 }) {
   const rows = useMemo(() => items.map((it) => ({ it, f: figuresOf(it, noiseLineHz, delayAtHz) })), [items, noiseLineHz, delayAtHz]);
   const th = "px-2 py-1.5 text-left font-medium whitespace-nowrap";
@@ -78,7 +80,7 @@ export function ComparisonTable({
         <span className="text-xs text-slate-500">Strongest noise line: {noiseLineHz === null ? "waiting for the live spectrum" : hz(noiseLineHz)}</span>
       </div>
       {items.length === 0 ? (
-        <p className="px-4 py-4 text-sm text-slate-500">No filters to compare yet. Add a candidate above; the production filter joins the table when the channel has one.</p>
+        <p className="px-4 py-4 text-sm text-slate-500">{emptyText}</p>
       ) : (
         <div className="overflow-x-auto">
           <table className="num w-full text-xs" data-testid="comparison-table">

@@ -8,6 +8,17 @@ export interface RootSet {
   poles: Complex[];
 }
 
+/** Roots that coincide (to 1e-6 of the plot extent) drawn once, with how many there are. */
+function grouped(roots: Complex[], extent: number): { root: Complex; count: number }[] {
+  const out: { root: Complex; count: number }[] = [];
+  for (const r of roots) {
+    const same = out.find((g) => Math.hypot(g.root[0] - r[0], g.root[1] - r[1]) < 1e-6 * extent);
+    if (same) same.count++;
+    else out.push({ root: r, count: 1 });
+  }
+  return out;
+}
+
 const SIZE = 300;
 const PAD = 28;
 
@@ -39,16 +50,32 @@ export function PoleZeroMap({ sets, plane, label }: { sets: RootSet[]; plane: "z
         </text>
         {sets.map((s) => (
           <g key={s.name} stroke={s.color} fill="none" strokeWidth={1.6}>
-            {s.zeros.map((z, i) => (
-              <circle key={`z${i}`} cx={px(z[0])} cy={py(z[1])} r={m} />
+            {grouped(s.zeros, extent).map(({ root: z, count }, i) => (
+              <g key={`z${i}`}>
+                <circle cx={px(z[0])} cy={py(z[1])} r={m} />
+                {count > 1 && <Multiplicity x={px(z[0])} y={py(z[1])} count={count} color={s.color} />}
+              </g>
             ))}
-            {s.poles.map((p, i) => (
-              <path key={`p${i}`} d={`M${px(p[0]) - m},${py(p[1]) - m}L${px(p[0]) + m},${py(p[1]) + m}M${px(p[0]) - m},${py(p[1]) + m}L${px(p[0]) + m},${py(p[1]) - m}`} />
+            {grouped(s.poles, extent).map(({ root: p, count }, i) => (
+              <g key={`p${i}`}>
+                <path d={`M${px(p[0]) - m},${py(p[1]) - m}L${px(p[0]) + m},${py(p[1]) + m}M${px(p[0]) - m},${py(p[1]) + m}L${px(p[0]) + m},${py(p[1]) - m}`} />
+                {count > 1 && <Multiplicity x={px(p[0])} y={py(p[1])} count={count} color={s.color} />}
+              </g>
             ))}
           </g>
         ))}
       </svg>
-      <figcaption className="mt-1 text-xs text-slate-500">{plane === "z" ? "z-plane: × poles, ○ zeros, dashed unit circle" : "s-plane of the analog prototype: × poles, ○ zeros"}</figcaption>
+      <figcaption className="mt-1 text-xs text-slate-500">
+        {plane === "z" ? "z-plane: × poles, ○ zeros (a number counts repeated ones), dashed unit circle" : "s-plane of the analog prototype: × poles, ○ zeros"}
+      </figcaption>
     </figure>
+  );
+}
+
+function Multiplicity({ x, y, count, color }: { x: number; y: number; count: number; color: string }) {
+  return (
+    <text x={x + 6} y={y - 6} fontSize={10} fill={color} stroke="none">
+      {count}
+    </text>
   );
 }

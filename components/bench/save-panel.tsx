@@ -13,7 +13,8 @@ import { ApiError, createRevision, createSet, fetchSets, type SavedRevision } fr
  */
 export function SavePanel({ channel, spec, suggestedName }: { channel: string; spec: FilterSpec | null; suggestedName: string }) {
   const [mode, setMode] = useState<"set" | "revision">("set");
-  const [name, setName] = useState(suggestedName);
+  const [typedName, setTypedName] = useState<string | null>(null);
+  const name = typedName ?? suggestedName;
   const [setId, setSetId] = useState("");
   const [notes, setNotes] = useState("");
   const queryClient = useQueryClient();
@@ -57,7 +58,7 @@ export function SavePanel({ channel, spec, suggestedName }: { channel: string; s
           <label htmlFor="save-name" className="label">
             Set name
           </label>
-          <input id="save-name" className="field" value={name} onChange={(e) => setName(e.target.value)} maxLength={120} />
+          <input id="save-name" className="field" value={name} onChange={(e) => setTypedName(e.target.value)} maxLength={120} />
         </div>
       ) : (
         <div>
