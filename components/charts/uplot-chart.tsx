@@ -139,11 +139,13 @@ export function UPlotChart(props: UPlotChartProps) {
     }
     const axis = (a: Partial<uPlot.Axis>): uPlot.Axis => ({ stroke: AXIS_STROKE, grid: GRID, ticks: TICKS, font: "11px var(--font-mono), monospace", labelFont: "11px var(--font-inter), sans-serif", ...a });
 
+    let pointerDown = false;
     const panPlugin: uPlot.Plugin = {
       hooks: {
         init: (u) => {
           let start: { x: number; min: number; max: number } | null = null;
           const onDown = (e: MouseEvent) => {
+            pointerDown = true;
             if (!e.shiftKey || e.button !== 0) return;
             e.stopPropagation();
             start = { x: e.clientX, min: u.scales.x.min ?? 0, max: u.scales.x.max ?? 1 };
@@ -162,8 +164,12 @@ export function UPlotChart(props: UPlotChartProps) {
               u.setScale("x", { min: start.min + d, max: start.max + d });
             }
           };
-          const onUp = () => (start = null);
+          const onUp = () => {
+            start = null;
+            setTimeout(() => (pointerDown = false), 0);
+          };
           const onDbl = () => {
+            pointerDown = false;
             zoomedRef.current = false;
             propsRef.current.onZoom?.(false);
             scheduleRef.current();
@@ -182,8 +188,9 @@ export function UPlotChart(props: UPlotChartProps) {
             window.removeEventListener("mouseup", onUp);
           };
         },
-        setSelect: (u) => {
-          if (u.select.width > 2) {
+        // A drag-zoom sets the x scale while the pointer is down (uPlot clears the selection first).
+        setScale: (_u, key) => {
+          if (key === "x" && pointerDown && !zoomedRef.current) {
             zoomedRef.current = true;
             propsRef.current.onZoom?.(true);
           }
