@@ -59,4 +59,4 @@ export { expm, type Matrix } from "./linalg";
 export * from "./analysis";
 export * from "./engine";
 export * from "./fixed";
-export * from "./fixed";
+export * from "./loop";

@@ -14,18 +14,18 @@ set +e
 E2E_DATABASE_URL=$DATABASE_URL
 export TEST_DATABASE_URL=${TEST_DATABASE_URL:-$(bash db/cluster.sh url tapwright_test)}
 bash db/cluster.sh start tapwright_test >/dev/null
-mkdir -p test-results
+mkdir -p .data/reports
 
-node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile.json=test-results/vitest.json
+node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile.json=.data/reports/vitest.json
 unit=$?
-DATABASE_URL=$E2E_DATABASE_URL PLAYWRIGHT_JSON_OUTPUT_NAME=test-results/playwright.json \
+DATABASE_URL=$E2E_DATABASE_URL PLAYWRIGHT_JSON_OUTPUT_NAME=.data/reports/playwright.json \
   node_modules/.bin/playwright test --reporter=list,json
 e2e=$?
 
 node -e '
 const fs = require("fs");
 const read = (f) => { try { return JSON.parse(fs.readFileSync(f, "utf8")); } catch { return null; } };
-const v = read("test-results/vitest.json"), p = read("test-results/playwright.json");
+const v = read(".data/reports/vitest.json"), p = read(".data/reports/playwright.json");
 const passed = (v?.numPassedTests ?? 0) + (p?.stats?.expected ?? 0);
 const failed = (v ? v.numFailedTests : 1) + (p ? p.stats.unexpected : 1);
 const skipped = (v?.numPendingTests ?? 0) + (p?.stats?.skipped ?? 0);
