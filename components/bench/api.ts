@@ -76,7 +76,6 @@ export function createSet(input: { channel: string; name: string; notes?: string
   return request<SavedRevision>("/api/v1/sets", { method: "POST", body: JSON.stringify(input) });
 }
 
-export async function createRevision(setId: string | number, input: { spec: FilterSpec; notes?: string; expectedLatestRevision: number }): Promise<SavedRevision> {
-  const body = await request<Partial<SavedRevision>>(`/api/v1/sets/${setId}/revisions`, { method: "POST", body: JSON.stringify(input) });
-  return { setId, revisionId: body.revisionId ?? "", revision: body.revision ?? input.expectedLatestRevision + 1 };
+export function createRevision(setId: string | number, input: { spec: FilterSpec; notes?: string; expectedLatestRevision: number }): Promise<SavedRevision> {
+  return request<SavedRevision>(`/api/v1/sets/${setId}/revisions`, { method: "POST", body: JSON.stringify(input) });
 }

@@ -24,7 +24,3 @@ export function liveSpectrum(samples: Float64Array, sampleRateHz: number, peakCo
   return { freqsHz, psdDb, peaks };
 }
 
-/** The strongest peak's frequency in Hz, or null. */
-export function strongestPeakHz(spectrum: LiveSpectrum | null): number | null {
-  return spectrum && spectrum.peaks.length > 0 ? spectrum.peaks[0].freqHz : null;
-}
