@@ -1,9 +1,14 @@
 import http from "node:http";
 import type { Duplex } from "node:stream";
 
-/** HTTP side of the sidecar: GET /health as JSON, WebSocket upgrades handed on, everything else 404. */
+/**
+ * HTTP side of the sidecar: GET /health and GET /overview as JSON, WebSocket upgrades handed on,
+ * everything else 404. /overview is lab-wide (nothing per user) and meant for the web app's server,
+ * which reaches it on loopback; the browser never calls the sidecar over HTTP.
+ */
 export function createHttpServer(deps: {
   health: () => { status: "ok" | "degraded" } & Record<string, unknown>;
+  overview: () => object;
   upgrade: (req: http.IncomingMessage, socket: Duplex, head: Buffer) => void;
 }): http.Server {
   const server = http.createServer((req, res) => {
@@ -11,6 +16,11 @@ export function createHttpServer(deps: {
       const body = deps.health();
       res.writeHead(body.status === "ok" ? 200 : 503, { "content-type": "application/json", "cache-control": "no-store" });
       res.end(JSON.stringify(body));
+      return;
+    }
+    if (req.method === "GET" && req.url === "/overview") {
+      res.writeHead(200, { "content-type": "application/json", "cache-control": "no-store" });
+      res.end(JSON.stringify(deps.overview()));
       return;
     }
     res.writeHead(404, { "content-type": "application/json" });

@@ -3,7 +3,7 @@ import type { Server } from "node:http";
 import type { Db } from "@/db/client";
 import { listChannels } from "@/db/queries/channels";
 import { filteredTopic, SAMPLES_FILTER, sharedFilter } from "@/lib/protocol";
-import type { MessageBus } from "./broker/bus";
+import type { BusState, MessageBus } from "./broker/bus";
 import { deviceAuthHooks, type InternalCredential } from "./broker/device-auth";
 import { inProcessBus, startEmbeddedBroker, type EmbeddedBroker } from "./broker/embedded";
 import { connectMqttBus } from "./broker/mqtt-bus";
@@ -11,11 +11,13 @@ import type { Clock, Logger } from "./clock";
 import { createConfigExchange, type ConfigExchange } from "./devices/config-exchange";
 import { startDemoRig, type DemoRigHandle } from "./demo-rig/rig";
 import { createHttpServer, listen } from "./http";
-import { createFaultLog, type FaultLog } from "./ingest/fault-log";
+import { createFaultLog, type FaultCounts, type FaultLog } from "./ingest/fault-log";
 import { createIngest, type Ingest } from "./ingest/ingest";
+import { trackDeviceStatus, type DeviceStatusTracker } from "./ingest/status";
 import { createPipeline, type Pipeline } from "./pipeline/pipeline";
+import type { Spark } from "./pipeline/spark";
 import { createHub, type Hub } from "./ws/hub";
-import { createWsEndpoint } from "./ws/upgrade";
+import { accountsByIds, createWsEndpoint } from "./ws/upgrade";
 
 export type MqttSetup =
   | { mode: "embedded"; host: string; port: number; requireDeviceAuth: boolean; internal?: InternalCredential[] }
@@ -45,6 +47,24 @@ export interface SidecarOptions {
   maxBufferedBytes?: number;
 }
 
+/** One channel on the overview (GET /overview); see server/PROTOCOL.md. */
+export interface ChannelOverview {
+  /** The device's retained status: true online, false offline, null unknown. */
+  online: boolean | null;
+  /** When the sidecar last accepted samples of the channel, epoch ms. */
+  lastSampleAt: number | null;
+  productionRevisionId: string | null;
+  spark: Spark | null;
+  faults: FaultCounts;
+}
+
+export interface Overview {
+  /** The sidecar's clock when the answer was made, epoch ms (ages are measured against it). */
+  now: number;
+  mqtt: BusState;
+  channels: Record<string, ChannelOverview>;
+}
+
 export interface Sidecar {
   httpPort: number;
   /** The embedded broker's port, when embedded. */
@@ -58,7 +78,9 @@ export interface Sidecar {
   hub: Hub;
   configs: ConfigExchange;
   broker: EmbeddedBroker | undefined;
+  devices: DeviceStatusTracker;
   health(): { status: "ok" | "degraded" } & Record<string, unknown>;
+  overview(): Overview;
   close(): Promise<void>;
 }
 
@@ -94,6 +116,7 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
 
   const pipeline = createPipeline({
     channels,
+    now: () => clock.now(),
     onFiltered: opts.republishFiltered
       ? (path, batch, values) => {
           const payload = JSON.stringify({ seq: batch.seq, t0: batch.t0, sampleRateHz: batch.sampleRateHz, values: Array.from(values) });
@@ -106,8 +129,17 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     opts.mqtt.mode === "external" && opts.mqtt.sharedGroup ? sharedFilter(opts.mqtt.sharedGroup, SAMPLES_FILTER) : SAMPLES_FILTER;
   await bus.subscribe(samplesFilter, (topic, payload) => ingest.handle(topic, payload));
   const configs = await createConfigExchange({ bus, clock, logger });
+  const devices = await trackDeviceStatus({ bus, logger });
 
-  const hub = createHub({ pipeline, faults, clock, logger, busState: () => bus.state, maxBufferedBytes: opts.maxBufferedBytes });
+  const hub = createHub({
+    pipeline,
+    faults,
+    clock,
+    logger,
+    busState: () => bus.state,
+    accounts: (ids) => accountsByIds(opts.db, ids),
+    maxBufferedBytes: opts.maxBufferedBytes,
+  });
   bus.onState((state) => {
     logger.info(`MQTT ${state}`);
     hub.statusTick();
@@ -138,7 +170,27 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
       faultsByChannel: faults.byChannel(),
     };
   }
-  const server: Server = createHttpServer({ health, upgrade: (req, socket, head) => void ws.handleUpgrade(req, socket, head) });
+  function overview(): Overview {
+    const faultsByChannel = faults.byChannel();
+    return {
+      now: clock.now(),
+      mqtt: bus.state,
+      channels: Object.fromEntries(
+        channels.map(({ path }) => {
+          const [rig, device] = path.split("/");
+          const entry: ChannelOverview = {
+            online: devices.online(rig, device),
+            lastSampleAt: pipeline.lastSampleAt(path),
+            productionRevisionId: pipeline.productionRevision(path),
+            spark: pipeline.spark(path),
+            faults: faultsByChannel[path] ?? {},
+          };
+          return [path, entry];
+        }),
+      ),
+    };
+  }
+  const server: Server = createHttpServer({ health, overview, upgrade: (req, socket, head) => void ws.handleUpgrade(req, socket, head) });
   const httpPort = await listen(server, opts.http.port, opts.http.host);
   if (opts.timers !== false) hub.start();
 
@@ -158,7 +210,9 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     hub,
     configs,
     broker,
+    devices,
     health,
+    overview,
     async close() {
       hub.stop();
       await demo?.stop().catch(() => undefined);

@@ -3,6 +3,7 @@ import { MAX_CANDIDATES_PER_CLIENT, type CandidateMetrics, type SampleBatch } fr
 import type { BatchSink, ChannelInfo } from "../ingest/ingest";
 import { candidateMetrics, rawSpectrum, type RawSpectrum } from "./metrics";
 import { SampleRing } from "./ring";
+import { SparkEnvelope, type Spark } from "./spark";
 
 /** Filter key of the production slot in every channel's bank and in frames. */
 export const PRODUCTION = "production";
@@ -34,6 +35,9 @@ interface LiveChannel {
   nextSeq: number | null;
   /** Set when the filter set changed, so the next batch opens a new block with aligned traces. */
   breakBlock: boolean;
+  /** When the newest batch arrived (the sidecar's clock, epoch ms), or null before the first. */
+  lastSampleAt: number | null;
+  spark: SparkEnvelope;
 }
 
 export class CandidateLimitError extends Error {}
@@ -54,6 +58,10 @@ export interface Pipeline extends BatchSink {
   metrics(path: string, owner: string): Record<string, CandidateMetrics>;
   channel(path: string): ChannelInfo | undefined;
   paths(): string[];
+  /** When the channel's newest batch arrived (epoch ms, the `now` given), or null before the first. */
+  lastSampleAt(path: string): number | null;
+  /** The channel's raw envelope over about the last 30 s (60 buckets of about 500 ms), or null. */
+  spark(path: string): Spark | null;
 }
 
 export const candidateKey = (owner: string, id: string): string => `${owner}/${id}`;
@@ -77,7 +85,10 @@ export function createPipeline(deps: {
   /** Seconds a candidate runs before its metrics are reported (its transient settles). */
   settleSeconds?: number;
   onFiltered?: (path: string, batch: SampleBatch, values: Float64Array) => void;
+  /** The sidecar's clock, for lastSampleAt (epoch ms). */
+  now?: () => number;
 }): Pipeline {
+  const now = deps.now ?? Date.now;
   const historySeconds = deps.historySeconds ?? 60;
   const settleSeconds = deps.settleSeconds ?? 1;
   const bank = createFilterBank();
@@ -92,6 +103,8 @@ export function createPipeline(deps: {
         pending: [],
         nextSeq: null,
         breakBlock: false,
+        lastSampleAt: null,
+        spark: new SparkEnvelope(info.sampleRateHz),
       },
     ]),
   );
@@ -119,6 +132,8 @@ export function createPipeline(deps: {
   function push(path: string, batch: SampleBatch): void {
     const ch = channelOf(path);
     ch.raw.push(batch.values);
+    ch.spark.push(batch.t0, batch.values);
+    ch.lastSampleAt = now();
     const block = blockFor(ch, batch);
     for (let i = 0; i < batch.values.length; i++) block.raw.push(batch.values[i]);
     if (!ch.production && ch.candidates.size === 0) return;
@@ -209,5 +224,7 @@ export function createPipeline(deps: {
     },
     channel: (path) => live.get(path)?.info,
     paths: () => [...live.keys()],
+    lastSampleAt: (path) => channelOf(path).lastSampleAt,
+    spark: (path) => channelOf(path).spark.read(),
   };
 }

@@ -1,7 +1,7 @@
 import { designFilter } from "@/lib/dsp";
-import type { SessionUser } from "@/lib/auth/guard";
-import { requireRole } from "@/lib/auth/guard";
-import type { Role } from "@/lib/auth/roles";
+import { requireRole, resolveSessionUser, type SessionUser, type StoredAccount } from "@/lib/auth/guard";
+import { roleAtLeast, type Role } from "@/lib/auth/roles";
+import type { SessionData } from "@/lib/auth/session-config";
 import { AppError } from "@/lib/errors";
 import { clientMessageSchema, type ClientMessage, type ServerMessage, type WsErrorCode } from "@/lib/protocol";
 import type { BusState } from "../broker/bus";
@@ -15,8 +15,13 @@ import { buildFrames, type ViewState } from "./frames";
 export interface ClientConn {
   /** Unique per connection; owns the connection's candidates. */
   id: string;
+  /** Who opened the connection; the hub keeps its own copy, refreshed on every session recheck. */
   user: SessionUser;
+  /** What the session cookie held (user id and session version), rechecked against the account. */
+  session: SessionData;
   send(text: string): void;
+  /** Closes the socket (WebSocket close code and reason). */
+  close(code: number, reason: string): void;
   /** Bytes queued for the socket but not yet sent (ws.bufferedAmount). */
   bufferedAmount(): number;
 }
@@ -27,6 +32,8 @@ interface Subscription {
 
 interface ClientState {
   conn: ClientConn;
+  /** The user as of the last session recheck: role checks use this, not conn.user. */
+  user: SessionUser;
   subs: Map<string, Subscription>;
   droppedFrames: number;
   /** Channels on which this client has candidates. */
@@ -39,6 +46,8 @@ export interface HubOptions {
   clock: Clock;
   logger: Logger;
   busState: () => BusState;
+  /** The stored accounts of these user ids, in one query (ids without an account are left out). */
+  accounts: (ids: number[]) => Promise<StoredAccount[]>;
   /** A client with more than this many bytes queued loses frames until it catches up. */
   maxBufferedBytes?: number;
   frameIntervalMs?: number;
@@ -56,6 +65,13 @@ export interface Hub {
   /** Sends metrics for the channels in one slice (channel index mod slices); no arguments: all of them. */
   metricsTick(slice?: number, slices?: number): void;
   statusTick(): void;
+  /**
+   * Checks every open connection's session against its account (one query): a missing or disabled
+   * account or a bumped session version closes the socket with SESSION_ENDED; a changed role
+   * applies to later messages, and candidates the new role may not hold are removed. Runs on the
+   * status timer; a call while one is in flight shares it.
+   */
+  recheckSessions(): Promise<void>;
   start(): void;
   stop(): void;
   readonly clientCount: number;
@@ -69,6 +85,9 @@ const REQUIRED_ROLE: Record<ClientMessage["type"], Role> = {
   "candidate.add": "engineer",
   "candidate.remove": "engineer",
 };
+
+/** WebSocket close code for a session that is no longer valid (4000–4999 are the application's, RFC 6455 §7.4.2). */
+export const SESSION_ENDED = 4401;
 
 class Refusal extends Error {
   constructor(readonly code: WsErrorCode, message: string) {
@@ -86,6 +105,7 @@ export function createHub(opts: HubOptions): Hub {
   const clients = new Map<string, ClientState>();
   const views = new Map<string, ViewState>();
   const timers: Timer[] = [];
+  let recheck: Promise<void> | null = null;
 
   function send(state: ClientState, message: ServerMessage): void {
     state.conn.send(JSON.stringify(message));
@@ -120,7 +140,7 @@ export function createHub(opts: HubOptions): Hub {
   /** Entry order for every message: (parsed) → role → channel → act. */
   function handle(state: ClientState, msg: ClientMessage): void {
     const { pipeline } = opts;
-    requireRole(state.conn.user, REQUIRED_ROLE[msg.type]);
+    requireRole(state.user, REQUIRED_ROLE[msg.type]);
     const info = pipeline.channel(msg.channel);
     if (!info) throw new Refusal("unknown_channel", `No channel ${msg.channel}.`);
     switch (msg.type) {
@@ -186,12 +206,42 @@ export function createHub(opts: HubOptions): Hub {
     }
   }
 
+  /** Drops every candidate of a client (its role no longer allows them). */
+  function dropCandidates(state: ClientState): void {
+    opts.pipeline.removeOwner(state.conn.id);
+    for (const path of state.candidates.keys()) forgetViews(state, path);
+    state.candidates.clear();
+  }
+
+  async function recheckOnce(): Promise<void> {
+    const open = [...clients.values()];
+    if (!open.length) return;
+    const ids = [...new Set(open.map((s) => s.conn.user.id))];
+    const accounts = new Map((await opts.accounts(ids)).map((a) => [a.id, a]));
+    for (const state of open) {
+      if (clients.get(state.conn.id) !== state) continue;
+      const user = resolveSessionUser(state.conn.session, accounts.get(state.conn.user.id));
+      if (!user) {
+        hub.remove(state.conn.id);
+        state.conn.close(SESSION_ENDED, "Your session has ended. Sign in again.");
+        continue;
+      }
+      const before = state.user.role;
+      state.user = user;
+      if (user.role === before) continue;
+      if (roleAtLeast(user.role, REQUIRED_ROLE["candidate.add"])) continue;
+      const held = [...state.candidates.values()].some((owned) => owned.size > 0);
+      dropCandidates(state);
+      if (held) send(state, { type: "error", code: "forbidden", message: `Your role is now ${user.role}; your candidates were removed.` });
+    }
+  }
+
   const hub: Hub = {
     get clientCount() {
       return clients.size;
     },
     add(conn) {
-      const state: ClientState = { conn, subs: new Map(), droppedFrames: 0, candidates: new Map() };
+      const state: ClientState = { conn, user: conn.user, subs: new Map(), droppedFrames: 0, candidates: new Map() };
       clients.set(conn.id, state);
       const channels = opts.pipeline.paths().map((path) => ({ path, sampleRateHz: opts.pipeline.channel(path)!.sampleRateHz }));
       send(state, { type: "hello", protocol: 1, role: conn.user.role, channels });
@@ -201,8 +251,7 @@ export function createHub(opts: HubOptions): Hub {
       const state = clients.get(id);
       if (!state) return;
       clients.delete(id);
-      opts.pipeline.removeOwner(id);
-      for (const path of state.candidates.keys()) forgetViews(state, path);
+      dropCandidates(state);
     },
     message(id, text) {
       const state = clients.get(id);
@@ -253,6 +302,14 @@ export function createHub(opts: HubOptions): Hub {
       }
       for (const [key, view] of views) if (!live.has(view)) views.delete(key);
     },
+    recheckSessions() {
+      recheck ??= recheckOnce()
+        .catch((err) => opts.logger.warn(`session recheck failed: ${err instanceof Error ? err.message : String(err)}`))
+        .finally(() => {
+          recheck = null;
+        });
+      return recheck;
+    },
     start() {
       // Metrics are spread over the frame ticks (channel i on tick i mod slices), so each channel's
       // come about every metricsIntervalMs without one long pause of the event loop.
@@ -265,7 +322,12 @@ export function createHub(opts: HubOptions): Hub {
           guarded("metrics", () => hub.metricsTick(tickCount++ % slices, slices));
         }, frameMs),
       );
-      timers.push(opts.clock.setInterval(() => guarded("status", hub.statusTick), opts.statusIntervalMs ?? 2000));
+      timers.push(
+        opts.clock.setInterval(() => {
+          guarded("status", hub.statusTick);
+          void hub.recheckSessions();
+        }, opts.statusIntervalMs ?? 2000),
+      );
     },
     stop() {
       for (const t of timers.splice(0)) opts.clock.clearInterval(t);

@@ -4,7 +4,7 @@ import { unsealData } from "iron-session";
 import { WebSocketServer, type WebSocket } from "ws";
 import type { Db } from "@/db/client";
 import { findUserById } from "@/db/queries/users";
-import { resolveSessionUser, type SessionUser } from "@/lib/auth/guard";
+import { resolveSessionUser, type SessionUser, type StoredAccount } from "@/lib/auth/guard";
 import { SESSION_COOKIE, type SessionData } from "@/lib/auth/session-config";
 import type { Logger } from "../clock";
 import type { Hub } from "./hub";
@@ -26,14 +26,30 @@ function cookieValue(header: string | undefined, name: string): string | undefin
 /**
  * The signed-in user behind an upgrade request, through the one session guard: the iron-session
  * cookie is unsealed (unsealData returns {} for a missing, forged or expired seal), then the account
- * must exist, be enabled and carry the same session version.
+ * must exist, be enabled and carry the same session version. The session is returned too, so the
+ * hub can run the same check again while the connection is open.
  */
-export async function userFromUpgrade(req: IncomingMessage, db: Db, sessionSecret: string, ttl: number): Promise<SessionUser | null> {
+export async function userFromUpgrade(
+  req: IncomingMessage,
+  db: Db,
+  sessionSecret: string,
+  ttl: number,
+): Promise<{ user: SessionUser; session: SessionData } | null> {
   const sealed = cookieValue(req.headers.cookie, SESSION_COOKIE);
   if (!sealed) return null;
   const session = await unsealData<SessionData>(sealed, { password: sessionSecret, ttl });
   if (typeof session.userId !== "number") return null;
-  return resolveSessionUser(session, await findUserById(db, session.userId));
+  const user = resolveSessionUser(session, await findUserById(db, session.userId));
+  return user ? { user, session: { userId: session.userId, sessionVersion: session.sessionVersion } } : null;
+}
+
+/**
+ * The accounts behind open connections, in one query, for the hub's session recheck. It belongs
+ * beside findUserById in db/queries/users.ts; it lives here until that file can take it.
+ */
+export async function accountsByIds(db: Db, ids: number[]): Promise<StoredAccount[]> {
+  if (!ids.length) return [];
+  return db.selectFrom("users").select(["id", "email", "display_name", "role", "disabled", "session_version"]).where("id", "in", ids).execute();
 }
 
 function refuse(socket: Duplex, status: 401 | 403 | 404 | 503, text: string): void {
@@ -55,11 +71,18 @@ export function createWsEndpoint(deps: {
   const wss = new WebSocketServer({ noServer: true, maxPayload: MAX_CLIENT_MESSAGE, perMessageDeflate: false });
   let next = 0;
 
-  function attach(ws: WebSocket, user: SessionUser): void {
+  function attach(ws: WebSocket, user: SessionUser, session: SessionData): void {
     const id = `c${++next}`;
     const socket = (ws as unknown as { _socket?: { setNoDelay?: (on: boolean) => void } })._socket;
     socket?.setNoDelay?.(true);
-    deps.hub.add({ id, user, send: (text) => ws.send(text), bufferedAmount: () => ws.bufferedAmount });
+    deps.hub.add({
+      id,
+      user,
+      session,
+      send: (text) => ws.send(text),
+      bufferedAmount: () => ws.bufferedAmount,
+      close: (code, reason) => ws.close(code, reason),
+    });
     ws.on("message", (data, isBinary) => {
       if (isBinary) return deps.hub.message(id, "\u0000");
       deps.hub.message(id, data.toString());
@@ -74,9 +97,9 @@ export function createWsEndpoint(deps: {
       if (new URL(req.url ?? "/", "http://sidecar").pathname !== WS_PATH) return refuse(socket, 404, "Not Found");
       const origin = req.headers.origin;
       if (deps.allowedOrigins && origin && !deps.allowedOrigins.includes(origin)) return refuse(socket, 403, "Forbidden");
-      const user = await userFromUpgrade(req, deps.db, deps.sessionSecret, deps.sessionTtlSeconds);
-      if (!user) return refuse(socket, 401, "Unauthorized");
-      wss.handleUpgrade(req, socket, head, (ws) => attach(ws, user));
+      const signedIn = await userFromUpgrade(req, deps.db, deps.sessionSecret, deps.sessionTtlSeconds);
+      if (!signedIn) return refuse(socket, 401, "Unauthorized");
+      wss.handleUpgrade(req, socket, head, (ws) => attach(ws, signedIn.user, signedIn.session));
     } catch (err) {
       deps.logger.warn(`upgrade failed: ${err instanceof Error ? err.message : String(err)}`);
       refuse(socket, 503, "Service Unavailable");
