@@ -1,0 +1,65 @@
+import type { FilterDesign, FilterSpec, QuantFormat, QuantizedDesign } from "@/lib/dsp";
+
+/** The export file formats. */
+export const EXPORT_FORMATS = ["c-header", "json", "scipy"] as const;
+export type ExportFormat = (typeof EXPORT_FORMATS)[number];
+
+/** Number formats an export can target (the device formats). */
+export const EXPORT_TARGETS = ["f32", "q15", "q31"] as const satisfies readonly QuantFormat[];
+export type ExportTarget = (typeof EXPORT_TARGETS)[number];
+
+/** Formats loaded into firmware: refused for unstable designs. scipy arrays are for analysis. */
+export const FIRMWARE_FORMATS: readonly ExportFormat[] = ["c-header", "json"];
+
+/** Everything an export needs to know about one revision; the caller reads it from the database. */
+export interface ExportSource {
+  setId: number;
+  setName: string;
+  revisionId: number;
+  revision: number;
+  /** Channel path rig/device/channel the coefficients are for. */
+  channel: string;
+  spec: FilterSpec;
+  design: FilterDesign;
+  /** The format the revision was quantized for when saved, and that stored quantized form. */
+  storedFormat: ExportTarget;
+  storedQuantized: QuantizedDesign | null;
+  /** The latest approving review, if any. */
+  approval: { by: string; at: Date } | null;
+  /** Set for production exports: the active deployment and its device-config checksum. */
+  deployment?: { id: number; checksum: string };
+}
+
+/** A revision's coefficients for one target, checked and ready to render. */
+export interface PreparedExport {
+  source: ExportSource;
+  target: ExportTarget;
+  quantized: QuantizedDesign;
+  /** Float design and quantized sections both stable. */
+  stable: boolean;
+  /** Why it is not stable, when it is not. */
+  instability?: string;
+  /** The hashed coefficient content (see coefficientContent) and its SHA-256, lowercase hex. */
+  content: CoefficientContent;
+  contentHash: string;
+  /** C identifier stem, lowercase, unique per set name, revision and target (e.g. hum_notch_r3_q15). */
+  name: string;
+}
+
+/**
+ * The coefficient content an export's hash covers, identical to the JSON export's `coefficients`.
+ * f32 sections: [b0, b1, b2, a1, a2] as float32 values; q15/q31: words [b0, b1, b2, a1, a2] and post-shift.
+ */
+export type CoefficientContent =
+  | { v: 1; format: "f32"; structure: "df2t"; sampleRateHz: number; sections: number[][] }
+  | { v: 1; format: "q15" | "q31"; structure: "df1"; sampleRateHz: number; sections: { words: number[]; shift: number }[] };
+
+/** A rendered file, ready to send. */
+export interface ExportFile {
+  body: string;
+  contentType: string;
+  filename: string;
+}
+
+/** Why a revision cannot be exported as asked; the message is safe to show. */
+export class ExportRefusal extends Error {}
