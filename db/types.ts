@@ -152,6 +152,20 @@ export interface MailboxTable {
   raw: string;
 }
 
+export type TokenScope = "export:read";
+
+/** API tokens for build pipelines: only the SHA-256 of the token is kept. */
+export interface ApiTokensTable {
+  id: Generated<number>;
+  user_id: number;
+  name: string;
+  token_hash: string;
+  scope: ColumnType<TokenScope, TokenScope | undefined, never>;
+  created_at: CreatedAt;
+  last_used_at: ColumnType<Date | null, never, Date | string | null>;
+  revoked_at: ColumnType<Date | null, never, Date | string | null>;
+}
+
 export interface Database {
   users: UsersTable;
   rigs: RigsTable;
@@ -166,6 +180,7 @@ export interface Database {
   deployments: DeploymentsTable;
   mail_outbox: MailOutboxTable;
   mailbox: MailboxTable;
+  api_tokens: ApiTokensTable;
 }
 
 export type User = Selectable<UsersTable>;

@@ -3,6 +3,7 @@ import * as m0001 from "./20261201_0001_lab_users_audit";
 import * as m0002 from "./20261201_0002_device_credentials";
 import * as m0003 from "./20261201_0003_coefficient_sets";
 import * as m0004 from "./20261201_0004_mail";
+import * as m0005 from "./20261201_0005_api_tokens";
 
 /** Every migration in order; a static list so tsx, vitest and bundlers load them alike. */
 export const migrations: Record<string, Migration> = {
@@ -10,6 +11,7 @@ export const migrations: Record<string, Migration> = {
   "20261201_0002_device_credentials": m0002,
   "20261201_0003_coefficient_sets": m0003,
   "20261201_0004_mail": m0004,
+  "20261201_0005_api_tokens": m0005,
 };
 
 export const migrationProvider: MigrationProvider = { getMigrations: async () => migrations };
