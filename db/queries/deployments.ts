@@ -1,10 +1,10 @@
 import { sql, type Transaction } from "kysely";
 import type { SessionUser } from "@/lib/auth/guard";
-import { DeploymentRefusal, quantizeForTarget, signDeviceConfig, unsignedDeviceConfig, type DeploymentTarget } from "@/lib/coefficients";
+import { channelConfigChecksum, channelConfigEntry, DeploymentRefusal, quantizeForTarget, type DeploymentTarget } from "@/lib/coefficients";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { AppError } from "@/lib/errors";
 import { deploymentMail, type DeploymentRef } from "@/lib/mail/templates";
-import type { DeviceConfig } from "@/lib/protocol";
+import type { ChannelConfig } from "@/lib/protocol";
 import { decide } from "@/lib/workflow";
 import type { Db } from "../client";
 import type { Database, DeploymentKind } from "../types";
@@ -49,6 +49,7 @@ function deploymentQuery(db: Conn) {
       "p.channel_id as channelId",
       pathExpr.as("channel"),
       "rg.key as rigKey",
+      "d.id as deviceId",
       "d.key as deviceKey",
       "c.key as channelKey",
       "c.sample_rate_hz as sampleRateHz",
@@ -68,8 +69,10 @@ export interface DeploymentView {
   kind: DeploymentKind;
   state: "pending" | "active" | "superseded" | "failed" | "rolled_back";
   format: "f32" | "q15" | "q31";
+  /** SHA-256 of canonicalJson(config): the content hash of what this channel runs. */
   checksum: string;
-  config: DeviceConfig;
+  /** This channel's entry of the device configuration document (lib/protocol channelConfigSchema). */
+  config: ChannelConfig;
   previousId: number | null;
   requestedAt: Date;
   activatedAt: Date | null;
@@ -79,6 +82,7 @@ export interface DeploymentView {
   channelId: number;
   channel: string;
   rigKey: string;
+  deviceId: number;
   deviceKey: string;
   channelKey: string;
   sampleRateHz: number;
@@ -116,6 +120,29 @@ export async function listActiveDeployments(db: Conn): Promise<DeploymentView[]>
   return (await deploymentQuery(db).where("p.state", "=", "active").execute()) as DeploymentView[];
 }
 
+/** A channel of a device with its active deployment, if any (what the device runs once it acknowledged). */
+export interface DeviceChannelState {
+  channelId: number;
+  channelKey: string;
+  active: { id: number; config: ChannelConfig; checksum: string } | null;
+}
+
+/** Every channel of a device, ordered by key, each with its active deployment's config entry. */
+export async function listDeviceChannelStates(db: Conn, deviceId: number): Promise<DeviceChannelState[]> {
+  const rows = await db
+    .selectFrom("channels as c")
+    .leftJoin("deployments as p", (join) => join.onRef("p.channel_id", "=", "c.id").on("p.state", "=", "active"))
+    .select(["c.id as channelId", "c.key as channelKey", "p.id as deploymentId", "p.config", "p.checksum"])
+    .where("c.device_id", "=", deviceId)
+    .orderBy("c.key")
+    .execute();
+  return rows.map((r) => ({
+    channelId: r.channelId,
+    channelKey: r.channelKey,
+    active: r.deploymentId === null ? null : { id: r.deploymentId, config: r.config as ChannelConfig, checksum: r.checksum! },
+  }));
+}
+
 export async function listPendingDeploymentIds(db: Conn): Promise<number[]> {
   const rows = await db.selectFrom("deployments").select("id").where("state", "=", "pending").orderBy("id").execute();
   return rows.map((r) => r.id);
@@ -137,7 +164,15 @@ function isUniqueViolation(err: unknown): boolean {
 
 async function insertPending(
   trx: Transaction<Database>,
-  values: { revisionId: number; channel: ChannelRow; kind: DeploymentKind; config: DeviceConfig; previousId: number | null; actorId: number },
+  values: {
+    revisionId: number;
+    channel: ChannelRow;
+    kind: DeploymentKind;
+    config: ChannelConfig;
+    checksum: string;
+    previousId: number | null;
+    actorId: number;
+  },
 ): Promise<number> {
   try {
     const row = await trx
@@ -148,7 +183,7 @@ async function insertPending(
         kind: values.kind,
         format: values.config.format,
         config: JSON.stringify(values.config),
-        checksum: values.config.checksum,
+        checksum: values.checksum,
         previous_id: values.previousId,
         requested_by: values.actorId,
       })
@@ -187,23 +222,23 @@ export async function requestPromotion(
   for (const path of [...new Set(channelPaths)]) {
     const channel = await findChannelByPath(trx, path);
     if (!channel) throw new AppError("not_found", `No channel ${path}.`);
-    let config: DeviceConfig;
+    let config: ChannelConfig;
     try {
-      const quantized = quantizeForTarget(rev.design, targetOf(channel));
-      config = await signDeviceConfig(unsignedDeviceConfig(String(rev.id), targetOf(channel), quantized));
+      config = channelConfigEntry(String(rev.id), targetOf(channel), quantizeForTarget(rev.design, targetOf(channel)));
     } catch (err) {
       if (err instanceof DeploymentRefusal) throw new AppError("unprocessable", `Refused for ${path}: ${err.message}.`);
       throw err;
     }
     const active = await findActiveDeployment(trx, channel.id);
-    const id = await insertPending(trx, { revisionId: rev.id, channel, kind: "promote", config, previousId: active?.id ?? null, actorId: actor.id });
+    const checksum = await channelConfigChecksum(config);
+    const id = await insertPending(trx, { revisionId: rev.id, channel, kind: "promote", config, checksum, previousId: active?.id ?? null, actorId: actor.id });
     await appendAudit(trx, {
       actorId: actor.id,
       action: "deployment.request",
       entity: "deployment",
       entityId: id,
       before: active ? { activeDeployment: active.id, revisionId: active.revisionId } : null,
-      after: { revisionId: rev.id, setId: rev.setId, revision: rev.revision, channel: path, format: config.format, checksum: config.checksum },
+      after: { revisionId: rev.id, setId: rev.setId, revision: rev.revision, channel: path, format: config.format, checksum },
     });
     deployments.push({ id, channel: path });
   }
@@ -234,6 +269,7 @@ export async function requestRollback(
     channel,
     kind: "rollback",
     config: previous.config,
+    checksum: previous.checksum,
     previousId: active.id,
     actorId: actor.id,
   });

@@ -1,5 +1,5 @@
 import { quantizeDesign, stability, type FilterDesign, type QuantizedDesign } from "@/lib/dsp";
-import { canonicalJson, checksumSubject, type ConfigFormat, type DeviceConfig, type UnsignedDeviceConfig } from "@/lib/protocol";
+import { canonicalJson, type ChannelConfig, type ConfigFormat } from "@/lib/protocol";
 import { deployability } from "./revision-content";
 import { sectionsDesign } from "./sections";
 
@@ -36,13 +36,13 @@ export function quantizeForTarget(design: FilterDesign, target: DeploymentTarget
 }
 
 /**
- * The device config v1 for a quantized sections design, without its checksum. f32: SOS rows with
- * a0 = 1; Q15/Q31: words [b0, b1, b2, a1, a2] and the section's post-shift, in our sign convention
- * (y = b0·x + … − a1·y₋₁ − a2·y₋₂, lib/dsp quantizeDesign).
+ * One channel's entry of a device configuration (v2) for a quantized sections design. f32: SOS rows
+ * with a0 = 1; Q15/Q31: words [b0, b1, b2, a1, a2] and the section's post-shift, in our sign
+ * convention (y = b0·x + … − a1·y₋₁ − a2·y₋₂, lib/dsp quantizeDesign).
  */
-export function unsignedDeviceConfig(revisionId: string, target: DeploymentTarget, q: QuantizedDesign): UnsignedDeviceConfig {
+export function channelConfigEntry(revisionId: string, target: DeploymentTarget, q: QuantizedDesign): ChannelConfig {
   const sos = q.sos ?? [];
-  const base = { v: 1 as const, revisionId, channel: target.channelKey, sampleRateHz: target.sampleRateHz };
+  const base = { revisionId, sampleRateHz: target.sampleRateHz };
   if (q.format === "f32") {
     return { ...base, format: "f32", sections: sos.map((r) => [r[0], r[1], r[2], 1, r[4], r[5]]) };
   }
@@ -51,14 +51,12 @@ export function unsignedDeviceConfig(revisionId: string, target: DeploymentTarge
   return q.format === "q15" ? { ...base, format: "q15", sections } : { ...base, format: "q31", sections };
 }
 
-/** Lowercase hex SHA-256 of the canonical JSON of the config without its checksum (Web Crypto, so browser and Node agree). */
-export async function configChecksum(config: DeviceConfig | UnsignedDeviceConfig): Promise<string> {
-  const bytes = new TextEncoder().encode(canonicalJson(checksumSubject(config)));
+/**
+ * The content hash recorded with a deployment: lowercase hex SHA-256 of canonicalJson(entry), through
+ * Web Crypto so browser and Node agree (the same rules as the device configuration's checksum).
+ */
+export async function channelConfigChecksum(entry: ChannelConfig): Promise<string> {
+  const bytes = new TextEncoder().encode(canonicalJson(entry));
   const digest = await crypto.subtle.digest("SHA-256", bytes);
   return [...new Uint8Array(digest)].map((b) => b.toString(16).padStart(2, "0")).join("");
-}
-
-/** The config with its checksum, ready to publish. */
-export async function signDeviceConfig(config: UnsignedDeviceConfig): Promise<DeviceConfig> {
-  return { ...config, checksum: await configChecksum(config) } as DeviceConfig;
 }

@@ -1,13 +1,15 @@
-import { deviceConfigSchema, type DeviceAck } from "@/lib/protocol";
+import { deviceConfigSchema, type DeviceAck, type DeviceConfig } from "@/lib/protocol";
 import type { DemoDevice } from "@/lib/demo/lab";
 import { checksumMatches } from "../devices/checksum";
 
 /**
- * What a demo device answers to a config payload: "applied" when it parses, its checksum matches,
- * and channel, format and sample rate are this device's; "refused" with the reason otherwise.
- * Null when the payload is too broken to name a revision (nothing to acknowledge).
+ * What a demo device answers to a configuration document (v2): "applied" when it parses, its
+ * checksum matches, it is addressed to this device, and it names exactly this device's channels,
+ * each in the device's format at the channel's sample rate (or null, pass-through); "refused" with
+ * the first reason otherwise. The document is applied whole or not at all. Null when the payload is
+ * too broken to name a configId and checksum (nothing to acknowledge).
  */
-export function answerConfig(device: DemoDevice, payload: Buffer): DeviceAck | null {
+export function answerConfig(rigKey: string, device: DemoDevice, payload: Buffer): DeviceAck | null {
   let json: unknown;
   try {
     json = JSON.parse(payload.toString("utf8"));
@@ -16,16 +18,28 @@ export function answerConfig(device: DemoDevice, payload: Buffer): DeviceAck | n
   }
   const parsed = deviceConfigSchema.safeParse(json);
   if (!parsed.success) {
-    const { revisionId, checksum } = (json ?? {}) as { revisionId?: unknown; checksum?: unknown };
-    if (typeof revisionId !== "string" || typeof checksum !== "string" || !/^[0-9a-f]{64}$/.test(checksum)) return null;
-    return { v: 1, revisionId: revisionId.slice(0, 64), checksum, status: "refused", reason: "malformed config" };
+    const { configId, checksum } = (json ?? {}) as { configId?: unknown; checksum?: unknown };
+    if (typeof configId !== "string" || typeof checksum !== "string" || !/^[0-9a-f]{64}$/.test(checksum)) return null;
+    return { v: 2, configId: configId.slice(0, 64), checksum, status: "refused", reason: "malformed config" };
   }
   const config = parsed.data;
-  const refuse = (reason: string): DeviceAck => ({ v: 1, revisionId: config.revisionId, checksum: config.checksum, status: "refused", reason });
-  if (!checksumMatches(config)) return refuse("checksum mismatch");
-  const channel = device.channels.find((c) => c.key === config.channel);
-  if (!channel) return refuse(`no channel ${config.channel} on this device`);
-  if (config.format !== device.coefficientFormat) return refuse(`this device runs ${device.coefficientFormat}, not ${config.format}`);
-  if (config.sampleRateHz !== channel.sampleRateHz) return refuse(`channel runs at ${channel.sampleRateHz} Hz`);
-  return { v: 1, revisionId: config.revisionId, checksum: config.checksum, status: "applied" };
+  const reason = refusalReason(rigKey, device, config);
+  const ack = { v: 2 as const, configId: config.configId, checksum: config.checksum };
+  return reason ? { ...ack, status: "refused", reason } : { ...ack, status: "applied" };
+}
+
+function refusalReason(rigKey: string, device: DemoDevice, config: DeviceConfig): string | null {
+  if (!checksumMatches(config)) return "checksum mismatch";
+  if (config.device !== `${rigKey}/${device.key}`) return `addressed to ${config.device}, not this device`;
+  for (const key of Object.keys(config.channels)) {
+    if (!device.channels.some((c) => c.key === key)) return `no channel ${key} on this device`;
+  }
+  for (const channel of device.channels) {
+    if (!Object.hasOwn(config.channels, channel.key)) return `no entry for channel ${channel.key}`;
+    const entry = config.channels[channel.key];
+    if (entry === null) continue;
+    if (entry.format !== device.coefficientFormat) return `${channel.key}: this device runs ${device.coefficientFormat}, not ${entry.format}`;
+    if (entry.sampleRateHz !== channel.sampleRateHz) return `${channel.key}: channel runs at ${channel.sampleRateHz} Hz`;
+  }
+  return null;
 }

@@ -78,7 +78,7 @@ export async function startDemoRig(opts: DemoRigOptions): Promise<DemoRigHandle>
       announce();
       client.on("message", (topic, payload) => {
         try {
-          const ack = answerConfig(device, payload);
+          const ack = answerConfig(rig.key, device, payload);
           if (ack) client.publish(ackTopic(rig.key, device.key), JSON.stringify(ack), { qos: 1 });
         } catch (err) {
           opts.logger.warn(`demo ${device.key} config handler: ${err instanceof Error ? err.message : String(err)}`);

@@ -4,20 +4,20 @@ import {
   DEPLOY_CHANNEL,
   deployedDesign,
   failDeployment,
-  findActiveDeployment,
   findDeployment,
   listActiveDeployments,
   listPendingDeploymentIds,
   type DeploymentView,
 } from "@/db/queries/deployments";
-import { configTopic } from "@/lib/protocol";
+import { configTopic, type DeviceConfig } from "@/lib/protocol";
 import type { MessageBus } from "../broker/bus";
 import type { Clock, Logger } from "../clock";
 import type { ConfigExchange, ConfigOutcome } from "../devices/config-exchange";
 import type { Pipeline } from "../pipeline/pipeline";
+import { buildDeviceDocument, type DeviceRef } from "./document";
 import { listenForNotifications } from "./listen";
 
-/** How long a device has to acknowledge a config before the deployment fails (ms). */
+/** How long a device has to acknowledge a configuration document before the deployment fails (ms). */
 export const DEFAULT_ACK_TIMEOUT_MS = 10_000;
 
 export interface DeploymentWorkerDeps {
@@ -25,7 +25,7 @@ export interface DeploymentWorkerDeps {
   /** Connection string for the worker's own LISTEN connection. */
   databaseUrl: string;
   exchange: ConfigExchange;
-  /** Used to put the previous config back as the retained message after a failure. */
+  /** Used to put the previous document back as the retained message after a failure. */
   bus: Pick<MessageBus, "publish">;
   pipeline?: Pick<Pipeline, "setProductionFilter">;
   clock: Clock;
@@ -43,24 +43,51 @@ export interface DeploymentWorker {
   stop(): Promise<void>;
 }
 
+function deviceOf(d: DeploymentView): DeviceRef {
+  return { id: d.deviceId, rigKey: d.rigKey, key: d.deviceKey };
+}
+
 /**
  * The sidecar side of promotion: for every pending deployment (notified on DEPLOY_CHANNEL, and swept
- * at start and after a reconnect) it sends the stored config through the device config exchange and
- * waits for the ack. Applied with the same revision and checksum → active (previous superseded) and the
- * live pipeline's production filter switches; refused or no ack within ackTimeoutMs → failed, the
- * previous config is put back as the retained message and the previous revision stays active.
+ * at start and after a reconnect) it builds the device's whole configuration document (every channel
+ * with its active entry, the deployed channel with the pending one), sends it through the device
+ * config exchange and waits for the ack. Documents are serialised per device: one in flight at a
+ * time, the next queued behind it, so each is built from what the previous one left active. Applied
+ * with the same configId and checksum → active (previous superseded) and the live pipeline's
+ * production filter switches; refused or no ack within ackTimeoutMs → failed, the document of what is
+ * still active is put back as the retained message and the previous revision stays active.
  */
 export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise<DeploymentWorker> {
   const timeoutMs = deps.ackTimeoutMs ?? DEFAULT_ACK_TIMEOUT_MS;
-  const running = new Map<number, Promise<void>>();
+  const scheduled = new Set<number>();
+  const running = new Set<Promise<void>>();
+  /** Per device id: the end of its queue of documents. */
+  const queues = new Map<number, Promise<void>>();
   let stopped = false;
 
   function schedule(id: number): void {
-    if (stopped || running.has(id)) return;
-    const job = handle(id)
+    if (stopped || scheduled.has(id)) return;
+    scheduled.add(id);
+    const job: Promise<void> = enqueue(id)
       .catch((err: unknown) => deps.logger.warn(`deployment ${id}: ${err instanceof Error ? err.message : String(err)}`))
-      .finally(() => running.delete(id));
-    running.set(id, job);
+      .finally(() => {
+        scheduled.delete(id);
+        running.delete(job);
+      });
+    running.add(job);
+  }
+
+  async function enqueue(id: number): Promise<void> {
+    const d = await findDeployment(deps.db, id);
+    if (!d || d.state !== "pending") return;
+    const turn = (queues.get(d.deviceId) ?? Promise.resolve()).then(() => handle(id));
+    const tail = turn.catch(() => undefined);
+    queues.set(d.deviceId, tail);
+    try {
+      await turn;
+    } finally {
+      if (queues.get(d.deviceId) === tail) queues.delete(d.deviceId);
+    }
   }
 
   async function sweep(): Promise<void> {
@@ -68,12 +95,21 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
   }
 
   async function handle(id: number): Promise<void> {
+    if (stopped) return; // still pending: the next start's sweep sends it
     const d = await findDeployment(deps.db, id);
     if (!d || d.state !== "pending") return;
-    deps.logger.info(`deployment ${id}: sending revision ${d.revisionId} to ${d.channel} (${d.format}, ${d.checksum.slice(0, 12)}…)`);
+    let document: DeviceConfig;
+    try {
+      document = await buildDeviceDocument(deps.db, deviceOf(d), String(d.id), d);
+    } catch (err) {
+      return fail(d, err instanceof Error ? err.message : String(err));
+    }
+    deps.logger.info(
+      `deployment ${id}: sending revision ${d.revisionId} to ${d.channel} (${d.format}, ${d.checksum.slice(0, 12)}…) in config ${document.configId}`,
+    );
     let outcome: ConfigOutcome;
     try {
-      outcome = await deps.exchange.send(d.rigKey, d.deviceKey, d.config, timeoutMs);
+      outcome = await deps.exchange.send(d.rigKey, d.deviceKey, document, timeoutMs);
     } catch (err) {
       return fail(d, `the config could not be published: ${err instanceof Error ? err.message : String(err)}`);
     }
@@ -83,13 +119,17 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
     if (active) applyToPipeline(active);
   }
 
+  /** Fails the deployment and retains the document of what is still active (configId `restore-<id>`). */
   async function fail(d: DeploymentView, reason: string): Promise<void> {
     deps.logger.warn(`deployment ${d.id} failed: ${reason}`);
     const failed = await deps.db.transaction().execute((trx) => failDeployment(trx, d.id, reason));
     if (!failed) return;
-    const previous = await findActiveDeployment(deps.db, d.channelId);
-    const restore = previous ? JSON.stringify(previous.config) : "";
-    await deps.bus.publish(configTopic(d.rigKey, d.deviceKey), restore, { retain: true, qos: 1 }).catch(() => undefined);
+    try {
+      const previous = await buildDeviceDocument(deps.db, deviceOf(d), `restore-${d.id}`, null);
+      await deps.bus.publish(configTopic(d.rigKey, d.deviceKey), JSON.stringify(previous), { retain: true, qos: 1 });
+    } catch (err) {
+      deps.logger.warn(`deployment ${d.id}: previous config not put back: ${err instanceof Error ? err.message : String(err)}`);
+    }
   }
 
   function applyToPipeline(d: DeploymentView): void {
@@ -117,7 +157,7 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
 
   return {
     async idle() {
-      while (running.size) await Promise.all(running.values());
+      while (running.size) await Promise.all(running);
     },
     async stop() {
       stopped = true;

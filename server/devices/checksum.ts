@@ -1,13 +1,23 @@
 import { createHash } from "node:crypto";
-import { canonicalJson, checksumSubject, type DeviceConfig, type UnsignedDeviceConfig } from "@/lib/protocol";
+import { canonicalJson, checksumSubject, type ChannelConfig, type DeviceConfig, type UnsignedDeviceConfig } from "@/lib/protocol";
 
-/** Lowercase hex SHA-256 (FIPS 180-4) of the canonical JSON of a config without its checksum. */
+/** Lowercase hex SHA-256 (FIPS 180-4) of canonicalJson(value). */
+function canonicalSha256(value: ChannelConfig | UnsignedDeviceConfig): string {
+  return createHash("sha256").update(canonicalJson(value), "utf8").digest("hex");
+}
+
+/** The device configuration's checksum: over the document without its checksum field. */
 export function configChecksum(config: DeviceConfig | UnsignedDeviceConfig): string {
-  return createHash("sha256").update(canonicalJson(checksumSubject(config)), "utf8").digest("hex");
+  return canonicalSha256(checksumSubject(config));
+}
+
+/** A channel entry's content hash, as lib/coefficients channelConfigChecksum computes it in the browser. */
+export function channelConfigChecksum(entry: ChannelConfig): string {
+  return canonicalSha256(entry);
 }
 
 export function signConfig(config: UnsignedDeviceConfig): DeviceConfig {
-  return { ...config, checksum: configChecksum(config) } as DeviceConfig;
+  return { ...checksumSubject(config), checksum: configChecksum(config) };
 }
 
 export function checksumMatches(config: DeviceConfig): boolean {

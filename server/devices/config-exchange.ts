@@ -10,16 +10,17 @@ export type ConfigOutcome =
 /** Sends filter configurations to devices and waits for their acknowledgements (used by promotion). */
 export interface ConfigExchange {
   /**
-   * Publishes `config` retained (QoS 1) on the device's config topic and resolves with the first
-   * ack carrying the same revisionId and checksum, or "timeout" after timeoutMs. Acks for other
-   * revisions or checksums are ignored.
+   * Publishes the device configuration document retained (QoS 1) on the device's config topic and
+   * resolves with the first ack carrying the same configId and checksum, or "timeout" after
+   * timeoutMs. Acks for other documents are ignored. The caller sends one document per device at a
+   * time (server/deploy serialises them).
    */
   send(rig: string, device: string, config: DeviceConfig, timeoutMs: number): Promise<ConfigOutcome>;
 }
 
 interface Waiter {
   device: string;
-  revisionId: string;
+  configId: string;
   checksum: string;
   settle: (outcome: ConfigOutcome) => void;
 }
@@ -35,7 +36,7 @@ export async function createConfigExchange(deps: { bus: MessageBus; clock: Clock
       if (!parsed.success) return deps.logger.warn(`ignored malformed ack on ${topic}`);
       const ack = parsed.data;
       for (const w of waiters) {
-        if (w.device === `${t.rig}/${t.device}` && w.revisionId === ack.revisionId && w.checksum === ack.checksum) {
+        if (w.device === `${t.rig}/${t.device}` && w.configId === ack.configId && w.checksum === ack.checksum) {
           w.settle({ status: ack.status, ack });
         }
       }
@@ -50,7 +51,7 @@ export async function createConfigExchange(deps: { bus: MessageBus; clock: Clock
         const timer = deps.clock.setTimeout(() => waiter.settle({ status: "timeout" }), timeoutMs);
         const waiter: Waiter = {
           device: `${rig}/${device}`,
-          revisionId: config.revisionId,
+          configId: config.configId,
           checksum: config.checksum,
           settle(outcome) {
             if (!waiters.delete(waiter)) return;

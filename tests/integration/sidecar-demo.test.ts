@@ -24,12 +24,13 @@ afterAll(async () => {
 });
 
 const unsigned: UnsignedDeviceConfig = {
-  v: 1,
-  revisionId: "rev-42",
-  channel: "input-torque",
-  format: "q15",
-  sampleRateHz: 1000,
-  sections: [{ words: [1024, 2048, 1024, -20000, 9000], shift: 1 }],
+  v: 2,
+  device: "gearbox-endurance/torque-node",
+  configId: "rev-42",
+  channels: {
+    "input-torque": { revisionId: "rev-42", format: "q15", sampleRateHz: 1000, sections: [{ words: [1024, 2048, 1024, -20000, 9000], shift: 1 }] },
+    "shaft-speed": null,
+  },
 };
 
 describe("demo rig (authenticated like a device) and the config exchange", () => {
@@ -67,18 +68,22 @@ describe("demo rig (authenticated like a device) and the config exchange", () =>
   });
 
   it("a wrong checksum, format or channel is refused with the reason", async () => {
-    const tampered = { ...signConfig(unsigned), sampleRateHz: 999 };
+    const signed = signConfig(unsigned);
+    const tampered = { ...signed, channels: { ...signed.channels, "shaft-speed": signed.channels["input-torque"] } };
     expect(await sidecar.configs.send("gearbox-endurance", "torque-node", tampered, 5000)).toMatchObject({
       status: "refused",
       ack: { reason: "checksum mismatch" },
     });
-    const wrongFormat = signConfig({ ...unsigned, revisionId: "rev-43", format: "f32", sections: [[1, 0, 0, 1, 0, 0]] });
-    const refused = await sidecar.configs.send("gearbox-endurance", "torque-node", wrongFormat, 5000);
-    expect(refused.status).toBe("refused");
+    const f32 = { revisionId: "rev-43", format: "f32" as const, sampleRateHz: 1000, sections: [[1, 0, 0, 1, 0, 0]] };
+    const wrongFormat = signConfig({ ...unsigned, configId: "rev-43", channels: { ...unsigned.channels, "input-torque": f32 } });
+    expect(await sidecar.configs.send("gearbox-endurance", "torque-node", wrongFormat, 5000)).toMatchObject({
+      status: "refused",
+      ack: { configId: "rev-43", reason: "input-torque: this device runs q15, not f32" },
+    });
   });
 
   it("times out when no device answers", async () => {
-    const outcome = await sidecar.configs.send("gearbox-endurance", "no-such-node", signConfig(unsigned), 200);
+    const outcome = await sidecar.configs.send("gearbox-endurance", "no-such-node", signConfig({ ...unsigned, device: "gearbox-endurance/no-such-node" }), 200);
     expect(outcome.status).toBe("timeout");
   });
 });

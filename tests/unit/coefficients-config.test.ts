@@ -1,17 +1,21 @@
 import { describe, expect, it } from "vitest";
 import {
-  buildRevisionContent, configChecksum, DeploymentRefusal, MAX_DEVICE_SECTIONS, quantizeForTarget, sectionsDesign,
-  signDeviceConfig, unsignedDeviceConfig, type DeploymentTarget,
+  buildRevisionContent, channelConfigChecksum, channelConfigEntry, DeploymentRefusal, MAX_DEVICE_SECTIONS, quantizeForTarget,
+  sectionsDesign, type DeploymentTarget,
 } from "@/lib/coefficients";
 import { designFilter, frequencyResponse, type FilterSpec } from "@/lib/dsp";
 import { DEMO_RIGS } from "@/lib/demo/lab";
-import { deviceConfigSchema } from "@/lib/protocol";
+import { channelConfigSchema, deviceConfigSchema, type ChannelConfig, type DeviceConfig } from "@/lib/protocol";
 import { answerConfig } from "@/server/demo-rig/config-handler";
-import { configChecksum as nodeChecksum } from "@/server/devices/checksum";
+import { channelConfigChecksum as nodeChannelChecksum, signConfig } from "@/server/devices/checksum";
 
 const butter: FilterSpec = { kind: "iir", family: "butterworth", response: "lowpass", order: 4, cutoffHz: 100, sampleRateHz: 1000 };
 const torqueNode = DEMO_RIGS[0].devices[0]; // q15, input-torque at 1 kHz
 const target = (format: DeploymentTarget["format"]): DeploymentTarget => ({ channelKey: "input-torque", sampleRateHz: 1000, format });
+/** The torque node's whole document with `entry` on input-torque and shaft-speed pass-through. */
+const torqueDocument = (entry: ChannelConfig): DeviceConfig =>
+  signConfig({ v: 2, device: "gearbox-endurance/torque-node", configId: "7", channels: { "input-torque": entry, "shaft-speed": null } });
+const answer = (doc: unknown) => answerConfig("gearbox-endurance", torqueNode, Buffer.from(JSON.stringify(doc)));
 
 describe("revision content", () => {
   it("stores the design, its analysis and the quantized sections for the device format", () => {
@@ -60,28 +64,61 @@ describe("sections form", () => {
   });
 });
 
-describe("device config", () => {
-  it.each(["f32", "q15", "q31"] as const)("builds a schema-valid %s config whose checksum matches the sidecar's", async (format) => {
+describe("device config entry", () => {
+  it.each(["f32", "q15", "q31"] as const)("builds a schema-valid %s entry whose Web Crypto checksum matches the sidecar's", async (format) => {
     const design = designFilter(butter);
-    const config = await signDeviceConfig(unsignedDeviceConfig("42", target(format), quantizeForTarget(design, target(format))));
-    expect(deviceConfigSchema.parse(config)).toEqual(config);
-    expect(config.sections).toHaveLength(2);
-    expect(config.checksum).toBe(nodeChecksum(config));
-    expect(await configChecksum(config)).toBe(config.checksum);
+    const entry = channelConfigEntry("42", target(format), quantizeForTarget(design, target(format)));
+    expect(channelConfigSchema.parse(entry)).toEqual(entry);
+    expect(entry.sections).toHaveLength(2);
+    expect(await channelConfigChecksum(entry)).toBe(nodeChannelChecksum(entry));
+    expect(await channelConfigChecksum(entry)).toMatch(/^[0-9a-f]{64}$/);
   });
 
-  it("is accepted by the demo device for its own format and refused when a byte changes", async () => {
-    const design = designFilter(butter);
-    const config = await signDeviceConfig(unsignedDeviceConfig("7", target("q15"), quantizeForTarget(design, target("q15"))));
-    expect(answerConfig(torqueNode, Buffer.from(JSON.stringify(config)))).toMatchObject({ status: "applied", revisionId: "7" });
-    if (config.format !== "q15") throw new Error("expected q15");
-    const tampered = { ...config, sections: config.sections.map((s, i) => (i === 0 ? { ...s, shift: s.shift + 1 } : s)) };
-    expect(answerConfig(torqueNode, Buffer.from(JSON.stringify(tampered)))).toMatchObject({ status: "refused", reason: "checksum mismatch" });
+  it("goes into a document the demo device applies whole, and refuses when a byte changes", () => {
+    const entry = channelConfigEntry("7", target("q15"), quantizeForTarget(designFilter(butter), target("q15")));
+    const doc = torqueDocument(entry);
+    expect(deviceConfigSchema.parse(doc)).toEqual(doc);
+    expect(answer(doc)).toEqual({ v: 2, configId: "7", checksum: doc.checksum, status: "applied" });
+    if (entry.format !== "q15") throw new Error("expected q15");
+    const tampered = { ...entry, sections: entry.sections.map((s, i) => (i === 0 ? { ...s, shift: s.shift + 1 } : s)) };
+    expect(answer({ ...doc, channels: { ...doc.channels, "input-torque": tampered } })).toMatchObject({
+      configId: "7",
+      checksum: doc.checksum,
+      status: "refused",
+      reason: "checksum mismatch",
+    });
+  });
+
+  it("is refused whole by the demo device for any wrong channel: format, sample rate, unknown or missing channel, other device", () => {
+    const entry = channelConfigEntry("7", target("q15"), quantizeForTarget(designFilter(butter), target("q15")));
+    const f32 = channelConfigEntry("8", target("f32"), quantizeForTarget(designFilter(butter), target("f32")));
+    const reasons = [
+      torqueDocument(f32),
+      signConfig({ v: 2, device: "gearbox-endurance/torque-node", configId: "7", channels: { "input-torque": entry, "shaft-speed": entry } }),
+      signConfig({ v: 2, device: "gearbox-endurance/torque-node", configId: "7", channels: { "input-torque": entry, "shaft-speed": null, spare: null } }),
+      signConfig({ v: 2, device: "gearbox-endurance/torque-node", configId: "7", channels: { "input-torque": entry } }),
+      signConfig({ v: 2, device: "hydraulic-press/torque-node", configId: "7", channels: { "input-torque": entry, "shaft-speed": null } }),
+    ].map((doc) => answer(doc));
+    expect(reasons.map((a) => a?.status)).toEqual(["refused", "refused", "refused", "refused", "refused"]);
+    expect(reasons.map((a) => a?.reason)).toEqual([
+      "input-torque: this device runs q15, not f32",
+      "shaft-speed: channel runs at 500 Hz",
+      "no channel spare on this device",
+      "no entry for channel shaft-speed",
+      "addressed to hydraulic-press/torque-node, not this device",
+    ]);
+  });
+
+  it("answers a malformed document that names a configId and checksum, and ignores one that does not", () => {
+    const doc = torqueDocument(channelConfigEntry("7", target("q15"), quantizeForTarget(designFilter(butter), target("q15"))));
+    expect(answer({ ...doc, v: 1 })).toMatchObject({ configId: "7", status: "refused", reason: "malformed config" });
+    expect(answer({ v: 2, channels: {} })).toBeNull();
+    expect(answerConfig("gearbox-endurance", torqueNode, Buffer.from(""))).toBeNull();
   });
 
   it("writes Q15 words that reproduce the quantized coefficients (word · 2^(shift − 15))", () => {
     const q = quantizeForTarget(designFilter(butter), target("q15"));
-    const config = unsignedDeviceConfig("1", target("q15"), q);
+    const config = channelConfigEntry("1", target("q15"), q);
     if (config.format !== "q15") throw new Error("expected q15");
     config.sections.forEach((s, i) => {
       const [b0, b1, b2, a1, a2] = s.words.map((w) => w * 2 ** (s.shift - 15));
