@@ -1,7 +1,9 @@
 import Link from "next/link";
 import { requirePageUser } from "@/app/_lib/auth";
+import { ChannelLive, type KnownRevision } from "@/components/overview/channel-live";
 import { db } from "@/db";
 import { listChannels, type ChannelRow } from "@/db/queries/channels";
+import { listActiveDeployments } from "@/db/queries/deployments";
 import { formatHz } from "@/lib/format/units";
 
 function groupByRig(channels: ChannelRow[]) {
@@ -16,9 +18,16 @@ function groupByRig(channels: ChannelRow[]) {
   return rigs;
 }
 
+/** Active revisions by id, so a card can name the production filter the sidecar reports and link its set. */
+async function knownRevisions(): Promise<Record<string, KnownRevision>> {
+  const active = await listActiveDeployments(db());
+  return Object.fromEntries(active.map((d) => [String(d.revisionId), { setId: d.setId, setName: d.setName, revision: d.revision }]));
+}
+
 export default async function OverviewPage() {
   await requirePageUser();
-  const rigs = groupByRig(await listChannels(db()));
+  const [channels, revisions] = await Promise.all([listChannels(db()), knownRevisions()]);
+  const rigs = groupByRig(channels);
   return (
     <div className="space-y-6">
       <h1 className="text-xl font-semibold">Overview</h1>
@@ -33,13 +42,14 @@ export default async function OverviewPage() {
               <h3 className="mb-2 text-sm font-medium text-slate-600 dark:text-slate-300">{device.name}</h3>
               <ul className="grid gap-2 sm:grid-cols-2 xl:grid-cols-4">
                 {device.channels.map((c) => (
-                  <li key={c.path}>
-                    <Link href={`/channels/${c.path}`} className="block rounded-md border border-slate-200 px-3 py-2 hover:border-brand-500 dark:border-slate-800">
-                      <span className="block font-medium">{c.name}</span>
+                  <li key={c.path} data-channel={c.path} className="rounded-md border border-slate-200 px-3 py-2 dark:border-slate-800">
+                    <Link href={`/channels/${c.path}`} className="group block">
+                      <span className="block font-medium group-hover:text-brand-600">{c.name}</span>
                       <span className="num block text-xs text-slate-500">
                         {c.path} · {formatHz(c.sampleRateHz)} · {c.unit}
                       </span>
                     </Link>
+                    <ChannelLive path={c.path} unit={c.unit} revisions={revisions} />
                   </li>
                 ))}
               </ul>

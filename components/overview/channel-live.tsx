@@ -1,0 +1,98 @@
+"use client";
+
+import Link from "next/link";
+import type { ReactNode } from "react";
+import { faultSummary, sampleAge } from "./format";
+import type { ChannelLiveState } from "./schema";
+import { Sparkline } from "./sparkline";
+import { useLiveOverview } from "./use-live-overview";
+
+/** A production revision the page could name: its set and revision number. */
+export interface KnownRevision {
+  setId: number;
+  setName: string;
+  revision: number;
+}
+
+/**
+ * The live part of one channel card: device state in words and a dot, last-sample age, production
+ * revision, the last 30 s as a sparkline, fault counts, and the (not yet configured) alarm slot.
+ * Red only for a device offline and for faults.
+ */
+export function ChannelLive({ path, unit, revisions }: { path: string; unit: string; revisions: Record<string, KnownRevision> }) {
+  const query = useLiveOverview();
+  if (query.isPending) {
+    return <LiveShell state="loading">Loading live state…</LiveShell>;
+  }
+  if (query.isError && !query.data) {
+    return <LiveShell state="unavailable">Live state unavailable: {query.error.message}</LiveShell>;
+  }
+  const live = query.data.channels[path];
+  if (!live) return <LiveShell state="unavailable">The live service does not know this channel yet; it reads channels when it starts.</LiveShell>;
+  const ageMs = live.lastSampleAt === null ? null : query.data.now - live.lastSampleAt + (Date.now() - query.dataUpdatedAt);
+  const age = sampleAge(ageMs);
+  const faults = faultSummary(live.faults);
+  return (
+    <div data-testid="channel-live" data-online={String(live.online)} className="mt-2 space-y-1.5 text-xs">
+      {query.isError && <p className="text-slate-500">Live service not answering; showing the last state received.</p>}
+      <div className="flex items-center justify-between gap-2">
+        <div className="space-y-0.5">
+          <DeviceState online={live.online} />
+          <p className={`num ${age.stale ? "font-medium text-slate-700 dark:text-slate-200" : "text-slate-500"}`} data-testid="sample-age">
+            {age.text}
+          </p>
+        </div>
+        {live.spark ? <Sparkline spark={live.spark} unit={unit} /> : <span className="text-slate-400">no trace yet</span>}
+      </div>
+      <Production id={live.productionRevisionId} revisions={revisions} />
+      {faults && (
+        <p className="num text-fault" data-testid="fault-counts">
+          faults: {faults}
+        </p>
+      )}
+      <p className="text-slate-400" data-testid="alarm-state">
+        alarms: none configured
+      </p>
+    </div>
+  );
+}
+
+function LiveShell({ state, children }: { state: "loading" | "unavailable"; children: ReactNode }) {
+  return (
+    <p data-testid="channel-live" data-state={state} role="status" className="mt-2 text-xs text-slate-500">
+      {children}
+    </p>
+  );
+}
+
+function DeviceState({ online }: { online: boolean | null }) {
+  const [label, dot] =
+    online === true
+      ? ["online", "bg-brand-500"]
+      : online === false
+        ? ["offline", "bg-fault"]
+        : ["status unknown", "border border-slate-400 bg-transparent"];
+  return (
+    <p className={`flex items-center gap-1.5 font-medium ${online === false ? "text-fault" : ""}`} data-testid="device-state">
+      <span aria-hidden className={`inline-block size-2 rounded-full ${dot}`} />
+      {label}
+    </p>
+  );
+}
+
+function Production({ id, revisions }: { id: string | null; revisions: Record<string, KnownRevision> }) {
+  if (id === null) return <p className="text-slate-500">production: none</p>;
+  const known = revisions[id];
+  return (
+    <p className="text-slate-600 dark:text-slate-300">
+      production:{" "}
+      {known ? (
+        <Link href={`/sets/${known.setId}`} className="font-medium underline decoration-production decoration-2 underline-offset-2">
+          {known.setName} r{known.revision}
+        </Link>
+      ) : (
+        <span className="num">revision {id}</span>
+      )}
+    </p>
+  );
+}

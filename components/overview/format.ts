@@ -1,0 +1,43 @@
+/** After this long without samples a channel reads as stale, ms. */
+export const STALE_AFTER_MS = 5_000;
+
+/** "0.2 s ago" while fresh; "stale 12 s", "stale 4 min", "stale 2 h" after STALE_AFTER_MS; "no samples yet" for null. */
+export function sampleAge(ageMs: number | null): { text: string; stale: boolean } {
+  if (ageMs === null) return { text: "no samples yet", stale: true };
+  const age = Math.max(0, ageMs);
+  if (age <= STALE_AFTER_MS) return { text: `${(age / 1000).toFixed(1)} s ago`, stale: false };
+  const s = Math.floor(age / 1000);
+  if (s < 120) return { text: `stale ${s} s`, stale: true };
+  if (s < 7200) return { text: `stale ${Math.floor(s / 60)} min`, stale: true };
+  return { text: `stale ${Math.floor(s / 3600)} h`, stale: true };
+}
+
+/** Fault counts as "seq_gap 3 · bad_json 1", largest first; empty when there are none. */
+export function faultSummary(faults: Partial<Record<string, number>>): string {
+  return Object.entries(faults)
+    .filter((e): e is [string, number] => (e[1] ?? 0) > 0)
+    .sort((a, b) => b[1] - a[1])
+    .map(([kind, n]) => `${kind} ${n}`)
+    .join(" · ");
+}
+
+/**
+ * The points of a min/max envelope as one closed SVG polygon: maxima left to right, then minima
+ * right to left, scaled to width × height (y down). A flat envelope sits on the middle line.
+ */
+export function envelopePoints(min: readonly number[], max: readonly number[], width: number, height: number): string {
+  const n = Math.min(min.length, max.length);
+  if (n === 0) return "";
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < n; i++) {
+    lo = Math.min(lo, min[i]);
+    hi = Math.max(hi, max[i]);
+  }
+  const x = (i: number) => (n === 1 ? width / 2 : (i * width) / (n - 1));
+  const y = (v: number) => (hi === lo ? height / 2 : height - ((v - lo) / (hi - lo)) * height);
+  const pts: string[] = [];
+  for (let i = 0; i < n; i++) pts.push(`${x(i).toFixed(1)},${y(max[i]).toFixed(1)}`);
+  for (let i = n - 1; i >= 0; i--) pts.push(`${x(i).toFixed(1)},${y(min[i]).toFixed(1)}`);
+  return pts.join(" ");
+}

@@ -1,0 +1,29 @@
+import { z } from "zod";
+import { FAULT_KINDS } from "@/lib/protocol";
+
+/**
+ * The sidecar's GET /overview answer as the web app reads it (server/PROTOCOL.md, "/overview").
+ * The route handler parses the sidecar's reply with it before passing it on; the cards read it back.
+ */
+export const liveOverviewSchema = z.object({
+  /** The sidecar's clock when it answered, epoch ms. */
+  now: z.number(),
+  mqtt: z.enum(["connected", "reconnecting", "closed"]),
+  channels: z.record(
+    z.string(),
+    z.object({
+      online: z.boolean().nullable(),
+      lastSampleAt: z.number().nullable(),
+      productionRevisionId: z.string().nullable(),
+      spark: z
+        .object({ t0: z.number(), stepMs: z.number().positive(), min: z.array(z.number()), max: z.array(z.number()) })
+        .refine((s) => s.min.length === s.max.length, { error: "min and max must have the same length" })
+        .nullable(),
+      faults: z.partialRecord(z.enum(FAULT_KINDS), z.number().int().nonnegative()),
+    }),
+  ),
+});
+
+export type LiveOverview = z.infer<typeof liveOverviewSchema>;
+export type ChannelLiveState = LiveOverview["channels"][string];
+export type SparkEnvelope = NonNullable<ChannelLiveState["spark"]>;
