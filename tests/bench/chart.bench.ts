@@ -1,17 +1,33 @@
 /**
  * Chart speed check: opens /channels/chart-bench (the live panel fed with raw + production + 4
  * candidates at 2 kHz, 10 s window, at the live frame rate) in headless Chromium and counts animation
- * frames over about 5 s. Target ≥ 50 fps. Needs a running web server (BENCH_BASE_URL, default
- * http://127.0.0.1:3000) with the demo accounts; no sidecar.
+ * frames over about 5 s. Target ≥ 50 fps. No sidecar is needed. With BENCH_BASE_URL it uses that web
+ * server; otherwise it starts the production build itself (`next start` on BENCH_WEB_PORT, default
+ * 3190, with the DATABASE_URL and SESSION_SECRET of the environment, as tests/bench/run.sh exports).
  * Run: node --import tsx tests/bench/chart.bench.ts
  */
+import { spawn, type ChildProcess } from "node:child_process";
 import { chromium } from "playwright-core";
 
-const BASE = process.env.BENCH_BASE_URL ?? "http://127.0.0.1:3000";
 const PASSWORD = process.env.DEMO_PASSWORD ?? "tapwright-demo";
 const MEASURE_MS = 5000;
 const TARGET_FPS = 50;
 
+async function startWebServer(): Promise<{ base: string; server: ChildProcess | null }> {
+  if (process.env.BENCH_BASE_URL) return { base: process.env.BENCH_BASE_URL, server: null };
+  const port = Number(process.env.BENCH_WEB_PORT ?? 3190);
+  const base = `http://127.0.0.1:${port}`;
+  const server = spawn("node_modules/.bin/next", ["start", "-H", "127.0.0.1", "-p", String(port)], { stdio: "ignore", env: process.env });
+  for (let i = 0; i < 120; i++) {
+    await new Promise((r) => setTimeout(r, 500));
+    const up = await fetch(`${base}/api/health`).then((r) => r.ok, () => false);
+    if (up) return { base, server };
+  }
+  server.kill();
+  throw new Error(`the web server did not answer on ${base} within 60 s (is the app built? run tests/bench/run.sh)`);
+}
+
+const { base: BASE, server } = await startWebServer();
 const browser = await chromium.launch({ executablePath: "/usr/bin/chromium" });
 try {
   const context = await browser.newContext({ viewport: { width: 1600, height: 900 } });
@@ -54,4 +70,5 @@ try {
   process.exitCode = fps >= TARGET_FPS ? 0 : 1;
 } finally {
   await browser.close();
+  server?.kill();
 }
