@@ -1,5 +1,5 @@
-import { Aedes } from "aedes";
 import { sql } from "kysely";
+import mqtt from "mqtt";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { findChannelByPath } from "@/db/queries/channels";
 import { findActiveDeployment, requestPromotion, requestRollback } from "@/db/queries/deployments";
@@ -8,12 +8,13 @@ import { createSet } from "@/db/queries/sets";
 import { buildRevisionContent } from "@/lib/coefficients";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { DEMO_RIGS } from "@/lib/demo/lab";
-import { ackTopic, parseTopic, type DeviceConfig } from "@/lib/protocol";
+import { ackTopic, configTopic, deviceConfigSchema, parseTopic, type DeviceConfig } from "@/lib/protocol";
 import type { MessageBus } from "@/server/broker/bus";
-import { inProcessBus } from "@/server/broker/embedded";
+import { inProcessBus, startEmbeddedBroker, type EmbeddedBroker } from "@/server/broker/embedded";
 import { systemClock, type Logger } from "@/server/clock";
 import { startDeploymentWorker, type DeploymentWorker } from "@/server/deploy/worker";
-import { createConfigExchange } from "@/server/devices/config-exchange";
+import { checksumMatches } from "@/server/devices/checksum";
+import { createConfigExchange, type ConfigExchange } from "@/server/devices/config-exchange";
 import { answerConfig } from "@/server/demo-rig/config-handler";
 import { actAs, butterSpec, jsonRequest, params, pathParams, setUpLab, type Accounts } from "./sets-fixture";
 
@@ -23,36 +24,62 @@ const productionRoute = await import("@/app/api/v1/channels/[rig]/[device]/[chan
 const promoteRoute = await import("@/app/api/v1/revisions/[id]/promote/route");
 
 const TORQUE = "gearbox-endurance/torque-node/input-torque";
+const SPEED = "gearbox-endurance/torque-node/shaft-speed"; // same device as TORQUE, 500 Hz
 const STRAIN = "hydraulic-press/env-node/frame-strain";
+const AMBIENT = "hydraulic-press/env-node/ambient-temp"; // same device as STRAIN, 100 Hz
 const PRESSURE = "hydraulic-press/press-ctl/line-pressure";
 
 let lab: Awaited<ReturnType<typeof setUpLab>>;
 let users: Accounts;
-let broker: Aedes;
+let embedded: EmbeddedBroker;
 let bus: MessageBus;
 let worker: DeploymentWorker;
 const silentDevices = new Set<string>();
+/** Devices that answer only after this many ms (to hold a document in flight). */
+const slowDevices = new Map<string, number>();
+/** Every config document published, per device, in order (the worker's and the restores). */
+const published = new Map<string, DeviceConfig[]>();
+/** When set, the next document sent by the worker has its checksum corrupted on the way out. */
+let corruptNext = false;
 const productionCalls: { path: string; revisionId: string; design: FilterDesign | null }[] = [];
 const logger: Logger = { info: () => undefined, warn: () => undefined };
 
-/** Demo devices on the in-process bus: the pipeline engineer's answerConfig checks and acks every config. */
+/** Demo devices on the in-process bus: the demo rig's answerConfig checks and acks every document. */
 async function startDevices(): Promise<void> {
   await bus.subscribe("tapwright/v1/+/+/config", (topic, payload) => {
     const t = parseTopic(topic);
-    if (!t || t.kind !== "config" || silentDevices.has(`${t.rig}/${t.device}`)) return;
+    if (!t || t.kind !== "config") return;
+    const key = `${t.rig}/${t.device}`;
+    if (payload.length) published.set(key, [...(published.get(key) ?? []), deviceConfigSchema.parse(JSON.parse(payload.toString("utf8")))]);
+    if (silentDevices.has(key)) return;
     const device = DEMO_RIGS.find((r) => r.key === t.rig)?.devices.find((d) => d.key === t.device);
-    const ack = device && answerConfig(device, payload);
-    if (ack) void bus.publish(ackTopic(t.rig, t.device), JSON.stringify(ack), { qos: 1 });
+    const ack = device && answerConfig(t.rig, device, payload);
+    if (!ack) return;
+    const answer = () => void bus.publish(ackTopic(t.rig, t.device), JSON.stringify(ack), { qos: 1 });
+    const delay = slowDevices.get(key);
+    if (delay) setTimeout(answer, delay);
+    else answer();
   });
+}
+
+/** The real exchange, with a switch that corrupts one outgoing document's checksum. */
+function corruptingExchange(inner: ConfigExchange): ConfigExchange {
+  return {
+    send(rig, device, config, timeoutMs) {
+      if (!corruptNext) return inner.send(rig, device, config, timeoutMs);
+      corruptNext = false;
+      return inner.send(rig, device, { ...config, checksum: config.checksum.replace(/^./, (c) => (c === "0" ? "1" : "0")) }, timeoutMs);
+    },
+  };
 }
 
 beforeAll(async () => {
   lab = await setUpLab("deploy_flow");
   users = lab.users;
-  broker = await Aedes.createBroker();
-  bus = inProcessBus(broker);
+  embedded = await startEmbeddedBroker({ host: "127.0.0.1", port: 0 });
+  bus = inProcessBus(embedded.broker);
   await startDevices();
-  const exchange = await createConfigExchange({ bus, clock: systemClock, logger });
+  const exchange = corruptingExchange(await createConfigExchange({ bus, clock: systemClock, logger }));
   worker = await startDeploymentWorker({
     db: lab.db,
     databaseUrl: lab.url,
@@ -67,13 +94,13 @@ beforeAll(async () => {
 afterAll(async () => {
   await worker.stop();
   await worker.idle();
-  await new Promise<void>((r) => broker.close(() => r()));
+  await embedded.close();
   await lab.close();
 });
 
-/** Saves, submits and approves a revision on the torque channel (q15 device); returns its id. */
-async function approvedRevision(name: string, spec: FilterSpec = butterSpec()): Promise<number> {
-  const channel = (await findChannelByPath(lab.db, TORQUE))!;
+/** Saves, submits and approves a revision on a channel (the torque channel by default); returns its id. */
+async function approvedRevision(name: string, spec: FilterSpec = butterSpec(), path = TORQUE): Promise<number> {
+  const channel = (await findChannelByPath(lab.db, path))!;
   const content = buildRevisionContent(spec, channel.coefficientFormat);
   const input = { spec, content, notes: "", format: channel.coefficientFormat, sampleRateHz: channel.sampleRateHz };
   const saved = await lab.db.transaction().execute((trx) => createSet(trx, users.engineer, channel.id, name, input));
@@ -149,7 +176,9 @@ describe("promotion through the device's acknowledgement", () => {
     ).rejects.toMatchObject({ code: "conflict" });
   });
 
-  it("fails on an ack timeout and keeps the previous revision active", async () => {
+  it("fails on an ack timeout, keeps the previous revision active and the previous document retained", async () => {
+    const before = await retainedConfig("gearbox-endurance", "torque-node");
+    expect(before?.channels["input-torque"]?.revisionId).toBe(String(first));
     silentDevices.add("gearbox-endurance/torque-node");
     try {
       const { deployments } = await promote(second, [TORQUE]);
@@ -157,8 +186,11 @@ describe("promotion through the device's acknowledgement", () => {
       expect(outcome.state).toBe("failed");
       expect(outcome.reason).toMatch(/no acknowledgement .* within 0.3 s/);
       expect(await activeRevision(TORQUE)).toBe(first);
+      const sent = published.get("gearbox-endurance/torque-node")!;
+      expect(sent.at(-2)).toMatchObject({ configId: String(deployments[0].id), channels: { "input-torque": { revisionId: String(second) } } });
       const retained = await retainedConfig("gearbox-endurance", "torque-node");
-      expect(retained?.revisionId).toBe(String(first));
+      expect(retained).toMatchObject({ configId: `restore-${deployments[0].id}` });
+      expect(retained?.channels).toEqual(before?.channels);
       const mail = await lab.db.selectFrom("mail_outbox").select("subject").where("kind", "=", "failed").execute();
       expect(mail.length).toBe(1);
     } finally {
@@ -166,35 +198,117 @@ describe("promotion through the device's acknowledgement", () => {
     }
   });
 
-  it("fails when the device refuses a corrupted checksum", async () => {
+  it("fails when the demo device refuses a document whose checksum was corrupted, and restores the previous one", async () => {
+    const before = await retainedConfig("gearbox-endurance", "torque-node");
+    corruptNext = true;
+    const { deployments } = await promote(second, [TORQUE]);
+    const outcome = await deploymentState(deployments[0].id);
+    expect(outcome).toMatchObject({ state: "failed" });
+    expect(outcome.reason).toMatch(/refused it: checksum mismatch/);
+    expect(await activeRevision(TORQUE)).toBe(first);
+    const retained = await retainedConfig("gearbox-endurance", "torque-node");
+    expect(retained).toMatchObject({ configId: `restore-${deployments[0].id}` });
+    expect(retained?.channels).toEqual(before?.channels);
+  });
+
+  it("fails without publishing when a stored entry no longer matches its checksum", async () => {
     const channel = (await findChannelByPath(lab.db, TORQUE))!;
     const active = (await findActiveDeployment(lab.db, channel.id))!;
-    const corrupted = { ...active.config, checksum: "0".repeat(64) };
+    const count = published.get("gearbox-endurance/torque-node")!.length;
     const row = await lab.db
       .insertInto("deployments")
-      .values({ revision_id: second, channel_id: channel.id, kind: "promote", format: "q15", config: JSON.stringify(corrupted), checksum: corrupted.checksum, previous_id: active.id, requested_by: users.lead.id })
+      .values({ revision_id: second, channel_id: channel.id, kind: "promote", format: "q15", config: JSON.stringify(active.config), checksum: "0".repeat(64), previous_id: active.id, requested_by: users.lead.id })
       .returning("id")
       .executeTakeFirstOrThrow();
     await sql`select pg_notify('tapwright_deploy', ${String(row.id)})`.execute(lab.db);
     const outcome = await deploymentState(row.id);
     expect(outcome).toMatchObject({ state: "failed" });
-    expect(outcome.reason).toMatch(/refused it: checksum mismatch/);
+    expect(outcome.reason).toMatch(/stored config of gearbox-endurance\/torque-node\/input-torque does not match its checksum/);
+    expect(published.get("gearbox-endurance/torque-node")!.slice(count).map((d) => d.configId)).toEqual([`restore-${row.id}`]);
     expect(await activeRevision(TORQUE)).toBe(first);
   });
 });
 
-function retainedConfig(rig: string, device: string): Promise<DeviceConfig | null> {
-  return new Promise((resolve) => {
-    // aedes keeps retained messages in its persistence; its types do not declare the field.
-    const { persistence } = broker as unknown as { persistence: { createRetainedStream(pattern: string): NodeJS.ReadableStream } };
-    const stream = persistence.createRetainedStream(`tapwright/v1/${rig}/${device}/config`);
-    let found: DeviceConfig | null = null;
-    stream.on("data", (packet: { payload: Buffer } | string | Buffer) => {
-      if (typeof packet === "string" || Buffer.isBuffer(packet)) return;
-      if (packet.payload.length) found = JSON.parse(packet.payload.toString("utf8")) as DeviceConfig;
+describe("one retained document per device", () => {
+  let speedFirst: number;
+  let speedSecond: number;
+
+  it("promoting channel A then channel B leaves both in the retained document a fresh subscriber receives", async () => {
+    speedFirst = await approvedRevision("Speed LP 40", butterSpec(40, 500), SPEED);
+    const { deployments } = await promote(speedFirst, [SPEED]);
+    expect(await deploymentState(deployments[0].id)).toMatchObject({ state: "active" });
+    expect(await activeRevision(TORQUE)).toBe(first);
+    expect(await activeRevision(SPEED)).toBe(speedFirst);
+    const retained = await retainedConfig("gearbox-endurance", "torque-node");
+    expect(retained).toMatchObject({
+      v: 2,
+      device: "gearbox-endurance/torque-node",
+      configId: String(deployments[0].id),
+      channels: { "input-torque": { revisionId: String(first), format: "q15", sampleRateHz: 1000 }, "shaft-speed": { revisionId: String(speedFirst), format: "q15", sampleRateHz: 500 } },
     });
-    stream.on("end", () => resolve(found));
+    expect(checksumMatches(retained!)).toBe(true);
   });
+
+  it("rolling back one channel keeps the other channel's filter in the document", async () => {
+    speedSecond = await approvedRevision("Speed LP 20", butterSpec(20, 500), SPEED);
+    const promoted = await promote(speedSecond, [SPEED]);
+    expect(await deploymentState(promoted.deployments[0].id)).toMatchObject({ state: "active" });
+    expect((await retainedConfig("gearbox-endurance", "torque-node"))?.channels["shaft-speed"]?.revisionId).toBe(String(speedSecond));
+
+    const channel = (await findChannelByPath(lab.db, SPEED))!;
+    const active = (await findActiveDeployment(lab.db, channel.id))!;
+    const rb = await lab.db.transaction().execute((trx) => requestRollback(trx, users.lead, SPEED, active.id));
+    expect(await deploymentState(rb.id)).toMatchObject({ state: "active" });
+    expect(await activeRevision(SPEED)).toBe(speedFirst);
+    expect(await activeRevision(TORQUE)).toBe(first);
+    const retained = await retainedConfig("gearbox-endurance", "torque-node");
+    expect(retained?.configId).toBe(String(rb.id));
+    expect(retained?.channels["shaft-speed"]?.revisionId).toBe(String(speedFirst));
+    expect(retained?.channels["input-torque"]?.revisionId).toBe(String(first));
+  });
+
+  it("two concurrent promotions on two channels of one device both end active, one document after the other", async () => {
+    const strainRev = await approvedRevision("Strain LP 60", butterSpec(60, 1000), STRAIN);
+    const ambientRev = await approvedRevision("Ambient LP 5", butterSpec(5, 100), AMBIENT);
+    const key = "hydraulic-press/env-node";
+    const count = published.get(key)?.length ?? 0;
+    slowDevices.set(key, 100); // each document stays in flight for 100 ms
+    try {
+      const [a, b] = await Promise.all([promote(strainRev, [STRAIN]), promote(ambientRev, [AMBIENT])]);
+      const ids = [a.deployments[0].id, b.deployments[0].id];
+      for (const id of ids) expect(await deploymentState(id)).toMatchObject({ state: "active" });
+      expect(await activeRevision(STRAIN)).toBe(strainRev);
+      expect(await activeRevision(AMBIENT)).toBe(ambientRev);
+      const sent = published.get(key)!.slice(count);
+      expect(sent.map((d) => d.configId).sort()).toEqual(ids.map(String).sort());
+      // The second document was built after the first was acknowledged, so it carries both revisions.
+      const last = sent[1];
+      expect(last.channels["frame-strain"]?.revisionId).toBe(String(strainRev));
+      expect(last.channels["ambient-temp"]?.revisionId).toBe(String(ambientRev));
+      expect(await retainedConfig("hydraulic-press", "env-node")).toEqual(last);
+    } finally {
+      slowDevices.delete(key);
+    }
+  });
+});
+
+/** What a fresh MQTT subscriber to the device's config topic receives: the retained document, or null. */
+async function retainedConfig(rig: string, device: string): Promise<DeviceConfig | null> {
+  const client = await mqtt.connectAsync(`mqtt://127.0.0.1:${embedded.port}`, { clean: true, reconnectPeriod: 0 });
+  try {
+    const received = new Promise<DeviceConfig | null>((resolve) => {
+      const timer = setTimeout(() => resolve(null), 500);
+      client.on("message", (_topic, payload, packet) => {
+        if (!packet.retain) return;
+        clearTimeout(timer);
+        resolve(payload.length ? deviceConfigSchema.parse(JSON.parse(payload.toString("utf8"))) : null);
+      });
+    });
+    await client.subscribeAsync(configTopic(rig, device), { qos: 1 });
+    return await received;
+  } finally {
+    await client.endAsync();
+  }
 }
 
 describe("promotion refusals", () => {

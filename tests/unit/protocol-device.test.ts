@@ -70,7 +70,7 @@ describe("device configuration v2 checksum", () => {
     expect(deviceConfigSchema.safeParse({ ...signed, channels: {} }).success).toBe(false);
     expect(deviceConfigSchema.safeParse({ ...signed, device: "torque-node" }).success).toBe(false);
     expect(deviceConfigSchema.safeParse({ ...signed, extra: true }).success).toBe(false);
-    expect(deviceConfigSchema.safeParse({ v: 1, revisionId: "rev-42", channel: "input-torque", ...entry, checksum: signed.checksum }).success).toBe(false);
+    expect(deviceConfigSchema.safeParse({ v: 1, channel: "input-torque", ...entry, checksum: signed.checksum }).success).toBe(false);
     expect(channelConfigSchema.safeParse(entry).success).toBe(true);
   });
 
