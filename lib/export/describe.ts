@@ -42,7 +42,7 @@ export function describeExport(p: PreparedExport): string[] {
     `Content hash: sha256:${p.contentHash}`,
     "              (SHA-256 of the RFC 8785 canonical JSON of the json export's \"coefficients\" object)",
   ];
-  if (s.deployment) lines.push(`Production:   active deployment ${s.deployment.id}, device config checksum ${s.deployment.checksum}`);
+  if (s.deployment) lines.push(`Production:   active deployment ${s.deployment.id}, deployment checksum ${s.deployment.checksum}`);
   if (!p.stable) lines.push(`WARNING:      NOT STABLE - ${commentSafe(p.instability ?? "")}`);
   return lines;
 }

@@ -26,7 +26,7 @@ export interface ExportSource {
   storedQuantized: QuantizedDesign | null;
   /** The latest approving review, if any. */
   approval: { by: string; at: Date } | null;
-  /** Set for production exports: the active deployment and its device-config checksum. */
+  /** Set for production exports: the active deployment and its checksum (SHA-256 of its channel config entry). */
   deployment?: { id: number; checksum: string };
 }
 

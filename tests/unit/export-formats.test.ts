@@ -18,7 +18,7 @@ const significantDigits = (lit: string) => lit.replace(/[eE].*$|f$/g, "").replac
 const FLOAT_LITERAL = /^-?\d+\.\d+(e[+-]\d+)?f$/;
 
 /** A pole pair at radius 1.0001: unstable as designed (typed coefficients). */
-const unstable = { kind: "coefficients" as const, form: "sos" as const, sos: [[1, 0, 0, 1, -1.9, 1.0002]], sampleRateHz: 1000 };
+const unstable = { kind: "coefficients" as const, sos: [[1, 0, 0, 1, -1.9, 1.0002]], sampleRateHz: 1000 };
 
 describe("identifiers and literals", () => {
   it("makes C identifier stems from free text", () => {

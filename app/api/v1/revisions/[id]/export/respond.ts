@@ -1,0 +1,57 @@
+import { currentUser } from "@/app/_lib/auth";
+import { db } from "@/db";
+import { listReviews, type RevisionView } from "@/db/queries/revisions";
+import { userForToken } from "@/db/queries/tokens";
+import { requireRole, type SessionUser } from "@/lib/auth/guard";
+import { AppError } from "@/lib/errors";
+import { ExportRefusal, prepareExport, renderExport, type ExportSource, type ExportTarget } from "@/lib/export";
+import type { ExportQuery } from "./schema";
+
+/**
+ * Who is asking: a `Bearer tw_…` token with the export:read scope when an Authorization header is
+ * sent (never falling back to the cookie then), otherwise the session cookie. 401 either way when invalid.
+ */
+export async function exportCaller(req: Request): Promise<SessionUser> {
+  const header = req.headers.get("authorization");
+  if (header === null) return requireRole(await currentUser(), "operator");
+  const match = /^Bearer +(\S+)$/i.exec(header.trim());
+  const user = match ? await userForToken(db(), match[1], "export:read") : null;
+  if (!user) throw new AppError("unauthorized", "The API token is missing, unknown or revoked, or its owner is disabled.");
+  return user;
+}
+
+/** An export source for a stored revision, with its latest approval. */
+export async function revisionSource(rev: RevisionView, channel = rev.channel): Promise<ExportSource> {
+  const approved = (await listReviews(db(), rev.setId)).find((r) => r.revisionId === rev.id && r.decision === "approved");
+  return {
+    setId: rev.setId,
+    setName: rev.setName,
+    revisionId: rev.id,
+    revision: rev.revision,
+    channel,
+    spec: rev.spec,
+    design: rev.design,
+    storedFormat: rev.format,
+    storedQuantized: rev.quantized,
+    approval: approved ? { by: approved.reviewer, at: approved.at } : null,
+  };
+}
+
+/** Renders the export as a download; a refusal (unstable, cannot quantize) is a 422 with the reason. */
+export async function exportResponse(source: ExportSource, query: ExportQuery, defaultTarget: ExportTarget): Promise<Response> {
+  try {
+    const prepared = await prepareExport(source, query.target ?? defaultTarget, query.prefix);
+    const file = renderExport(prepared, query.format);
+    return new Response(file.body, {
+      headers: {
+        "content-type": file.contentType,
+        "content-disposition": `attachment; filename="${file.filename}"`,
+        "cache-control": "no-store",
+        "x-content-sha256": prepared.contentHash,
+      },
+    });
+  } catch (err) {
+    if (err instanceof ExportRefusal) throw new AppError("unprocessable", err.message);
+    throw err;
+  }
+}
