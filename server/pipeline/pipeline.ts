@@ -152,6 +152,18 @@ export function createPipeline(deps: {
     }
   }
 
+  /**
+   * Live filters start at the steady state of the first sample they see, so a new trace does not
+   * swing in from zero; a filter without a steady state (a pole at z = 1) starts at rest.
+   */
+  function addLive(path: string, id: string, design: FilterDesign): void {
+    try {
+      bank.add(path, id, design, { initial: "step" });
+    } catch {
+      bank.add(path, id, design);
+    }
+  }
+
   return {
     push,
     setProductionFilter(path, revisionId, design) {
@@ -159,7 +171,7 @@ export function createPipeline(deps: {
       if (ch.production) bank.remove(path, PRODUCTION);
       ch.production = null;
       if (design) {
-        bank.add(path, PRODUCTION, design);
+        addLive(path, PRODUCTION, design);
         ch.production = { revisionId, design };
       }
       ch.breakBlock = true;
@@ -173,7 +185,7 @@ export function createPipeline(deps: {
       if (mine >= MAX_CANDIDATES_PER_CLIENT) {
         throw new CandidateLimitError(`at most ${MAX_CANDIDATES_PER_CLIENT} candidates per channel`);
       }
-      bank.add(path, key, design);
+      addLive(path, key, design);
       ch.candidates.set(key, { design, output: new SampleRing(Math.ceil(ch.info.sampleRateHz)), filtered: 0 });
       ch.breakBlock = true;
     },

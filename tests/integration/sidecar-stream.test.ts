@@ -74,8 +74,8 @@ describe("live stream end to end (device → embedded broker → pipeline → We
     expect(frame.decimated).toBe(false);
     expect(frame.t0).toBe(1_700_000_000_000);
     expect(frame.seq).toBe(11);
-    expect(frame.traces.lp).toEqual(Array.from(filterSignal(designFilter(candidate), x)));
-    expect(frame.traces.production).toEqual(Array.from(filterSignal(notch, x)));
+    expect(frame.traces.lp).toEqual(Array.from(filterSignal(designFilter(candidate), x, { initial: "step" })));
+    expect(frame.traces.production).toEqual(Array.from(filterSignal(notch, x, { initial: "step" })));
   });
 
   it("binary payloads are filtered like their float32 values", async () => {
@@ -91,7 +91,7 @@ describe("live stream end to end (device → embedded broker → pipeline → We
     const stored = Float64Array.from(new Float32Array(x));
     const [frame] = framesFor(RAM, mark);
     expect(frame.raw).toEqual(Array.from(stored));
-    expect(frame.traces.b1).toEqual(Array.from(filterSignal(designFilter(spec), stored)));
+    expect(frame.traces.b1).toEqual(Array.from(filterSignal(designFilter(spec), stored, { initial: "step" })));
   });
 
   it("a window wider than maxPoints decimates with min/max buckets that keep every extreme", async () => {
