@@ -87,7 +87,7 @@ export function SelectField({ name, label, options, onPicked }: { name: string; 
 const show = (v: unknown) => (Array.isArray(v) ? v.map((row) => (Array.isArray(row) ? row.join(", ") : String(row))).join(Array.isArray(v[0]) ? "\n" : ", ") : "");
 
 /**
- * Coefficients typed or pasted as text (numpy, C, MATLAB styles; parseCoefficientText). `rows` asks
+ * Coefficients typed or pasted as text (numpy, C or semicolon-separated rows; parseCoefficientText). `rows` asks
  * for a list of rows (SOS); otherwise a flat list. A text that does not parse keeps the last good value
  * and says where it stopped.
  */

@@ -169,12 +169,12 @@ function CoefficientFields({ hasSos, onMode }: { hasSos: boolean; onMode: (sos: 
       </div>
       {hasSos ? (
         <div className="col-span-2">
-          <ListField key="sos" name="sos" label="SOS rows [b0, b1, b2, a0, a1, a2]" rows lines={4} hint="Paste from numpy, C or MATLAB; one row per line." />
+          <ListField key="sos" name="sos" label="SOS rows [b0, b1, b2, a0, a1, a2]" rows lines={4} hint="Paste from numpy or C, or one row per line." />
         </div>
       ) : (
         <>
           <div className="col-span-2">
-            <ListField key="b" name="b" label="b (numerator)" lines={3} hint="Paste from numpy, C or MATLAB." />
+            <ListField key="b" name="b" label="b (numerator)" lines={3} hint="Paste from numpy or C, or separate with commas or spaces." />
           </div>
           <div className="col-span-2">
             <ListField key="a" name="a" label="a (denominator, empty for FIR)" />

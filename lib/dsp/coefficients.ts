@@ -1,5 +1,5 @@
 /**
- * Parser for filter coefficients pasted as text from numpy, Python, C or MATLAB-style sources.
+ * Parser for filter coefficients pasted as text from numpy, Python, C or semicolon-separated rows.
  * Accepted: numbers in decimal or scientific notation with an optional f/F suffix (C float literals);
  * separators , ; whitespace and newlines; nesting with [] {} (); numpy `array(...)` with an optional
  * `dtype=...`; numpy-2 scalars `np.float64(x)`; a leading declaration such as

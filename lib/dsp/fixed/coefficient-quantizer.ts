@@ -17,7 +17,7 @@ export interface QuantizedGroup {
 
 /**
  * Quantize a group of coefficients with the smallest post-shift (0 … F − 1) at which no word
- * saturates (CMSIS-DSP postShift convention: store {1.5, …} as {0.75, …} with shift 1).
+ * saturates (the usual embedded post-shift convention: store {1.5, …} as {0.75, …} with shift 1).
  * f32: every coefficient rounded to single precision with Math.fround, shift 0. Unitless.
  */
 export function quantizeGroup(coeffs: readonly number[], format: QuantFormat): QuantizedGroup {
@@ -46,7 +46,7 @@ export interface QuantizedSections {
 /**
  * Quantize each section's five coefficients b0, b1, b2, a1, a2 as one group (a0 = 1 is implied
  * and never stored). Words keep OUR sign convention (scipy.signal sos): firmware computing
- * y = b0·x + … + a1·y₋₁ + a2·y₋₂ (CMSIS-DSP) must negate a1 and a2.
+ * y = b0·x + … + a1·y₋₁ + a2·y₋₂ (as common embedded DSP libraries do) must negate a1 and a2.
  */
 export function quantizeSections(sos: number[][], format: QuantFormat): QuantizedSections {
   const groups = sos.map((row) => quantizeGroup([row[0], row[1], row[2], row[4], row[5]], format));

@@ -31,7 +31,7 @@ export function roundHalfAway(v: number): number {
 /**
  * The word for a real value x·2^scaleBits: rounded to nearest (ties away from zero), then
  * saturated to the format's word range. `saturated` tells whether the limit was hit, i.e. x was
- * outside [−1, 1 − 2^−F] after rounding (common practice; CMSIS-DSP instead truncates by default).
+ * outside [−1, 1 − 2^−F] after rounding (common practice; some embedded libraries truncate by default instead).
  */
 export function toWord(x: number, format: FixedFormat): { word: number; saturated: boolean } {
   if (!Number.isFinite(x)) throw new Error(`a value to quantize must be finite (got ${x})`);

@@ -10,7 +10,7 @@ import type { QuantFormat } from "./q-format";
  * A design with quantized coefficients, ready for simulateFixed or for export to firmware.
  * SOS designs: `sos` rows [b0, b1, b2, 1, a1, a2] hold the quantized coefficients as real values,
  * `integers` the words [b0, b1, b2, a1, a2] per section in OUR sign convention (scipy.signal sos:
- * y = b0·x + b1·x₋₁ + b2·x₋₂ − a1·y₋₁ − a2·y₋₂; CMSIS-DSP-style firmware must negate a1 and a2),
+ * y = b0·x + b1·x₋₁ + b2·x₋₂ − a1·y₋₁ − a2·y₋₂; firmware that adds the feedback terms must negate a1 and a2),
  * each word = coefficient / 2^shift · 2^F rounded to nearest, ties away from zero.
  * FIR designs: `taps` and one row of tap words, one shift.
  */

@@ -1,6 +1,6 @@
 /**
  * Bit-true model of the fixed-point arithmetic that firmware must match (Q15 or Q31, B = 16 or 32
- * bits, F = B − 1 fraction bits). Common embedded practice (CMSIS-DSP biquad DF1 structure),
+ * bits, F = B − 1 fraction bits). Common embedded practice (biquad DF1 with a wide accumulator),
  * with the rounding and saturation choices stated here.
  *
  * Input: each sample x becomes the word round(x·2^F) (nearest, ties away from zero), saturated

@@ -46,7 +46,7 @@ static const float32_t sos[2][6] = {
     expect(parseCoefficientText("const float coeffs[] = {0.1f, 0.2f, 0.1f, 1.14f, -0.41f};")).toEqual([0.1, 0.2, 0.1, 1.14, -0.41]);
   });
 
-  it("MATLAB-ish rows with semicolons and a % comment", () => {
+  it("rows separated by semicolons and a % comment", () => {
     expect(parseCoefficientText("sos = [1 2 1 1 -0.5 0.25; 1 -2 1 1 0.1 0.2]; % two sections")).toEqual([
       [1, 2, 1, 1, -0.5, 0.25],
       [1, -2, 1, 1, 0.1, 0.2],

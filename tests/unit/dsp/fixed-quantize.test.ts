@@ -15,7 +15,7 @@ const butter = (order: number, cutoffHz: number, sampleRateHz = 1000): FilterDes
 
 describe("quantizeDesign", () => {
   it("reproduces the published Q15 words of a 2nd-order Butterworth 100 Hz at 1 kHz, post-shift 1", () => {
-    // field.md §2.7 (CMSIS-DSP q15 layout example): {1105, 0, 2210, 1105, 18727, -6763} with feedback
+    // field.md §2.7 (q15 layout example): {1105, 0, 2210, 1105, 18727, -6763} with feedback
     // words negated relative to ours, so our a1 = −18727, a2 = 6763. Gain left in the single section.
     const d = butter(2, 100);
     expect(quantizeSections(d.sos ?? [], "q15")).toMatchObject({ integers: [[1105, 2210, 1105, -18727, 6763]], shifts: [1] });
