@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { requirePageUser } from "@/app/_lib/auth";
 import { ChannelLive, type KnownRevision } from "@/components/overview/channel-live";
+import { LiveBanner } from "@/components/overview/live-banner";
 import { db } from "@/db";
 import { listChannels, type ChannelRow } from "@/db/queries/channels";
 import { listActiveDeployments } from "@/db/queries/deployments";
@@ -31,6 +32,7 @@ export default async function OverviewPage() {
   return (
     <div className="space-y-6">
       <h1 className="text-xl font-semibold">Overview</h1>
+      <LiveBanner />
       {rigs.size === 0 && <p className="text-sm text-slate-500">No rigs yet. An administrator adds rigs, devices and channels.</p>}
       {[...rigs].map(([rigKey, rig]) => (
         <section key={rigKey} className="card overflow-hidden" aria-label={rig.name}>

@@ -25,7 +25,7 @@ export function ChannelLive({ path, unit, revisions }: { path: string; unit: str
     return <LiveShell state="loading">Loading live state…</LiveShell>;
   }
   if (query.isError && !query.data) {
-    return <LiveShell state="unavailable">Live state unavailable: {query.error.message}</LiveShell>;
+    return <LiveShell state="unavailable">Live state unavailable (see above).</LiveShell>;
   }
   const live = query.data.channels[path];
   if (!live) return <LiveShell state="unavailable">The live service does not know this channel yet; it reads channels when it starts.</LiveShell>;
@@ -34,7 +34,7 @@ export function ChannelLive({ path, unit, revisions }: { path: string; unit: str
   const faults = faultSummary(live.faults);
   return (
     <div data-testid="channel-live" data-online={String(live.online)} className="mt-2 space-y-1.5 text-xs">
-      {query.isError && <p className="text-slate-500">Live service not answering; showing the last state received.</p>}
+      {query.isError && <p className="text-slate-500">Showing the last state received.</p>}
       <div className="flex items-center justify-between gap-2">
         <div className="space-y-0.5">
           <DeviceState online={live.online} />
