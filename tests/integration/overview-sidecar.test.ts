@@ -2,6 +2,7 @@ import type { MqttClient } from "mqtt";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "@/db/client";
 import { designFilter } from "@/lib/dsp";
+import { liveOverviewSchema } from "@/components/overview/schema";
 import { encodeBinarySamples, samplesTopic, statusTopic } from "@/lib/protocol";
 import { systemClock, type Clock } from "@/server/clock";
 import type { Overview, Sidecar } from "@/server/sidecar";
@@ -97,6 +98,7 @@ describe("GET /overview on the sidecar", () => {
     expect(body.channels[STRAIN].productionRevisionId).toBe("17");
     expect(body.channels[STRAIN].faults).toEqual({ seq_gap: 1 });
     expect(body.channels[AMBIENT].productionRevisionId).toBeNull();
+    expect(liveOverviewSchema.safeParse(body).success).toBe(true);
   });
 
   it("reports the device offline when its connection drops and the broker publishes its last will", async () => {
