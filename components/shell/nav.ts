@@ -6,6 +6,7 @@ export const NAV: { href: string; label: string; role: Role }[] = [
   { href: "/sets", label: "Coefficient sets", role: "operator" },
   { href: "/reviews", label: "Reviews", role: "lead" },
   { href: "/audit", label: "Audit", role: "lead" },
+  { href: "/tokens", label: "API tokens", role: "engineer" },
   { href: "/admin/users", label: "Users", role: "admin" },
   { href: "/admin/mail", label: "Mailbox", role: "admin" },
 ];

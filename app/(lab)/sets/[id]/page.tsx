@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/app/_lib/auth";
+import { ExportControl } from "@/components/export/export-control";
 import { ActionForm } from "@/components/sets/action-form";
 import { PendingRefresher } from "@/components/sets/pending-refresher";
 import { PromoteForm } from "@/components/sets/promote-form";
@@ -116,6 +117,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                 ))}
               </div>
               <div className="space-y-3">
+                <ExportControl revisionId={rev.id} defaultTarget={rev.format} refusal={rev.analysis.deployable.ok ? undefined : rev.analysis.deployable.reason} designStable={rev.analysis.stable} />
                 {can("submit", rev) && (
                   <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "submit", expectedVersion: rev.stateVersion }} label="Submit for review" tone="primary" testId="submit-form" />
                 )}

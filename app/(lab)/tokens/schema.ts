@@ -1,0 +1,7 @@
+import { z } from "zod";
+
+export const createTokenSchema = z.object({
+  name: z.string().trim().min(1, "Say what will use the token.").max(80, "Keep the name under 80 characters."),
+});
+
+export const revokeTokenSchema = z.object({ tokenId: z.coerce.number().int().positive() });
