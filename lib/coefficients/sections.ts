@@ -1,6 +1,6 @@
 import { zpk2sos, type FilterDesign } from "@/lib/dsp";
 
-/** Most sections a device config carries (lib/protocol deviceConfigSchema). */
+/** Most sections one channel of a device configuration carries (lib/protocol channelConfigSchema). */
 export const MAX_DEVICE_SECTIONS = 64;
 
 /**
