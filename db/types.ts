@@ -166,6 +166,22 @@ export interface ApiTokensTable {
   revoked_at: ColumnType<Date | null, never, Date | string | null>;
 }
 
+/** Stored samples of a channel; `samples` is float64 little-endian (lib/recordings/samples.ts), NaN for missing. */
+export interface RecordingsTable {
+  id: Generated<number>;
+  channel_id: ColumnType<number, number, never>;
+  name: string;
+  notes: ColumnType<string, string | undefined, string>;
+  sample_rate_hz: ColumnType<number, number, never>;
+  started_at: ColumnType<Date | null, Date | string | null | undefined, never>;
+  sample_count: ColumnType<number, number, never>;
+  missing_count: ColumnType<number, number | undefined, never>;
+  samples: ColumnType<Uint8Array, Uint8Array, never>;
+  source: ColumnType<"upload", "upload" | undefined, never>;
+  created_by: ColumnType<number, number, never>;
+  created_at: CreatedAt;
+}
+
 export interface Database {
   users: UsersTable;
   rigs: RigsTable;
@@ -181,6 +197,7 @@ export interface Database {
   mail_outbox: MailOutboxTable;
   mailbox: MailboxTable;
   api_tokens: ApiTokensTable;
+  recordings: RecordingsTable;
 }
 
 export type User = Selectable<UsersTable>;

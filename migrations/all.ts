@@ -4,6 +4,7 @@ import * as m0002 from "./20261201_0002_device_credentials";
 import * as m0003 from "./20261201_0003_coefficient_sets";
 import * as m0004 from "./20261201_0004_mail";
 import * as m0005 from "./20261201_0005_api_tokens";
+import * as m0006 from "./20261201_0006_recordings";
 
 /** Every migration in order; a static list so tsx, vitest and bundlers load them alike. */
 export const migrations: Record<string, Migration> = {
@@ -12,6 +13,7 @@ export const migrations: Record<string, Migration> = {
   "20261201_0003_coefficient_sets": m0003,
   "20261201_0004_mail": m0004,
   "20261201_0005_api_tokens": m0005,
+  "20261201_0006_recordings": m0006,
 };
 
 export const migrationProvider: MigrationProvider = { getMigrations: async () => migrations };
