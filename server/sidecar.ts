@@ -2,8 +2,9 @@ import { randomBytes } from "node:crypto";
 import type { Server } from "node:http";
 import type { Db } from "@/db/client";
 import { listChannels } from "@/db/queries/channels";
-import { filteredTopic, SAMPLES_FILTER, sharedFilter } from "@/lib/protocol";
-import type { BusState, MessageBus } from "./broker/bus";
+import { accountsByIds } from "@/db/queries/users";
+import { filteredTopic, SAMPLES_FILTER, sharedFilter, type LiveOverview } from "@/lib/protocol";
+import type { MessageBus } from "./broker/bus";
 import { deviceAuthHooks, type InternalCredential } from "./broker/device-auth";
 import { inProcessBus, startEmbeddedBroker, type EmbeddedBroker } from "./broker/embedded";
 import { connectMqttBus } from "./broker/mqtt-bus";
@@ -11,13 +12,12 @@ import type { Clock, Logger } from "./clock";
 import { createConfigExchange, type ConfigExchange } from "./devices/config-exchange";
 import { startDemoRig, type DemoRigHandle } from "./demo-rig/rig";
 import { createHttpServer, listen } from "./http";
-import { createFaultLog, type FaultCounts, type FaultLog } from "./ingest/fault-log";
+import { createFaultLog, type FaultLog } from "./ingest/fault-log";
 import { createIngest, type Ingest } from "./ingest/ingest";
 import { trackDeviceStatus, type DeviceStatusTracker } from "./ingest/status";
 import { createPipeline, type Pipeline } from "./pipeline/pipeline";
-import type { Spark } from "./pipeline/spark";
 import { createHub, type Hub } from "./ws/hub";
-import { accountsByIds, createWsEndpoint } from "./ws/upgrade";
+import { createWsEndpoint } from "./ws/upgrade";
 
 export type MqttSetup =
   | { mode: "embedded"; host: string; port: number; requireDeviceAuth: boolean; internal?: InternalCredential[] }
@@ -47,24 +47,6 @@ export interface SidecarOptions {
   maxBufferedBytes?: number;
 }
 
-/** One channel on the overview (GET /overview); see server/PROTOCOL.md. */
-export interface ChannelOverview {
-  /** The device's retained status: true online, false offline, null unknown. */
-  online: boolean | null;
-  /** When the sidecar last accepted samples of the channel, epoch ms. */
-  lastSampleAt: number | null;
-  productionRevisionId: string | null;
-  spark: Spark | null;
-  faults: FaultCounts;
-}
-
-export interface Overview {
-  /** The sidecar's clock when the answer was made, epoch ms (ages are measured against it). */
-  now: number;
-  mqtt: BusState;
-  channels: Record<string, ChannelOverview>;
-}
-
 export interface Sidecar {
   httpPort: number;
   /** The embedded broker's port, when embedded. */
@@ -80,7 +62,7 @@ export interface Sidecar {
   broker: EmbeddedBroker | undefined;
   devices: DeviceStatusTracker;
   health(): { status: "ok" | "degraded" } & Record<string, unknown>;
-  overview(): Overview;
+  overview(): LiveOverview;
   close(): Promise<void>;
 }
 
@@ -170,7 +152,7 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
       faultsByChannel: faults.byChannel(),
     };
   }
-  function overview(): Overview {
+  function overview(): LiveOverview {
     const faultsByChannel = faults.byChannel();
     return {
       now: clock.now(),
@@ -178,7 +160,7 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
       channels: Object.fromEntries(
         channels.map(({ path }) => {
           const [rig, device] = path.split("/");
-          const entry: ChannelOverview = {
+          const entry: LiveOverview["channels"][string] = {
             online: devices.online(rig, device),
             lastSampleAt: pipeline.lastSampleAt(path),
             productionRevisionId: pipeline.productionRevision(path),

@@ -15,7 +15,10 @@ export function ConnectionBadge({ status, paused }: { status: LiveStatus; paused
   }, []);
   let text: string;
   let tone: "ok" | "wait" | "bad";
-  if (status.link === "reconnecting") {
+  if (status.link === "signed-out") {
+    text = "Session ended · sign in again";
+    tone = "bad";
+  } else if (status.link === "reconnecting") {
     const s = status.retryAt ? Math.max(0, Math.ceil((status.retryAt - now) / 1000)) : 0;
     text = s > 0 ? `Reconnecting in ${s} s` : "Reconnecting…";
     tone = "bad";

@@ -3,9 +3,9 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import { reconnectDelayMs } from "@/lib/bench/backoff";
 import { HISTORY_SECONDS, LiveStore } from "@/lib/bench/live-store";
-import { serverMessageSchema, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
+import { serverMessageSchema, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
 
-export type LinkState = "connecting" | "live" | "reconnecting";
+export type LinkState = "connecting" | "live" | "reconnecting" | "signed-out";
 
 export interface LiveStatus {
   link: LinkState;
@@ -111,9 +111,13 @@ export function useLiveChannel(opts: Options): LiveChannel {
         const parsed = serverMessageSchema.safeParse(json);
         if (parsed.success) handle(parsed.data);
       };
-      ws.onclose = () => {
+      ws.onclose = (ev) => {
         if (socketRef.current === ws) socketRef.current = null;
         if (closed) return;
+        if (ev.code === SESSION_ENDED) {
+          setStatus((s) => ({ ...s, link: "signed-out", retryAt: null }));
+          return;
+        }
         const delay = reconnectDelayMs(attempt++, Math.random());
         setStatus((s) => ({ ...s, link: "reconnecting", retryAt: Date.now() + delay }));
         timer = setTimeout(connect, delay);

@@ -3,7 +3,6 @@
 import Link from "next/link";
 import type { ReactNode } from "react";
 import { faultSummary, sampleAge } from "./format";
-import type { ChannelLiveState } from "./schema";
 import { Sparkline } from "./sparkline";
 import { useLiveOverview } from "./use-live-overview";
 

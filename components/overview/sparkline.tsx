@@ -1,12 +1,12 @@
 import { trim } from "@/lib/format/units";
 import { envelopePoints } from "./format";
-import type { SparkEnvelope } from "./schema";
+import type { LiveSpark } from "@/lib/protocol";
 
 const W = 120;
 const H = 28;
 
 /** The channel's recent raw envelope (min/max per bucket) as a small inline SVG; no chart library. */
-export function Sparkline({ spark, unit }: { spark: SparkEnvelope; unit: string }) {
+export function Sparkline({ spark, unit }: { spark: LiveSpark; unit: string }) {
   const seconds = (spark.min.length * spark.stepMs) / 1000;
   const lo = Math.min(...spark.min);
   const hi = Math.max(...spark.max);

@@ -1,7 +1,7 @@
 "use client";
 
 import { useQuery } from "@tanstack/react-query";
-import { liveOverviewSchema, type LiveOverview } from "./schema";
+import { liveOverviewSchema, type LiveOverview } from "@/lib/protocol";
 
 export const LIVE_OVERVIEW_URL = "/api/v1/live/overview";
 

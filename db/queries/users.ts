@@ -76,3 +76,9 @@ export async function countLoginFailures(
 export async function clearLoginFailures(db: Conn, email: string): Promise<void> {
   await db.deleteFrom("login_failures").where("email", "=", email.toLowerCase()).execute();
 }
+
+/** The accounts behind open live connections, in one query (the sidecar's session recheck). */
+export function accountsByIds(db: Conn, ids: number[]): Promise<Pick<User, "id" | "email" | "display_name" | "role" | "disabled" | "session_version">[]> {
+  if (!ids.length) return Promise.resolve([]);
+  return db.selectFrom("users").select(["id", "email", "display_name", "role", "disabled", "session_version"]).where("id", "in", ids).execute();
+}

@@ -4,3 +4,4 @@ export * from "./faults";
 export * from "./samples";
 export * from "./topics";
 export * from "./ws";
+export * from "./overview";

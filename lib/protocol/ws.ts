@@ -107,3 +107,9 @@ export const serverMessageSchema = z.discriminatedUnion("type", [
 ]);
 export type ServerMessage = z.infer<typeof serverMessageSchema>;
 export type CandidateMetrics = Extract<ServerMessage, { type: "metrics" }>["candidates"][string];
+
+/** The sidecar's WebSocket path. */
+export const WS_PATH = "/ws";
+
+/** Close code when an open connection's session ends (account disabled, password changed); do not retry. */
+export const SESSION_ENDED = 4401;

@@ -3,7 +3,7 @@ import { requireRole, resolveSessionUser, type SessionUser, type StoredAccount }
 import { roleAtLeast, type Role } from "@/lib/auth/roles";
 import type { SessionData } from "@/lib/auth/session-config";
 import { AppError } from "@/lib/errors";
-import { clientMessageSchema, type ClientMessage, type ServerMessage, type WsErrorCode } from "@/lib/protocol";
+import { clientMessageSchema, SESSION_ENDED, type ClientMessage, type ServerMessage, type WsErrorCode } from "@/lib/protocol";
 import type { BusState } from "../broker/bus";
 import type { Clock, Logger, Timer } from "../clock";
 import type { FaultLog } from "../ingest/fault-log";
@@ -87,7 +87,6 @@ const REQUIRED_ROLE: Record<ClientMessage["type"], Role> = {
 };
 
 /** WebSocket close code for a session that is no longer valid (4000–4999 are the application's, RFC 6455 §7.4.2). */
-export const SESSION_ENDED = 4401;
 
 class Refusal extends Error {
   constructor(readonly code: WsErrorCode, message: string) {

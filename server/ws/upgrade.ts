@@ -4,13 +4,13 @@ import { unsealData } from "iron-session";
 import { WebSocketServer, type WebSocket } from "ws";
 import type { Db } from "@/db/client";
 import { findUserById } from "@/db/queries/users";
-import { resolveSessionUser, type SessionUser, type StoredAccount } from "@/lib/auth/guard";
+import { resolveSessionUser, type SessionUser } from "@/lib/auth/guard";
 import { SESSION_COOKIE, type SessionData } from "@/lib/auth/session-config";
+import { WS_PATH } from "@/lib/protocol";
 import type { Logger } from "../clock";
 import type { Hub } from "./hub";
 
 /** The path browsers connect to: ws://<sidecar>/ws. */
-export const WS_PATH = "/ws";
 
 /** Largest client message accepted, in bytes (ws closes the connection with 1009 beyond it). */
 const MAX_CLIENT_MESSAGE = 64 * 1024;
@@ -41,15 +41,6 @@ export async function userFromUpgrade(
   if (typeof session.userId !== "number") return null;
   const user = resolveSessionUser(session, await findUserById(db, session.userId));
   return user ? { user, session: { userId: session.userId, sessionVersion: session.sessionVersion } } : null;
-}
-
-/**
- * The accounts behind open connections, in one query, for the hub's session recheck. It belongs
- * beside findUserById in db/queries/users.ts; it lives here until that file can take it.
- */
-export async function accountsByIds(db: Db, ids: number[]): Promise<StoredAccount[]> {
-  if (!ids.length) return [];
-  return db.selectFrom("users").select(["id", "email", "display_name", "role", "disabled", "session_version"]).where("id", "in", ids).execute();
 }
 
 function refuse(socket: Duplex, status: 401 | 403 | 404 | 503, text: string): void {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { envelopePoints, faultSummary, sampleAge } from "@/components/overview/format";
-import { liveOverviewSchema } from "@/components/overview/schema";
+import { liveOverviewSchema } from "@/lib/protocol";
 
 describe("overview card wording", () => {
   it("reads an age as fresh up to 5 s and as stale after, in s, min or h", () => {

@@ -2,10 +2,11 @@ import type { MqttClient } from "mqtt";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "@/db/client";
 import { designFilter } from "@/lib/dsp";
-import { liveOverviewSchema } from "@/components/overview/schema";
+import { liveOverviewSchema } from "@/lib/protocol";
 import { encodeBinarySamples, samplesTopic, statusTopic } from "@/lib/protocol";
 import { systemClock, type Clock } from "@/server/clock";
-import type { Overview, Sidecar } from "@/server/sidecar";
+import type { LiveOverview as Overview } from "@/lib/protocol";
+import type { Sidecar } from "@/server/sidecar";
 import { connectDevice, seededDb, testSidecar, until } from "./sidecar-support";
 
 const STRAIN = "hydraulic-press/env-node/frame-strain"; // 1 kHz

@@ -7,7 +7,7 @@ import { hashPassword } from "@/lib/auth/password";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
 import { encodeBinarySamples, samplesTopic } from "@/lib/protocol";
 import type { Sidecar } from "@/server/sidecar";
-import { connectDevice, cookieFor, openSocket, SECRET, seededDb, testSidecar, TTL, until } from "./sidecar-support";
+import { connectDevice, cookieFor, openSocket, seededDb, testSidecar, TTL, until } from "./sidecar-support";
 
 const STRAIN = "hydraulic-press/env-node/frame-strain";
 const spec = { kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 40, sampleRateHz: 1000 };

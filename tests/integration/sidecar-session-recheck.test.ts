@@ -8,8 +8,9 @@ import { systemClock, type Clock, type Timer } from "@/server/clock";
 import type { Sidecar } from "@/server/sidecar";
 import { createFaultLog } from "@/server/ingest/fault-log";
 import { createPipeline } from "@/server/pipeline/pipeline";
-import { createHub, SESSION_ENDED } from "@/server/ws/hub";
-import { accountsByIds } from "@/server/ws/upgrade";
+import { SESSION_ENDED } from "@/lib/protocol";
+import { createHub } from "@/server/ws/hub";
+import { accountsByIds } from "@/db/queries/users";
 import { connectDevice, cookieFor, memoryLogger, openSocket, seededDb, testSidecar, until, type TestSocket } from "./sidecar-support";
 
 const STRAIN = "hydraulic-press/env-node/frame-strain"; // 1 kHz

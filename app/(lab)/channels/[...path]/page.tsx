@@ -8,9 +8,8 @@ import { findChannelByPath } from "@/db/queries/channels";
 import { roleAtLeast } from "@/lib/auth/roles";
 import { env } from "@/lib/env";
 import { formatHz } from "@/lib/format/units";
+import { WS_PATH } from "@/lib/protocol";
 
-/** The sidecar's WebSocket path (server/ws/upgrade.ts WS_PATH). */
-const WS_PATH = "/ws";
 
 type Params = { params: Promise<{ path: string[] }> };
 

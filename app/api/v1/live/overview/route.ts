@@ -1,5 +1,5 @@
 import { requireUser } from "@/app/_lib/auth";
-import { liveOverviewSchema, type LiveOverview } from "@/components/overview/schema";
+import { liveOverviewSchema, type LiveOverview } from "@/lib/protocol";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { handler } from "@/lib/http/handler";

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { FAULT_KINDS } from "@/lib/protocol";
+import { FAULT_KINDS } from "./faults";
 
 /**
  * The sidecar's GET /overview answer as the web app reads it (server/PROTOCOL.md, "/overview").
@@ -26,4 +26,4 @@ export const liveOverviewSchema = z.object({
 
 export type LiveOverview = z.infer<typeof liveOverviewSchema>;
 export type ChannelLiveState = LiveOverview["channels"][string];
-export type SparkEnvelope = NonNullable<ChannelLiveState["spark"]>;
+export type LiveSpark = NonNullable<ChannelLiveState["spark"]>;
