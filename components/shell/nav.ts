@@ -4,6 +4,7 @@ import type { Role } from "@/lib/auth/roles";
 export const NAV: { href: string; label: string; role: Role }[] = [
   { href: "/", label: "Overview", role: "operator" },
   { href: "/sets", label: "Coefficient sets", role: "operator" },
+  { href: "/recordings", label: "Recordings", role: "operator" },
   { href: "/reviews", label: "Reviews", role: "lead" },
   { href: "/audit", label: "Audit", role: "lead" },
   { href: "/tokens", label: "API tokens", role: "engineer" },

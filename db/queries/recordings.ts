@@ -1,29 +1,14 @@
 import { sql, type Transaction } from "kysely";
 import type { SessionUser } from "@/lib/auth/guard";
 import { decodeSamples, encodeSamples } from "@/lib/recordings";
+import type { RecordingSummary } from "@/lib/recordings/summary";
 import type { Db } from "../client";
 import type { Database } from "../types";
 import { appendAudit } from "./audit";
 
 type Conn = Db | Transaction<Database>;
 
-/** A recording without its samples, as lists and pages show it. */
-export interface RecordingSummary {
-  id: number;
-  channelPath: string;
-  channelName: string;
-  unit: string;
-  name: string;
-  notes: string;
-  sampleRateHz: number;
-  sampleCount: number;
-  missingCount: number;
-  startedAt: Date | null;
-  source: "upload";
-  createdBy: number;
-  authorName: string;
-  createdAt: Date;
-}
+export type { RecordingSummary };
 
 export interface NewRecording {
   channelId: number;

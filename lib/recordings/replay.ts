@@ -15,11 +15,11 @@ export function finiteRuns(x: Float64Array): { from: number; to: number }[] {
   return runs;
 }
 
-/** The longest stretch without NaN (the first of equals), or an empty array. */
-export function longestFiniteRun(x: Float64Array): Float64Array {
+/** The longest stretch without NaN (the first of equals); { from: 0, to: 0 } when there is none. */
+export function longestRun(x: Float64Array): { from: number; to: number } {
   let best = { from: 0, to: 0 };
   for (const r of finiteRuns(x)) if (r.to - r.from > best.to - best.from) best = r;
-  return x.subarray(best.from, best.to);
+  return best;
 }
 
 /**

@@ -2,7 +2,7 @@
  * Samples as stored: IEEE 754 float64, little-endian, one after another (NaN marks a missing sample).
  * DataView fixes the byte order whatever the machine's own.
  */
-export function encodeSamples(samples: Float64Array): Uint8Array {
+export function encodeSamples(samples: Float64Array): Uint8Array<ArrayBuffer> {
   const bytes = new Uint8Array(samples.length * 8);
   const view = new DataView(bytes.buffer);
   for (let i = 0; i < samples.length; i++) view.setFloat64(i * 8, samples[i], true);

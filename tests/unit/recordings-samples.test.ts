@@ -2,7 +2,8 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { designFilter, filterSignal } from "@/lib/dsp";
 import { decodeSamples, encodeSamples } from "@/lib/recordings";
-import { finiteRuns, longestFiniteRun, replayThrough } from "@/lib/recordings/replay";
+import { formatDuration } from "@/lib/recordings/format";
+import { finiteRuns, longestRun, replayThrough } from "@/lib/recordings/replay";
 
 describe("sample bytes", () => {
   it("round-trips any float64, NaN included, as little-endian bytes", () => {
@@ -32,7 +33,8 @@ describe("offline replay", () => {
   it("finds the stretches between missing samples", () => {
     const x = Float64Array.of(NaN, 1, 2, NaN, NaN, 3, 4, 5);
     expect(finiteRuns(x)).toEqual([{ from: 1, to: 3 }, { from: 5, to: 8 }]);
-    expect([...longestFiniteRun(x)]).toEqual([3, 4, 5]);
+    expect(longestRun(x)).toEqual({ from: 5, to: 8 });
+    expect(longestRun(Float64Array.of(NaN))).toEqual({ from: 0, to: 0 });
   });
 
   it("filters each stretch from the steady state of its first sample and keeps gaps NaN", () => {
@@ -43,5 +45,11 @@ describe("offline replay", () => {
     expect(Number.isNaN(y[3])).toBe(true);
     expect(y[4]).toBeCloseTo(5, 12);
     expect([...y.subarray(4)]).toEqual([...filterSignal(design, x.subarray(4), { initial: "step" })]);
+  });
+});
+
+describe("formatDuration", () => {
+  it("reads in ms, s, min and h", () => {
+    expect([0.85, 12.5, 200, 3900].map(formatDuration)).toEqual(["850 ms", "12.5 s", "3 min 20 s", "1 h 5 min"]);
   });
 });

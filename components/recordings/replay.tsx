@@ -1,0 +1,228 @@
+"use client";
+
+import { useQuery } from "@tanstack/react-query";
+import { useMemo, useRef, useState } from "react";
+import { AnalysisArea } from "@/components/bench/analysis-area";
+import type { AnalysisItem } from "@/components/bench/analysis-views";
+import { CandidateCards } from "@/components/bench/candidate-cards";
+import { CautionsList } from "@/components/bench/cautions-list";
+import { ComparisonTable } from "@/components/bench/comparison-table";
+import { EditorPanel } from "@/components/bench/editor-panel";
+import { SavePanel } from "@/components/bench/save-panel";
+import type { SeedMode } from "@/components/bench/spectrum-panel";
+import { Notice } from "@/components/ui/notice";
+import { candidateColor, candidateName, seedSpec, type Candidate } from "@/lib/bench/candidates";
+import { cautionsFor, type Caution } from "@/lib/bench/cautions";
+import { freeColorIndex, RAW_COLOR } from "@/lib/bench/colors";
+import { defaultSpec } from "@/lib/bench/spec-defaults";
+import { specSummary } from "@/lib/bench/spec-text";
+import { liveSpectrum } from "@/lib/bench/spectrum";
+import { designFilter, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import type { CandidateMetrics } from "@/lib/protocol";
+import { longestRun, replayThrough } from "@/lib/recordings/replay";
+import { fetchSamples } from "./api";
+import { ReplaySpectrum, type TraceSpectrum } from "./replay-spectrum";
+import { ReplayTraceChart, type ReplayTrace } from "./replay-trace";
+
+export interface ReplayRecording {
+  id: number;
+  channelPath: string;
+  channelName: string;
+  unit: string;
+  sampleRateHz: number;
+  coefficientFormat: QuantFormat;
+}
+
+type Designed = { design: FilterDesign; error: null } | { design: null; error: string };
+
+function designOf(spec: FilterSpec): Designed {
+  try {
+    return { design: designFilter(spec), error: null };
+  } catch (err) {
+    return { design: null, error: err instanceof Error ? err.message.replace(/^invalid filter spec:\n/, "") : String(err) };
+  }
+}
+
+/** RMS of raw − output over samples present in both, in the channel's unit. */
+function removedRms(raw: Float64Array, out: Float64Array): number | null {
+  let sum = 0;
+  let count = 0;
+  for (let i = 0; i < raw.length; i++) {
+    const d = raw[i] - out[i];
+    if (Number.isFinite(d)) {
+      sum += d * d;
+      count++;
+    }
+  }
+  return count ? Math.sqrt(sum / count) : null;
+}
+
+function spectrumOf(x: Float64Array, run: { from: number; to: number }, fs: number, peaks: number) {
+  try {
+    return liveSpectrum(x.subarray(run.from, run.to), fs, peaks);
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Replay of one recording: its whole trace and spectrum, and (for engineers) up to six candidates from
+ * the bench's editor run offline through the samples with filterSignal (initial 'step'), overlaid,
+ * with the bench's analysis views, cautions and comparison table.
+ */
+export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecording; canEdit: boolean }) {
+  const fs = recording.sampleRateHz;
+  const samples = useQuery({ queryKey: ["recording-samples", recording.id], queryFn: () => fetchSamples(recording.id), staleTime: Infinity });
+  const [candidates, setCandidates] = useState<Candidate[]>([]);
+  const [editingId, setEditingId] = useState<string | null>(null);
+  const [seedVersion, setSeedVersion] = useState(0);
+  const [showRaw, setShowRaw] = useState(true);
+  const [delayAtHz, setDelayAtHz] = useState<number | null>(null);
+  const [crossoverHz, setCrossoverHz] = useState<number | null>(null);
+  const nextId = useRef(1);
+  const outputCache = useRef(new Map<string, Float64Array>());
+
+  const raw = samples.data ?? null;
+  const run = useMemo(() => (raw ? longestRun(raw) : { from: 0, to: 0 }), [raw]);
+  const designs = useMemo(() => new Map(candidates.map((c) => [c.id, designOf(c.spec)])), [candidates]);
+  const outputs = useMemo(() => {
+    const out = new Map<string, Float64Array>();
+    if (!raw) return out;
+    const cache = outputCache.current;
+    const next = new Map<string, Float64Array>();
+    for (const c of candidates) {
+      const d = designs.get(c.id);
+      if (!d?.design) continue;
+      const key = `${c.id}|${JSON.stringify(c.spec)}`;
+      const y = cache.get(key) ?? replayThrough(d.design, raw);
+      next.set(key, y);
+      out.set(c.id, y);
+    }
+    outputCache.current = next;
+    return out;
+  }, [raw, candidates, designs]);
+  const cautions = useMemo(() => {
+    const out = new Map<string, Caution[]>();
+    for (const c of candidates) {
+      const d = designs.get(c.id);
+      if (!d?.design) continue;
+      try {
+        out.set(c.id, cautionsFor({ spec: c.spec, design: d.design, deviceFormat: recording.coefficientFormat, crossoverHz }));
+      } catch {
+        out.set(c.id, []);
+      }
+    }
+    return out;
+  }, [candidates, designs, recording.coefficientFormat, crossoverHz]);
+
+  const traces: ReplayTrace[] = useMemo(() => {
+    if (!raw) return [];
+    const list: ReplayTrace[] = [{ id: "raw", label: "Raw", color: RAW_COLOR, samples: raw, visible: showRaw }];
+    for (const c of candidates) {
+      const y = outputs.get(c.id);
+      if (y) list.push({ id: c.id, label: candidateName(c), color: candidateColor(c), samples: y, visible: c.visible });
+    }
+    return list;
+  }, [raw, showRaw, candidates, outputs]);
+  const spectra: TraceSpectrum[] = useMemo(() => traces.filter((t, i) => i === 0 || t.visible).map((t, i) => ({ trace: t, spectrum: spectrumOf(t.samples, run, fs, i === 0 ? 5 : 0) })), [traces, run, fs]);
+  const noiseLineHz = spectra[0]?.spectrum?.peaks[0]?.freqHz ?? null;
+  const metrics = useMemo(() => {
+    const m: Record<string, CandidateMetrics> = {};
+    if (!raw) return m;
+    for (const [id, y] of outputs) m[id] = { removedRms: removedRms(raw, y), lagMs: null, measuredAttenuationDb: null, predictedAttenuationDb: null, noiseLineHz };
+    return m;
+  }, [raw, outputs, noiseLineHz]);
+
+  const addCandidate = (spec?: FilterSpec) => {
+    const colorIndex = freeColorIndex(candidates.map((c) => c.colorIndex));
+    if (colorIndex === null) return;
+    const c: Candidate = { id: `cand-${nextId.current++}`, colorIndex, spec: spec ?? defaultSpec("iir", fs), visible: true };
+    setCandidates((cs) => [...cs, c]);
+    setEditingId(c.id);
+  };
+  const updateSpec = (id: string, spec: FilterSpec) => setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, spec } : c)));
+  const removeCandidate = (id: string) => {
+    setCandidates((cs) => cs.filter((c) => c.id !== id));
+    if (editingId === id) setEditingId(null);
+  };
+  const setVisible = (id: string, visible: boolean) => {
+    if (id === "raw") return setShowRaw(visible);
+    setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, visible } : c)));
+  };
+  const seed = (freqHz: number, mode: SeedMode) => {
+    const editing = candidates.find((c) => c.id === editingId);
+    if (!editing) return addCandidate(seedSpec(null, freqHz, mode, fs));
+    updateSpec(editing.id, seedSpec(editing.spec, freqHz, mode, fs));
+    setSeedVersion((v) => v + 1);
+  };
+
+  const items: AnalysisItem[] = candidates.flatMap((c) => {
+    const d = designs.get(c.id);
+    return c.visible && d?.design ? [{ id: c.id, name: candidateName(c), color: candidateColor(c), spec: c.spec, design: d.design }] : [];
+  });
+  const editing = candidates.find((c) => c.id === editingId) ?? null;
+  const editingDesign = editing ? designs.get(editing.id) : undefined;
+
+  if (samples.isPending) return <Notice title="Loading the samples…">Large recordings take a few seconds to arrive.</Notice>;
+  if (samples.isError) {
+    return (
+      <Notice tone="error" title="The samples could not be loaded">
+        {samples.error.message}{" "}
+        <button type="button" className="underline" onClick={() => void samples.refetch()}>
+          Try again
+        </button>
+      </Notice>
+    );
+  }
+  const spectrumPanel = <ReplaySpectrum spectra={spectra} unit={recording.unit} stretchSeconds={(run.to - run.from) / fs} onSeed={canEdit ? seed : undefined} />;
+  return (
+    <div className={`space-y-4 ${editing ? "lg:pr-[29rem]" : ""}`}>
+      <ReplayTraceChart traces={traces} sampleRateHz={fs} unit={recording.unit} onToggle={canEdit ? setVisible : undefined} />
+      {spectrumPanel}
+      {canEdit && (
+        <>
+          <CandidateCards
+            cards={candidates.map((c) => ({ candidate: c, designError: designs.get(c.id)?.error ?? null, cautionCount: cautions.get(c.id)?.length ?? 0, metrics: metrics[c.id] }))}
+            unit={recording.unit}
+            editingId={editingId}
+            canEdit
+            onEdit={setEditingId}
+            onToggle={setVisible}
+            onRemove={removeCandidate}
+            onAdd={() => addCandidate()}
+          />
+          {candidates.length === 0 && <Notice title="No candidates yet">Add a candidate to run a filter through the whole recording, or pick a peak in the spectrum to start from a notch.</Notice>}
+          <AnalysisArea items={items} sampleRateHz={fs} deviceFormat={recording.coefficientFormat} emptyText="Nothing to analyse yet: add a candidate, or show one that is hidden." spectrum={spectrumPanel} />
+          {candidates.some((c) => (cautions.get(c.id)?.length ?? 0) > 0) && (
+            <section aria-label="Cautions" className="space-y-2">
+              {candidates.map((c) => (
+                <CautionsList key={c.id} cautions={cautions.get(c.id) ?? []} name={candidateName(c)} />
+              ))}
+            </section>
+          )}
+          <ComparisonTable
+            items={items}
+            metrics={{}}
+            noiseLineHz={noiseLineHz}
+            delayAtHz={delayAtHz}
+            onDelayAt={setDelayAtHz}
+            crossoverHz={crossoverHz}
+            onCrossover={setCrossoverHz}
+            emptyText="No filters to compare yet. Add a candidate above."
+          />
+          {editing && (
+            <EditorPanel
+              candidate={editing}
+              seedVersion={seedVersion}
+              designError={editingDesign?.error ?? null}
+              cautions={cautions.get(editing.id) ?? []}
+              onSpec={(spec) => updateSpec(editing.id, spec)}
+              onClose={() => setEditingId(null)}
+              save={<SavePanel key={editing.id} channel={recording.channelPath} spec={editingDesign?.design ? editing.spec : null} suggestedName={`${recording.channelName} · ${specSummary(editing.spec)}`} />}
+            />
+          )}
+        </>
+      )}
+    </div>
+  );
+}
