@@ -30,7 +30,9 @@ export function ChannelLive({ path, unit, revisions }: { path: string; unit: str
   if (!live) return <LiveShell state="unavailable">The live service does not know this channel yet; it reads channels when it starts.</LiveShell>;
   const ageMs = live.lastSampleAt === null ? null : query.data.now - live.lastSampleAt + (Date.now() - query.dataUpdatedAt);
   const age = sampleAge(ageMs);
-  const faults = faultSummary(live.faults);
+  // Lost batches (sequence gaps) are counted apart: they are the link's loss, not a bad message.
+  const { seq_gap: gaps = 0, ...refused } = live.faults;
+  const faults = faultSummary(refused);
   return (
     <div data-testid="channel-live" data-online={String(live.online)} className="mt-2 space-y-1.5 text-xs">
       {query.isError && <p className="text-slate-500">Showing the last state received.</p>}
@@ -44,6 +46,11 @@ export function ChannelLive({ path, unit, revisions }: { path: string; unit: str
         {live.spark ? <Sparkline spark={live.spark} unit={unit} /> : <span className="text-slate-400">no trace yet</span>}
       </div>
       <Production id={live.productionRevisionId} revisions={revisions} />
+      {gaps > 0 && (
+        <p className="num text-slate-500" data-testid="gap-count">
+          lost batches: {gaps}
+        </p>
+      )}
       {faults && (
         <p className="num text-fault" data-testid="fault-counts">
           faults: {faults}
