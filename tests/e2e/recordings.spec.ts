@@ -1,0 +1,69 @@
+import { expect, test, type Page } from "@playwright/test";
+import { SignInPage } from "./pages/sign-in-page";
+
+const CHANNEL = "gearbox-endurance/torque-node/input-torque";
+
+/** Ten seconds at 1 kHz of a torque signal with 50 Hz pickup and a 240 Hz mesh tone, as t_s CSV. */
+function torqueCsv(): string {
+  const rows = ["t_s,torque[N·m]"];
+  for (let i = 0; i < 10_000; i++) {
+    const t = i / 1000;
+    rows.push(`${t.toFixed(3)},${(10 + 2 * Math.sin(2 * Math.PI * 50 * t) + 0.5 * Math.sin(2 * Math.PI * 240 * t)).toFixed(6)}`);
+  }
+  return rows.join("\r\n") + "\r\n";
+}
+
+/** The recordings list with its upload form, and one recording's replay page. */
+class RecordingsPage {
+  constructor(private readonly page: Page) {}
+
+  async upload(name: string, csv: string): Promise<void> {
+    await this.page.goto("/recordings");
+    await this.page.getByLabel("Channel").selectOption(CHANNEL);
+    await this.page.getByLabel("CSV file").setInputFiles({ name: "torque.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
+    await this.page.getByLabel("Name (optional)").fill(name);
+    await this.page.getByRole("button", { name: "Upload recording" }).click();
+  }
+
+  traceChart() {
+    return this.page.getByTestId("recording-chart");
+  }
+
+  peaks() {
+    return this.page.getByTestId("recording-peaks");
+  }
+}
+
+test("an engineer uploads a capture, sees its trace and spectrum, and overlays a candidate; an operator sees the trace only", async ({ page }) => {
+  const name = `E2E capture ${Date.now().toString(36)}`;
+  const signIn = new SignInPage(page);
+  const recordings = new RecordingsPage(page);
+
+  await signIn.signInAs("engineer");
+  await recordings.upload(name, "t_s,torque[N·m]\n0,1\n0.002,1\n0.004,1\n");
+  await expect(page.locator('[data-field-error="file"]')).toContainText("500 Hz");
+
+  await recordings.upload(name, torqueCsv());
+  await expect(page).toHaveURL(/\/recordings\/\d+$/);
+  await expect(page.getByRole("heading", { name })).toBeVisible();
+  await expect(recordings.traceChart().locator("canvas")).toBeVisible();
+  await expect(recordings.peaks().getByText(/^50(\.\d+)? Hz$/)).toBeVisible();
+  await expect(recordings.peaks().getByText(/^240(\.\d+)? Hz$/)).toBeVisible();
+  await expect(page.getByRole("link", { name: "Try on the live bench" })).toHaveAttribute("href", `/channels/${CHANNEL}`);
+
+  await page.getByRole("button", { name: "Add candidate" }).click();
+  await expect(page.getByTestId("candidate-0")).toBeVisible();
+  await expect(recordings.traceChart()).toContainText("Candidate A");
+  await expect(page.getByTestId("comparison-table")).toContainText("Candidate A");
+  await page.getByRole("button", { name: "Close the editor" }).click();
+  const url = page.url();
+  await signIn.signOut();
+
+  await signIn.signInAs("operator");
+  await page.goto(url);
+  await expect(recordings.traceChart().locator("canvas")).toBeVisible();
+  await expect(page.getByRole("button", { name: "Add candidate" })).toHaveCount(0);
+  await page.goto("/recordings");
+  await expect(page.getByTestId("recordings-table")).toContainText(name);
+  await expect(page.getByRole("button", { name: "Upload recording" })).toHaveCount(0);
+});
