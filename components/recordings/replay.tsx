@@ -58,11 +58,7 @@ function removedRms(raw: Float64Array, out: Float64Array): number | null {
 }
 
 function spectrumOf(x: Float64Array, run: { from: number; to: number }, fs: number, peaks: number) {
-  try {
-    return liveSpectrum(x.subarray(run.from, run.to), fs, peaks);
-  } catch {
-    return null;
-  }
+  return liveSpectrum(x.subarray(run.from, run.to), fs, peaks);
 }
 
 /**
@@ -124,7 +120,7 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
     }
     return list;
   }, [raw, showRaw, candidates, outputs]);
-  const spectra: TraceSpectrum[] = useMemo(() => traces.filter((t, i) => i === 0 || t.visible).map((t, i) => ({ trace: t, spectrum: spectrumOf(t.samples, run, fs, i === 0 ? 5 : 1) })), [traces, run, fs]);
+  const spectra: TraceSpectrum[] = useMemo(() => traces.filter((t, i) => i === 0 || t.visible).map((t, i) => ({ trace: t, spectrum: spectrumOf(t.samples, run, fs, i === 0 ? 5 : 0) })), [traces, run, fs]);
   const noiseLineHz = spectra[0]?.spectrum?.peaks[0]?.freqHz ?? null;
   const metrics = useMemo(() => {
     const m: Record<string, CandidateMetrics> = {};

@@ -19,7 +19,7 @@ export function liveSpectrum(samples: Float64Array, sampleRateHz: number, peakCo
   if (samples.length < 64) return null;
   const segmentLength = 2 ** Math.floor(Math.log2(Math.min(MAX_SEGMENT, samples.length / 4)));
   const { freqsHz, psd } = welch(samples, sampleRateHz, { segmentLength });
-  const peaks = findPeaks(freqsHz, psd, { count: peakCount, minProminenceDb: 10, minSpacingHz: (4 * sampleRateHz) / segmentLength });
+  const peaks = peakCount > 0 ? findPeaks(freqsHz, psd, { count: peakCount, minProminenceDb: 10, minSpacingHz: (4 * sampleRateHz) / segmentLength }) : [];
   const psdDb = psd.map((p) => 10 * Math.log10(Math.max(p, 1e-30)));
   return { freqsHz, psdDb, peaks };
 }
