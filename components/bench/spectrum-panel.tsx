@@ -5,10 +5,11 @@ import type uPlot from "uplot";
 import { UPlotChart } from "@/components/charts/uplot-chart";
 import { staticSource } from "@/components/charts/sources";
 import { Swatch } from "@/components/ui/swatch";
-import { hz, withUnit } from "@/lib/bench/format";
+import { hz } from "@/lib/bench/format";
 import type { LiveStore } from "@/lib/bench/live-store";
 import { liveSpectrum, type LiveSpectrum } from "@/lib/bench/spectrum";
 import type { TraceInfo } from "./live-panel";
+import { PeakList } from "./peak-list";
 
 /** Seconds of signal each spectrum is taken over, and how often it is refreshed (ms). */
 const SPECTRUM_SECONDS = 4;
@@ -117,24 +118,7 @@ export function SpectrumPanel({
           {peaks.length === 0 ? (
             <p className="text-sm text-slate-500">{computed ? "No clear peaks (none 10 dB above its surroundings)." : "Estimating…"}</p>
           ) : (
-            <ol className="space-y-1" data-testid="spectrum-peaks">
-              {peaks.map((p) => (
-                <li key={p.freqHz} className="flex items-center gap-2 text-sm">
-                  <span className="num w-20">{hz(p.freqHz, 4)}</span>
-                  <span className="num w-14 text-xs text-slate-500">{withUnit(p.prominenceDb, "dB", 2)}</span>
-                  {onSeed && (
-                    <span className="ml-auto flex gap-1">
-                      <button type="button" className="btn-quiet px-1.5 py-0.5 text-xs" onClick={() => onSeed(p.freqHz, "notch")} aria-label={`Notch at ${hz(p.freqHz, 4)}`}>
-                        Notch
-                      </button>
-                      <button type="button" className="btn-quiet px-1.5 py-0.5 text-xs" onClick={() => onSeed(p.freqHz, "cutoff")} aria-label={`Cutoff at ${hz(p.freqHz, 4)}`}>
-                        Cutoff
-                      </button>
-                    </span>
-                  )}
-                </li>
-              ))}
-            </ol>
+            <PeakList peaks={peaks} testId="spectrum-peaks" onSeed={onSeed} />
           )}
           {onSeed && <p className="mt-2 text-xs text-slate-500">Click a peak on the chart to seed a notch for the candidate being edited.</p>}
         </div>

@@ -4,6 +4,7 @@ import { useMemo } from "react";
 import type uPlot from "uplot";
 import { staticSource } from "@/components/charts/sources";
 import { UPlotChart } from "@/components/charts/uplot-chart";
+import { PeakList } from "@/components/bench/peak-list";
 import type { SeedMode } from "@/components/bench/spectrum-panel";
 import { Swatch } from "@/components/ui/swatch";
 import { hz, withUnit } from "@/lib/bench/format";
@@ -57,24 +58,7 @@ export function ReplaySpectrum({ spectra, unit, stretchSeconds, onSeed }: { spec
           {peaks.length === 0 ? (
             <p className="text-sm text-slate-500">No clear peaks (none 10 dB above its surroundings).</p>
           ) : (
-            <ol className="space-y-1" data-testid="recording-peaks">
-              {peaks.map((p) => (
-                <li key={p.freqHz} className="flex items-center gap-2 text-sm">
-                  <span className="num w-20">{hz(p.freqHz, 4)}</span>
-                  <span className="num w-14 text-xs text-slate-500">{withUnit(p.prominenceDb, "dB", 2)}</span>
-                  {onSeed && (
-                    <span className="ml-auto flex gap-1">
-                      <button type="button" className="btn-quiet px-1.5 py-0.5 text-xs" onClick={() => onSeed(p.freqHz, "notch")} aria-label={`Notch at ${hz(p.freqHz, 4)}`}>
-                        Notch
-                      </button>
-                      <button type="button" className="btn-quiet px-1.5 py-0.5 text-xs" onClick={() => onSeed(p.freqHz, "cutoff")} aria-label={`Cutoff at ${hz(p.freqHz, 4)}`}>
-                        Cutoff
-                      </button>
-                    </span>
-                  )}
-                </li>
-              ))}
-            </ol>
+            <PeakList peaks={peaks} testId="recording-peaks" onSeed={onSeed} />
           )}
         </div>
       </div>
