@@ -3,13 +3,11 @@
 import { useQuery, type UseQueryResult } from "@tanstack/react-query";
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { Notice } from "@/components/ui/notice";
-import { candidateColor, candidateName, candidateSlot, seedSpec, type Candidate } from "@/lib/bench/candidates";
-import { cautionsFor, type Caution } from "@/lib/bench/cautions";
-import { freeColorIndex, PRODUCTION_COLOR, RAW_COLOR } from "@/lib/bench/colors";
+import { candidateColor, candidateName, candidateSlot, tryDesign } from "@/lib/bench/candidates";
+import { PRODUCTION_COLOR, RAW_COLOR } from "@/lib/bench/colors";
 import { PRODUCTION_SLOT, RAW_SLOT, PRODUCTION_TRACE } from "@/lib/bench/live-store";
-import { defaultSpec } from "@/lib/bench/spec-defaults";
 import { specSummary } from "@/lib/bench/spec-text";
-import { designFilter, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import type { QuantFormat } from "@/lib/dsp";
 import type { ClientMessage } from "@/lib/protocol";
 import { AnalysisArea } from "./analysis-area";
 import type { AnalysisItem } from "./analysis-views";
@@ -20,7 +18,8 @@ import { ComparisonTable } from "./comparison-table";
 import { EditorPanel } from "./editor-panel";
 import { LivePanel, type TraceInfo } from "./live-panel";
 import { SavePanel } from "./save-panel";
-import { SpectrumPanel, type SeedMode } from "./spectrum-panel";
+import { SpectrumPanel } from "./spectrum-panel";
+import { useCandidates } from "./use-candidates";
 import { useLiveChannel } from "./use-live-channel";
 
 export interface BenchChannel {
@@ -34,16 +33,6 @@ export interface BenchChannel {
 /** Least time between two updates of one candidate on the stream, in ms (the live trace follows within a second). */
 const STREAM_UPDATE_MS = 250;
 
-type Designed = { design: FilterDesign; error: null } | { design: null; error: string };
-
-function designOf(spec: FilterSpec): Designed {
-  try {
-    return { design: designFilter(spec), error: null };
-  } catch (err) {
-    return { design: null, error: err instanceof Error ? err.message.replace(/^invalid filter spec:\n/, "") : String(err) };
-  }
-}
-
 /**
  * The tuning bench of one channel: live traces and spectrum, candidates with their editor, analysis
  * views, the comparison table and saving. `canEdit` comes from the server (engineer and above); an
@@ -51,15 +40,19 @@ function designOf(spec: FilterSpec): Designed {
  */
 export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: BenchChannel; canEdit: boolean; sidecarPort: number; wsPath: string }) {
   const fs = channel.sampleRateHz;
-  const [candidates, setCandidates] = useState<Candidate[]>([]);
-  const [editingId, setEditingId] = useState<string | null>(null);
-  const [seedVersion, setSeedVersion] = useState(0);
   const [showRaw, setShowRaw] = useState(true);
   const [showProduction, setShowProduction] = useState(true);
   const [noiseLineHz, setNoiseLineHz] = useState<number | null>(null);
   const [delayAtHz, setDelayAtHz] = useState<number | null>(null);
   const [crossoverHz, setCrossoverHz] = useState<number | null>(null);
-  const nextId = useRef(1);
+  const { candidates, designs, cautions, editingId, setEditingId, editing, editingDesign, seedVersion, addCandidate, updateSpec, removeCandidate, setCandidateVisible, seed } = useCandidates({
+    sampleRateHz: fs,
+    deviceFormat: channel.coefficientFormat,
+    crossoverHz,
+    // `store` comes from useLiveChannel below; these run on user actions, after this render has finished.
+    onAdd: (c) => store.bind(c.id, candidateSlot(c)),
+    onRemove: (id) => store.unbind(id),
+  });
   const sentRef = useRef(new Map<string, string>());
   const candidatesRef = useRef(candidates);
   candidatesRef.current = candidates;
@@ -79,7 +72,7 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
     }
     for (const c of live.values()) {
       const text = JSON.stringify(c.spec);
-      if (sent.get(c.id) === text || designOf(c.spec).error) continue;
+      if (sent.get(c.id) === text || tryDesign(c.spec).error) continue;
       if (sent.has(c.id)) send({ type: "candidate.remove", channel: channel.path, id: c.id });
       send({ type: "candidate.add", channel: channel.path, id: c.id, spec: c.spec });
       sent.set(c.id, text);
@@ -103,46 +96,10 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
     return () => clearTimeout(t);
   }, [candidates, sync, send]);
 
-  const designs = useMemo(() => new Map(candidates.map((c) => [c.id, designOf(c.spec)])), [candidates]);
-  const cautions = useMemo(() => {
-    const out = new Map<string, Caution[]>();
-    for (const c of candidates) {
-      const d = designs.get(c.id);
-      if (d?.design) {
-        try {
-          out.set(c.id, cautionsFor({ spec: c.spec, design: d.design, deviceFormat: channel.coefficientFormat, crossoverHz }));
-        } catch {
-          out.set(c.id, []);
-        }
-      }
-    }
-    return out;
-  }, [candidates, designs, channel.coefficientFormat, crossoverHz]);
-
-  const addCandidate = (spec?: FilterSpec) => {
-    const colorIndex = freeColorIndex(candidates.map((c) => c.colorIndex));
-    if (colorIndex === null) return;
-    const c: Candidate = { id: `cand-${nextId.current++}`, colorIndex, spec: spec ?? defaultSpec("iir", fs), visible: true };
-    store.bind(c.id, candidateSlot(c));
-    setCandidates((cs) => [...cs, c]);
-    setEditingId(c.id);
-  };
-  const updateSpec = (id: string, spec: FilterSpec) => setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, spec } : c)));
-  const removeCandidate = (id: string) => {
-    store.unbind(id);
-    setCandidates((cs) => cs.filter((c) => c.id !== id));
-    if (editingId === id) setEditingId(null);
-  };
   const setVisible = (id: string, visible: boolean) => {
     if (id === "raw") return setShowRaw(visible);
     if (id === PRODUCTION_TRACE) return setShowProduction(visible);
-    setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, visible } : c)));
-  };
-  const seed = (freqHz: number, mode: SeedMode) => {
-    const editing = candidates.find((c) => c.id === editingId);
-    if (!editing) return addCandidate(seedSpec(null, freqHz, mode, fs));
-    updateSpec(editing.id, seedSpec(editing.spec, freqHz, mode, fs));
-    setSeedVersion((v) => v + 1);
+    setCandidateVisible(id, visible);
   };
 
   const hasProduction = Boolean(production.data);
@@ -161,9 +118,6 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
     }
     return out;
   }, [production.data, showProduction, candidates, designs]);
-
-  const editing = candidates.find((c) => c.id === editingId) ?? null;
-  const editingDesign = editing ? designs.get(editing.id) : undefined;
 
   return (
     <div className={`space-y-4 ${editing ? "lg:pr-[29rem]" : ""}`}>

@@ -9,15 +9,13 @@ import { CautionsList } from "@/components/bench/cautions-list";
 import { ComparisonTable } from "@/components/bench/comparison-table";
 import { EditorPanel } from "@/components/bench/editor-panel";
 import { SavePanel } from "@/components/bench/save-panel";
-import type { SeedMode } from "@/components/bench/spectrum-panel";
+import { useCandidates } from "@/components/bench/use-candidates";
 import { Notice } from "@/components/ui/notice";
-import { candidateColor, candidateName, seedSpec, type Candidate } from "@/lib/bench/candidates";
-import { cautionsFor, type Caution } from "@/lib/bench/cautions";
-import { freeColorIndex, RAW_COLOR } from "@/lib/bench/colors";
-import { defaultSpec } from "@/lib/bench/spec-defaults";
+import { candidateColor, candidateName } from "@/lib/bench/candidates";
+import { RAW_COLOR } from "@/lib/bench/colors";
 import { specSummary } from "@/lib/bench/spec-text";
 import { liveSpectrum } from "@/lib/bench/spectrum";
-import { designFilter, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import type { QuantFormat } from "@/lib/dsp";
 import type { CandidateMetrics } from "@/lib/protocol";
 import { longestRun, replayThrough } from "@/lib/recordings/replay";
 import { fetchSamples } from "./api";
@@ -31,16 +29,6 @@ export interface ReplayRecording {
   unit: string;
   sampleRateHz: number;
   coefficientFormat: QuantFormat;
-}
-
-type Designed = { design: FilterDesign; error: null } | { design: null; error: string };
-
-function designOf(spec: FilterSpec): Designed {
-  try {
-    return { design: designFilter(spec), error: null };
-  } catch (err) {
-    return { design: null, error: err instanceof Error ? err.message.replace(/^invalid filter spec:\n/, "") : String(err) };
-  }
 }
 
 /** RMS of raw − output over samples present in both, in the channel's unit. */
@@ -69,18 +57,18 @@ function spectrumOf(x: Float64Array, run: { from: number; to: number }, fs: numb
 export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecording; canEdit: boolean }) {
   const fs = recording.sampleRateHz;
   const samples = useQuery({ queryKey: ["recording-samples", recording.id], queryFn: () => fetchSamples(recording.id), staleTime: Infinity });
-  const [candidates, setCandidates] = useState<Candidate[]>([]);
-  const [editingId, setEditingId] = useState<string | null>(null);
-  const [seedVersion, setSeedVersion] = useState(0);
   const [showRaw, setShowRaw] = useState(true);
   const [delayAtHz, setDelayAtHz] = useState<number | null>(null);
   const [crossoverHz, setCrossoverHz] = useState<number | null>(null);
-  const nextId = useRef(1);
+  const { candidates, designs, cautions, editingId, setEditingId, editing, editingDesign, seedVersion, addCandidate, updateSpec, removeCandidate, setCandidateVisible, seed } = useCandidates({
+    sampleRateHz: fs,
+    deviceFormat: recording.coefficientFormat,
+    crossoverHz,
+  });
   const outputCache = useRef(new Map<string, Float64Array>());
 
   const raw = samples.data ?? null;
   const run = useMemo(() => (raw ? longestRun(raw) : { from: 0, to: 0 }), [raw]);
-  const designs = useMemo(() => new Map(candidates.map((c) => [c.id, designOf(c.spec)])), [candidates]);
   const outputs = useMemo(() => {
     const out = new Map<string, Float64Array>();
     if (!raw) return out;
@@ -97,19 +85,6 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
     outputCache.current = next;
     return out;
   }, [raw, candidates, designs]);
-  const cautions = useMemo(() => {
-    const out = new Map<string, Caution[]>();
-    for (const c of candidates) {
-      const d = designs.get(c.id);
-      if (!d?.design) continue;
-      try {
-        out.set(c.id, cautionsFor({ spec: c.spec, design: d.design, deviceFormat: recording.coefficientFormat, crossoverHz }));
-      } catch {
-        out.set(c.id, []);
-      }
-    }
-    return out;
-  }, [candidates, designs, recording.coefficientFormat, crossoverHz]);
 
   const traces: ReplayTrace[] = useMemo(() => {
     if (!raw) return [];
@@ -129,35 +104,15 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
     return m;
   }, [raw, outputs, noiseLineHz]);
 
-  const addCandidate = (spec?: FilterSpec) => {
-    const colorIndex = freeColorIndex(candidates.map((c) => c.colorIndex));
-    if (colorIndex === null) return;
-    const c: Candidate = { id: `cand-${nextId.current++}`, colorIndex, spec: spec ?? defaultSpec("iir", fs), visible: true };
-    setCandidates((cs) => [...cs, c]);
-    setEditingId(c.id);
-  };
-  const updateSpec = (id: string, spec: FilterSpec) => setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, spec } : c)));
-  const removeCandidate = (id: string) => {
-    setCandidates((cs) => cs.filter((c) => c.id !== id));
-    if (editingId === id) setEditingId(null);
-  };
   const setVisible = (id: string, visible: boolean) => {
     if (id === "raw") return setShowRaw(visible);
-    setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, visible } : c)));
-  };
-  const seed = (freqHz: number, mode: SeedMode) => {
-    const editing = candidates.find((c) => c.id === editingId);
-    if (!editing) return addCandidate(seedSpec(null, freqHz, mode, fs));
-    updateSpec(editing.id, seedSpec(editing.spec, freqHz, mode, fs));
-    setSeedVersion((v) => v + 1);
+    setCandidateVisible(id, visible);
   };
 
   const items: AnalysisItem[] = candidates.flatMap((c) => {
     const d = designs.get(c.id);
     return c.visible && d?.design ? [{ id: c.id, name: candidateName(c), color: candidateColor(c), spec: c.spec, design: d.design }] : [];
   });
-  const editing = candidates.find((c) => c.id === editingId) ?? null;
-  const editingDesign = editing ? designs.get(editing.id) : undefined;
 
   if (samples.isPending) return <Notice title="Loading the samples…">Large recordings take a few seconds to arrive.</Notice>;
   if (samples.isError) {

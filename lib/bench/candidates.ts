@@ -1,4 +1,4 @@
-import type { FilterSpec } from "@/lib/dsp";
+import { designFilter, type FilterDesign, type FilterSpec } from "@/lib/dsp";
 import { CANDIDATE_COLORS } from "./colors";
 import { FIRST_CANDIDATE_SLOT } from "./live-store";
 
@@ -33,4 +33,15 @@ export function seedSpec(spec: FilterSpec | null, freqHz: number, mode: "notch" 
   if (spec && spec.kind === "ema") return { ...spec, cutoffHz: f };
   if (spec && spec.kind === "biquad" && spec.shape !== "notch") return { ...spec, centerHz: f };
   return { kind: "iir", family: "butterworth", response: "lowpass", order: 4, cutoffHz: f, sampleRateHz };
+}
+
+/** A candidate's design, or why its spec cannot be designed (the validation lines without their heading). */
+export type Designed = { design: FilterDesign; error: null } | { design: null; error: string };
+
+export function tryDesign(spec: FilterSpec): Designed {
+  try {
+    return { design: designFilter(spec), error: null };
+  } catch (err) {
+    return { design: null, error: err instanceof Error ? err.message.replace(/^invalid filter spec:\n/, "") : String(err) };
+  }
 }

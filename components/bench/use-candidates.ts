@@ -1,0 +1,72 @@
+"use client";
+
+import { useMemo, useRef, useState } from "react";
+import { seedSpec, tryDesign, type Candidate, type Designed } from "@/lib/bench/candidates";
+import { cautionsFor, type Caution } from "@/lib/bench/cautions";
+import { freeColorIndex } from "@/lib/bench/colors";
+import { defaultSpec } from "@/lib/bench/spec-defaults";
+import type { FilterSpec, QuantFormat } from "@/lib/dsp";
+import type { SeedMode } from "./spectrum-panel";
+
+interface Options {
+  sampleRateHz: number;
+  deviceFormat: QuantFormat;
+  crossoverHz: number | null;
+  /** Called with each new candidate as it is added (the live bench binds its trace slot here). */
+  onAdd?: (c: Candidate) => void;
+  /** Called with a candidate's id as it is removed. */
+  onRemove?: (id: string) => void;
+}
+
+/**
+ * The candidate list shared by the live bench and the recording replay: candidates with their designs
+ * and cautions, the one being edited, and adding, editing, hiding, removing and seeding from a peak.
+ */
+export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onAdd, onRemove }: Options) {
+  const [candidates, setCandidates] = useState<Candidate[]>([]);
+  const [editingId, setEditingId] = useState<string | null>(null);
+  const [seedVersion, setSeedVersion] = useState(0);
+  const nextId = useRef(1);
+
+  const designs = useMemo(() => new Map<string, Designed>(candidates.map((c) => [c.id, tryDesign(c.spec)])), [candidates]);
+  const cautions = useMemo(() => {
+    const out = new Map<string, Caution[]>();
+    for (const c of candidates) {
+      const d = designs.get(c.id);
+      if (!d?.design) continue;
+      try {
+        out.set(c.id, cautionsFor({ spec: c.spec, design: d.design, deviceFormat, crossoverHz }));
+      } catch {
+        out.set(c.id, []);
+      }
+    }
+    return out;
+  }, [candidates, designs, deviceFormat, crossoverHz]);
+
+  const addCandidate = (spec?: FilterSpec) => {
+    const colorIndex = freeColorIndex(candidates.map((c) => c.colorIndex));
+    if (colorIndex === null) return;
+    const c: Candidate = { id: `cand-${nextId.current++}`, colorIndex, spec: spec ?? defaultSpec("iir", fs), visible: true };
+    onAdd?.(c);
+    setCandidates((cs) => [...cs, c]);
+    setEditingId(c.id);
+  };
+  const updateSpec = (id: string, spec: FilterSpec) => setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, spec } : c)));
+  const removeCandidate = (id: string) => {
+    onRemove?.(id);
+    setCandidates((cs) => cs.filter((c) => c.id !== id));
+    if (editingId === id) setEditingId(null);
+  };
+  const setCandidateVisible = (id: string, visible: boolean) => setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, visible } : c)));
+  const seed = (freqHz: number, mode: SeedMode) => {
+    const editing = candidates.find((c) => c.id === editingId);
+    if (!editing) return addCandidate(seedSpec(null, freqHz, mode, fs));
+    updateSpec(editing.id, seedSpec(editing.spec, freqHz, mode, fs));
+    setSeedVersion((v) => v + 1);
+  };
+
+  const editing = candidates.find((c) => c.id === editingId) ?? null;
+  const editingDesign = editing ? designs.get(editing.id) : undefined;
+
+  return { candidates, designs, cautions, editingId, setEditingId, editing, editingDesign, seedVersion, addCandidate, updateSpec, removeCandidate, setCandidateVisible, seed };
+}
