@@ -7,6 +7,7 @@ import { Swatch } from "@/components/ui/swatch";
 import { withUnit } from "@/lib/bench/format";
 import type { LiveStore } from "@/lib/bench/live-store";
 import { ConnectionBadge } from "./connection-badge";
+import { TraceToggles } from "./trace-toggles";
 import type { LiveStatus } from "./use-live-channel";
 
 export interface TraceInfo {
@@ -97,15 +98,7 @@ export function LivePanel({
         </div>
         <p className="ml-auto hidden text-xs text-slate-500 xl:block">Drag to zoom · shift-drag to pan · double-click to follow live</p>
       </div>
-      <div className="flex flex-wrap gap-x-4 gap-y-1 px-4 pt-2 text-sm">
-        {traces.map((t) => (
-          <label key={t.id} className="flex items-center gap-1.5">
-            <input type="checkbox" checked={t.visible} onChange={(e) => onToggle(t.id, e.target.checked)} aria-label={`Show ${t.label}`} />
-            <Swatch color={t.color} />
-            <span>{t.label}</span>
-          </label>
-        ))}
-      </div>
+      <TraceToggles traces={traces} onToggle={onToggle} />
       <div className="p-3">
         <div className="rounded-md bg-canvas p-2">
           <UPlotChart

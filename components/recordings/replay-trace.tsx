@@ -4,7 +4,7 @@ import { useMemo, useState } from "react";
 import type uPlot from "uplot";
 import type { ChartSource } from "@/components/charts/sources";
 import { UPlotChart } from "@/components/charts/uplot-chart";
-import { Swatch } from "@/components/ui/swatch";
+import { TraceToggles } from "@/components/bench/trace-toggles";
 import { decimateMinMax } from "@/lib/bench/decimate";
 import type { ColumnView } from "@/lib/bench/ring-buffer";
 import { formatDuration } from "@/lib/recordings/format";
@@ -74,15 +74,7 @@ export function ReplayTraceChart({ traces, sampleRateHz, unit, onToggle }: { tra
         )}
         <p className="ml-auto hidden text-xs text-slate-500 xl:block">Drag to zoom · shift-drag to pan · double-click to reset</p>
       </div>
-      <div className="flex flex-wrap gap-x-4 gap-y-1 px-4 pt-2 text-sm">
-        {traces.map((t) => (
-          <label key={t.id} className="flex items-center gap-1.5">
-            <input type="checkbox" checked={t.visible} disabled={!onToggle} onChange={(e) => onToggle?.(t.id, e.target.checked)} aria-label={`Show ${t.label}`} />
-            <Swatch color={t.color} />
-            <span>{t.label}</span>
-          </label>
-        ))}
-      </div>
+      <TraceToggles traces={traces} onToggle={onToggle} />
       <div className="p-3">
         <div className="rounded-md bg-canvas p-2">
           <UPlotChart
