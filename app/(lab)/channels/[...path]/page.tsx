@@ -34,6 +34,11 @@ export default async function ChannelBenchPage({ params }: Params) {
           </Link>{" "}
           / {channel.deviceName} · {channel.path} · {formatHz(channel.sampleRateHz)} · {channel.unit} · device format {channel.coefficientFormat.toUpperCase()}
         </p>
+        {canEdit && (
+          <nav className="ml-auto flex gap-2 text-sm" aria-label="Channel tools">
+            <Link href={`/loop/${channel.path}`} className="btn-quiet">Loop check</Link>
+          </nav>
+        )}
         {!canEdit && <p className="text-sm text-slate-500">You are watching as an operator: the live traces and the production filter are shown; trying filters needs the engineer role.</p>}
       </div>
       <Bench
