@@ -5,9 +5,10 @@ import { Segmented } from "@/components/ui/segmented";
 import { Swatch } from "@/components/ui/swatch";
 import { candidateColor, candidateName, type Candidate } from "@/lib/bench/candidates";
 import type { Caution } from "@/lib/bench/cautions";
-import { defaultSpec, KIND_LABELS, SPEC_KINDS, type SpecKind } from "@/lib/bench/spec-defaults";
+import { defaultSpec } from "@/lib/bench/spec-defaults";
 import type { FilterSpec } from "@/lib/dsp";
 import { CautionsList } from "./cautions-list";
+import { KindSelect } from "./kind-select";
 import { RequirementForm } from "./requirement-form";
 import { SpecForm } from "./spec-form";
 
@@ -49,26 +50,15 @@ export function EditorPanel({
         </button>
       </header>
       <div className="flex-1 space-y-4 overflow-y-auto px-4 py-4">
-        <div>
-          <label htmlFor="spec-kind" className="label">
-            Kind of filter
-          </label>
-          <select
-            id="spec-kind"
-            className="field"
-            value={kind}
-            onChange={(e) => {
-              setMode("order");
-              onSpec(defaultSpec(e.target.value as SpecKind, fs));
-            }}
-          >
-            {SPEC_KINDS.map((k) => (
-              <option key={k} value={k}>
-                {KIND_LABELS[k]}
-              </option>
-            ))}
-          </select>
-        </div>
+        <KindSelect
+          id="spec-kind"
+          label="Kind of filter"
+          value={kind}
+          onChange={(k) => {
+            setMode("order");
+            onSpec(defaultSpec(k, fs));
+          }}
+        />
         {kind === "iir" && (
           <Segmented
             label="How to set the order"

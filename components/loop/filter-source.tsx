@@ -3,9 +3,10 @@
 import { useQuery } from "@tanstack/react-query";
 import { useEffect, useMemo, useState } from "react";
 import { fetchProduction, fetchSets } from "@/components/bench/api";
+import { KindSelect } from "@/components/bench/kind-select";
 import { SpecForm } from "@/components/bench/spec-form";
 import { Segmented } from "@/components/ui/segmented";
-import { defaultSpec, KIND_LABELS, SPEC_KINDS, type SpecKind } from "@/lib/bench/spec-defaults";
+import { defaultSpec, KIND_LABELS, type SpecKind } from "@/lib/bench/spec-defaults";
 import { designFilter, filterSpecSchema, type FilterDesign, type FilterSpec } from "@/lib/dsp";
 import { startingSpec } from "./defaults";
 
@@ -148,27 +149,15 @@ export function FilterSource({ path, sampleRateHz, onPick }: { path: string; sam
           />
           {typing === "form" ? (
             <>
-              <div>
-                <label htmlFor="loop-spec-kind" className="label">
-                  Design
-                </label>
-                <select
-                  id="loop-spec-kind"
-                  className="field"
-                  value={spec.kind}
-                  onChange={(e) => {
-                    const kind = e.target.value as SpecKind;
-                    setSpec(kind === "iir" ? startingSpec(sampleRateHz) : defaultSpec(kind, sampleRateHz));
-                    setFormVersion((v) => v + 1);
-                  }}
-                >
-                  {SPEC_KINDS.map((k) => (
-                    <option key={k} value={k}>
-                      {KIND_LABELS[k]}
-                    </option>
-                  ))}
-                </select>
-              </div>
+              <KindSelect
+                id="loop-spec-kind"
+                label="Design"
+                value={spec.kind}
+                onChange={(kind) => {
+                  setSpec(kind === "iir" ? startingSpec(sampleRateHz) : defaultSpec(kind, sampleRateHz));
+                  setFormVersion((v) => v + 1);
+                }}
+              />
               <SpecForm key={`${spec.kind}-${formVersion}`} initial={spec} onValid={setSpec} />
             </>
           ) : (
