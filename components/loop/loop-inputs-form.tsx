@@ -1,17 +1,9 @@
 "use client";
 
 import { Segmented } from "@/components/ui/segmented";
+import { METHOD_LABELS } from "@/lib/bench/spec-defaults";
 import { discretizationMethods } from "@/lib/dsp";
 import type { LoopInputs } from "./defaults";
-
-const METHOD_LABELS: Record<LoopInputs["method"], string> = {
-  "forward-euler": "Forward Euler",
-  "backward-euler": "Backward Euler",
-  tustin: "Tustin (bilinear)",
-  "tustin-prewarp": "Tustin with prewarping",
-  zoh: "Zero-order hold",
-  matched: "Matched z",
-};
 
 function Field({ id, label, unit, value, onChange, hint, error }: { id: string; label: string; unit?: string; value: string; onChange: (v: string) => void; hint?: string; error?: string }) {
   return (

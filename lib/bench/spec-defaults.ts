@@ -1,4 +1,4 @@
-import type { FilterSpec } from "@/lib/dsp";
+import type { DiscretizationMethod, FilterSpec } from "@/lib/dsp";
 
 export const SPEC_KINDS = ["iir", "biquad", "fir", "moving-average", "differentiator", "ema", "analog", "coefficients"] as const;
 export type SpecKind = (typeof SPEC_KINDS)[number];
@@ -12,6 +12,16 @@ export const KIND_LABELS: Record<SpecKind, string> = {
   ema: "Exponential smoothing",
   analog: "Analog H(s)",
   coefficients: "Pasted coefficients",
+};
+
+/** How each s→z discretisation method is named in the forms. */
+export const METHOD_LABELS: Record<DiscretizationMethod, string> = {
+  "forward-euler": "Forward Euler",
+  "backward-euler": "Backward Euler",
+  tustin: "Tustin (bilinear)",
+  "tustin-prewarp": "Tustin with prewarping",
+  zoh: "Zero-order hold",
+  matched: "Matched z",
 };
 
 /** A round number of Hz near fraction·fs (at least 1 Hz), for starting values. */
