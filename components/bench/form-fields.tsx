@@ -17,7 +17,18 @@ export function errorAt(errors: FieldErrors<FieldValues>, path: string): string 
   return found;
 }
 
-function FieldMessage({ id, message }: { id: string; message?: string }) {
+/** A field's label, with its unit in brackets when it has one. */
+export function FieldLabel({ id, label, unit }: { id: string; label: string; unit?: string }) {
+  return (
+    <label htmlFor={id} className="label">
+      {label}
+      {unit && <span className="ml-1 normal-case text-slate-400">({unit})</span>}
+    </label>
+  );
+}
+
+/** A field's error below it, announced as an alert; nothing without a message. */
+export function FieldMessage({ id, message }: { id?: string; message?: string }) {
   if (!message) return null;
   return (
     <p id={id} role="alert" className="mt-1 text-xs text-red-700 dark:text-red-300">
@@ -35,10 +46,7 @@ export function NumberField({ name, label, unit, optional = false, step = "any" 
   const id = fieldId(name);
   return (
     <div>
-      <label htmlFor={id} className="label">
-        {label}
-        {unit && <span className="ml-1 normal-case text-slate-400">({unit})</span>}
-      </label>
+      <FieldLabel id={id} label={label} unit={unit} />
       <input
         id={id}
         type="number"
@@ -61,9 +69,7 @@ export function SelectField({ name, label, options, onPicked }: { name: string; 
   const reg = register(name);
   return (
     <div>
-      <label htmlFor={id} className="label">
-        {label}
-      </label>
+      <FieldLabel id={id} label={label} />
       <select
         id={id}
         className="field"
@@ -102,9 +108,7 @@ export function ListField({ name, label, rows = false, lines = 2, hint }: { name
       name={name}
       render={({ field }) => (
         <div>
-          <label htmlFor={id} className="label">
-            {label}
-          </label>
+          <FieldLabel id={id} label={label} />
           <textarea
             id={id}
             rows={lines}

@@ -1,5 +1,6 @@
 "use client";
 
+import { FieldLabel, FieldMessage } from "@/components/bench/form-fields";
 import { Segmented } from "@/components/ui/segmented";
 import { METHOD_LABELS } from "@/lib/bench/spec-defaults";
 import { discretizationMethods } from "@/lib/dsp";
@@ -8,17 +9,10 @@ import type { LoopInputs } from "./defaults";
 function Field({ id, label, unit, value, onChange, hint, error }: { id: string; label: string; unit?: string; value: string; onChange: (v: string) => void; hint?: string; error?: string }) {
   return (
     <div>
-      <label htmlFor={id} className="label">
-        {label}
-        {unit && <span className="ml-1 normal-case text-slate-400">({unit})</span>}
-      </label>
+      <FieldLabel id={id} label={label} unit={unit} />
       <input id={id} className="field num" value={value} onChange={(e) => onChange(e.target.value)} inputMode="decimal" aria-invalid={error ? true : undefined} spellCheck={false} />
       {hint && !error && <p className="mt-1 text-xs text-slate-500">{hint}</p>}
-      {error && (
-        <p role="alert" className="mt-1 text-xs text-red-700 dark:text-red-300">
-          {error}
-        </p>
-      )}
+      <FieldMessage message={error} />
     </div>
   );
 }
