@@ -1,17 +1,7 @@
-interface AuditItem {
-  id: string;
-  at: Date;
-  actor: string | null;
-  actorEmail: string | null;
-  action: string;
-  entity: string;
-  entityId: string | null;
-  before: unknown;
-  after: unknown;
-}
+import type { AuditRow } from "@/lib/audit";
 
 interface Props {
-  items: AuditItem[];
+  items: AuditRow[];
   total: number;
   page: number;
   pageSize: number;

@@ -1,4 +1,5 @@
 import type { Transaction } from "kysely";
+import type { AuditRow } from "@/lib/audit";
 import type { Db } from "../client";
 import type { Database } from "../types";
 import { escapeLike } from "./sets";
@@ -15,17 +16,7 @@ export interface AuditFilters {
   to?: Date;
 }
 
-export interface AuditRow {
-  id: string;
-  at: Date;
-  actor: string | null;
-  actorEmail: string | null;
-  action: string;
-  entity: string;
-  entityId: string | null;
-  before: unknown;
-  after: unknown;
-}
+export type { AuditRow };
 
 function filtered(db: Conn, f: AuditFilters) {
   let q = db.selectFrom("audit_log as a").leftJoin("users as u", "u.id", "a.actor_id");
