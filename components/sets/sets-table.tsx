@@ -4,18 +4,12 @@ import { keepPreviousData, useQuery } from "@tanstack/react-query";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import Link from "next/link";
 import { useDeferredValue, useState } from "react";
-import { SET_STATUSES, STATE_LABELS, type SetStatus } from "@/lib/workflow";
+import { SET_STATUSES, STATE_LABELS } from "@/lib/workflow";
+import type { SetListItem } from "@/lib/workflow/set-list";
 import { StateBadge } from "./state-badge";
 
-interface SetRow {
-  id: number;
-  name: string;
-  channel: string;
-  status: SetStatus;
-  latestRevision: number;
-  author: string;
-  updatedAt: string;
-}
+/** A list row as GET /api/v1/sets sends it (dates as ISO strings). */
+type SetRow = SetListItem<string>;
 
 const PAGE_SIZE = 20;
 const col = createColumnHelper<SetRow>();

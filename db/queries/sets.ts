@@ -3,6 +3,7 @@ import type { RevisionContent } from "@/lib/coefficients";
 import type { FilterSpec } from "@/lib/dsp";
 import { AppError } from "@/lib/errors";
 import { decide, type SetStatus } from "@/lib/workflow";
+import type { SetListItem } from "@/lib/workflow/set-list";
 import type { SessionUser } from "@/lib/auth/guard";
 import type { Db } from "../client";
 import type { CoefficientFormat, Database } from "../types";
@@ -139,16 +140,6 @@ export interface SetFilters {
   dir: "asc" | "desc";
   page: number;
   pageSize: number;
-}
-
-export interface SetListItem {
-  id: number;
-  name: string;
-  channel: string;
-  status: SetStatus;
-  latestRevision: number;
-  author: string;
-  updatedAt: Date;
 }
 
 const SORT_COLUMN = {
