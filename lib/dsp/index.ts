@@ -1,25 +1,7 @@
 /** Public contract of lib/dsp: design requests, designs, discretisation, paste parsing, analysis and running. */
 export type { Complex, FilterDesign } from "./types";
 
-export {
-  filterSpecSchema,
-  biquadSpecSchema,
-  firSpecSchema,
-  movingAverageSpecSchema,
-  differentiatorSpecSchema,
-  emaSpecSchema,
-  analogSpecSchema,
-  coefficientsSpecSchema,
-  SPEC_LIMITS,
-  type FilterSpec,
-  type BiquadSpec,
-  type FirSpec,
-  type MovingAverageSpec,
-  type DifferentiatorSpec,
-  type EmaSpec,
-  type AnalogSpec,
-  type CoefficientsSpec,
-} from "./spec";
+export * from "./spec";
 export { designFilter } from "./design";
 export { designFromBa, designFromSos, designFromTaps } from "./transfer";
 
