@@ -13,11 +13,10 @@ import { AnalysisArea } from "./analysis-area";
 import type { AnalysisItem } from "./analysis-views";
 import { fetchProduction, type ProductionFilter } from "./api";
 import { CandidateCards } from "./candidate-cards";
-import { CautionsList } from "./cautions-list";
+import { CandidateCautions } from "./cautions-list";
 import { ComparisonTable } from "./comparison-table";
-import { EditorPanel } from "./editor-panel";
+import { CandidateEditor } from "./editor-panel";
 import { LivePanel, type TraceInfo } from "./live-panel";
-import { SavePanel } from "./save-panel";
 import { SpectrumPanel } from "./spectrum-panel";
 import { useCandidates } from "./use-candidates";
 import { useLiveChannel } from "./use-live-channel";
@@ -45,7 +44,7 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
   const [noiseLineHz, setNoiseLineHz] = useState<number | null>(null);
   const [delayAtHz, setDelayAtHz] = useState<number | null>(null);
   const [crossoverHz, setCrossoverHz] = useState<number | null>(null);
-  const { candidates, designs, cautions, editingId, setEditingId, editing, editingDesign, seedVersion, addCandidate, updateSpec, removeCandidate, setCandidateVisible, seed } = useCandidates({
+  const candidateList = useCandidates({
     sampleRateHz: fs,
     deviceFormat: channel.coefficientFormat,
     crossoverHz,
@@ -53,6 +52,7 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
     onAdd: (c) => store.bind(c.id, candidateSlot(c)),
     onRemove: (id) => store.unbind(id),
   });
+  const { candidates, designs, cautions, editingId, setEditingId, editing, addCandidate, removeCandidate, setCandidateVisible, seed } = candidateList;
   const sentRef = useRef(new Map<string, string>());
   const candidatesRef = useRef(candidates);
   candidatesRef.current = candidates;
@@ -160,13 +160,7 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
         }
         spectrum={<SpectrumPanel store={store} traces={traces.filter((t) => t.visible)} unit={channel.unit} title="Spectrum of the shown traces" />}
       />
-      {candidates.some((c) => (cautions.get(c.id)?.length ?? 0) > 0) && (
-        <section aria-label="Cautions" className="space-y-2">
-          {candidates.map((c) => (
-            <CautionsList key={c.id} cautions={cautions.get(c.id) ?? []} name={candidateName(c)} />
-          ))}
-        </section>
-      )}
+      <CandidateCautions candidates={candidates} cautions={cautions} />
       <ComparisonTable
         items={items}
         metrics={live.metrics}
@@ -181,17 +175,7 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
             : "No production filter is active on this channel, so there is nothing to compare."
         }
       />
-      {canEdit && editing && (
-        <EditorPanel
-          candidate={editing}
-          seedVersion={seedVersion}
-          designError={editingDesign?.error ?? null}
-          cautions={cautions.get(editing.id) ?? []}
-          onSpec={(spec) => updateSpec(editing.id, spec)}
-          onClose={() => setEditingId(null)}
-          save={<SavePanel key={editing.id} channel={channel.path} spec={editingDesign?.design ? editing.spec : null} suggestedName={`${channel.name} · ${specSummary(editing.spec)}`} />}
-        />
-      )}
+      {canEdit && <CandidateEditor list={candidateList} channelPath={channel.path} channelName={channel.name} />}
     </div>
   );
 }

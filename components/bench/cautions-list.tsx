@@ -1,3 +1,4 @@
+import { candidateName, type Candidate } from "@/lib/bench/candidates";
 import { REVIEW_LINE, type Caution } from "@/lib/bench/cautions";
 
 /** Cautions in plain words, each closing with the line that defers to review and local codes. */
@@ -16,5 +17,17 @@ export function CautionsList({ cautions, name }: { cautions: Caution[]; name?: s
         </li>
       ))}
     </ul>
+  );
+}
+
+/** Every candidate's cautions, each list named for its candidate; nothing when none has any. */
+export function CandidateCautions({ candidates, cautions }: { candidates: Candidate[]; cautions: Map<string, Caution[]> }) {
+  if (!candidates.some((c) => (cautions.get(c.id)?.length ?? 0) > 0)) return null;
+  return (
+    <section aria-label="Cautions" className="space-y-2">
+      {candidates.map((c) => (
+        <CautionsList key={c.id} cautions={cautions.get(c.id) ?? []} name={candidateName(c)} />
+      ))}
+    </section>
   );
 }

@@ -6,11 +6,14 @@ import { Swatch } from "@/components/ui/swatch";
 import { candidateColor, candidateName, type Candidate } from "@/lib/bench/candidates";
 import type { Caution } from "@/lib/bench/cautions";
 import { defaultSpec } from "@/lib/bench/spec-defaults";
+import { specSummary } from "@/lib/bench/spec-text";
 import type { FilterSpec } from "@/lib/dsp";
 import { CautionsList } from "./cautions-list";
 import { KindSelect } from "./kind-select";
 import { RequirementForm } from "./requirement-form";
+import { SavePanel } from "./save-panel";
 import { SpecForm } from "./spec-form";
+import type { CandidateList } from "./use-candidates";
 
 /**
  * The candidate editor in a side panel: the design kind, then its fields (or, for IIR, a requirement
@@ -84,5 +87,22 @@ export function EditorPanel({
         {save}
       </div>
     </aside>
+  );
+}
+
+/** The editor of the candidate being edited in `list`, saving to the given channel; nothing when none is. */
+export function CandidateEditor({ list, channelPath, channelName }: { list: CandidateList; channelPath: string; channelName: string }) {
+  const { editing, editingDesign } = list;
+  if (!editing) return null;
+  return (
+    <EditorPanel
+      candidate={editing}
+      seedVersion={list.seedVersion}
+      designError={editingDesign?.error ?? null}
+      cautions={list.cautions.get(editing.id) ?? []}
+      onSpec={(spec) => list.updateSpec(editing.id, spec)}
+      onClose={() => list.setEditingId(null)}
+      save={<SavePanel key={editing.id} channel={channelPath} spec={editingDesign?.design ? editing.spec : null} suggestedName={`${channelName} · ${specSummary(editing.spec)}`} />}
+    />
   );
 }

@@ -70,3 +70,5 @@ export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onA
 
   return { candidates, designs, cautions, editingId, setEditingId, editing, editingDesign, seedVersion, addCandidate, updateSpec, removeCandidate, setCandidateVisible, seed };
 }
+
+export type CandidateList = ReturnType<typeof useCandidates>;

@@ -5,15 +5,13 @@ import { useMemo, useRef, useState } from "react";
 import { AnalysisArea } from "@/components/bench/analysis-area";
 import type { AnalysisItem } from "@/components/bench/analysis-views";
 import { CandidateCards } from "@/components/bench/candidate-cards";
-import { CautionsList } from "@/components/bench/cautions-list";
+import { CandidateCautions } from "@/components/bench/cautions-list";
 import { ComparisonTable } from "@/components/bench/comparison-table";
-import { EditorPanel } from "@/components/bench/editor-panel";
-import { SavePanel } from "@/components/bench/save-panel";
+import { CandidateEditor } from "@/components/bench/editor-panel";
 import { useCandidates } from "@/components/bench/use-candidates";
 import { Notice } from "@/components/ui/notice";
 import { candidateColor, candidateName } from "@/lib/bench/candidates";
 import { RAW_COLOR } from "@/lib/bench/colors";
-import { specSummary } from "@/lib/bench/spec-text";
 import { liveSpectrum } from "@/lib/bench/spectrum";
 import type { QuantFormat } from "@/lib/dsp";
 import type { CandidateMetrics } from "@/lib/protocol";
@@ -60,11 +58,8 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
   const [showRaw, setShowRaw] = useState(true);
   const [delayAtHz, setDelayAtHz] = useState<number | null>(null);
   const [crossoverHz, setCrossoverHz] = useState<number | null>(null);
-  const { candidates, designs, cautions, editingId, setEditingId, editing, editingDesign, seedVersion, addCandidate, updateSpec, removeCandidate, setCandidateVisible, seed } = useCandidates({
-    sampleRateHz: fs,
-    deviceFormat: recording.coefficientFormat,
-    crossoverHz,
-  });
+  const candidateList = useCandidates({ sampleRateHz: fs, deviceFormat: recording.coefficientFormat, crossoverHz });
+  const { candidates, designs, cautions, editingId, setEditingId, editing, addCandidate, removeCandidate, setCandidateVisible, seed } = candidateList;
   const outputCache = useRef(new Map<string, Float64Array>());
 
   const raw = samples.data ?? null;
@@ -144,13 +139,7 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
           />
           {candidates.length === 0 && <Notice title="No candidates yet">Add a candidate to run a filter through the whole recording, or pick a peak in the spectrum to start from a notch.</Notice>}
           <AnalysisArea items={items} sampleRateHz={fs} deviceFormat={recording.coefficientFormat} emptyText="Nothing to analyse yet: add a candidate, or show one that is hidden." spectrum={spectrumPanel} />
-          {candidates.some((c) => (cautions.get(c.id)?.length ?? 0) > 0) && (
-            <section aria-label="Cautions" className="space-y-2">
-              {candidates.map((c) => (
-                <CautionsList key={c.id} cautions={cautions.get(c.id) ?? []} name={candidateName(c)} />
-              ))}
-            </section>
-          )}
+          <CandidateCautions candidates={candidates} cautions={cautions} />
           <ComparisonTable
             items={items}
             metrics={{}}
@@ -161,17 +150,7 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
             onCrossover={setCrossoverHz}
             emptyText="No filters to compare yet. Add a candidate above."
           />
-          {editing && (
-            <EditorPanel
-              candidate={editing}
-              seedVersion={seedVersion}
-              designError={editingDesign?.error ?? null}
-              cautions={cautions.get(editing.id) ?? []}
-              onSpec={(spec) => updateSpec(editing.id, spec)}
-              onClose={() => setEditingId(null)}
-              save={<SavePanel key={editing.id} channel={recording.channelPath} spec={editingDesign?.design ? editing.spec : null} suggestedName={`${recording.channelName} · ${specSummary(editing.spec)}`} />}
-            />
-          )}
+          <CandidateEditor list={candidateList} channelPath={recording.channelPath} channelName={recording.channelName} />
         </>
       )}
     </div>
