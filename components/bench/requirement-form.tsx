@@ -5,10 +5,9 @@ import { useEffect, useRef, useState } from "react";
 import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
 import { IIR_FAMILIES, IIR_RESPONSES, orderRequirementSchema, type FilterSpec, type OrderRequirement } from "@/lib/dsp";
 import { defaultRequirement, specFromRequirement } from "@/lib/bench/requirement";
+import { FAMILY_LABELS } from "@/lib/bench/spec-defaults";
 import { hz } from "@/lib/bench/format";
 import { NumberField, SelectField } from "./form-fields";
-
-const FAMILY_LABELS: Record<string, string> = { butterworth: "Butterworth", chebyshev1: "Chebyshev I", chebyshev2: "Chebyshev II", elliptic: "Elliptic", bessel: "Bessel" };
 
 function edges(response: string, current: unknown, wider: boolean): number | [number, number] {
   const band = response === "bandpass" || response === "bandstop";

@@ -3,7 +3,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useRef } from "react";
 import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
-import { METHOD_LABELS } from "@/lib/bench/spec-defaults";
+import { FAMILY_LABELS, METHOD_LABELS } from "@/lib/bench/spec-defaults";
 import {
   biquadShapes,
   discretizationMethods,
@@ -18,8 +18,6 @@ import {
 import { ListField, NumberField, SelectField } from "./form-fields";
 
 const opts = (values: readonly string[], labels: Record<string, string> = {}) => values.map((v) => ({ value: v, label: labels[v] ?? v }));
-const FAMILY_LABELS = { butterworth: "Butterworth", chebyshev1: "Chebyshev I", chebyshev2: "Chebyshev II", elliptic: "Elliptic", bessel: "Bessel" };
-
 /** Moves a cutoff between one frequency (low/high-pass) and a pair (band designs) when the response changes. */
 function cutoffFor(response: string, current: unknown): number | [number, number] {
   const band = response === "bandpass" || response === "bandstop";

@@ -1,4 +1,4 @@
-import type { DiscretizationMethod, FilterSpec } from "@/lib/dsp";
+import type { DiscretizationMethod, FilterSpec, IirFamily } from "@/lib/dsp";
 
 export const SPEC_KINDS = ["iir", "biquad", "fir", "moving-average", "differentiator", "ema", "analog", "coefficients"] as const;
 export type SpecKind = (typeof SPEC_KINDS)[number];
@@ -12,6 +12,15 @@ export const KIND_LABELS: Record<SpecKind, string> = {
   ema: "Exponential smoothing",
   analog: "Analog H(s)",
   coefficients: "Pasted coefficients",
+};
+
+/** How each IIR family is named in the forms. */
+export const FAMILY_LABELS: Record<IirFamily, string> = {
+  butterworth: "Butterworth",
+  chebyshev1: "Chebyshev I",
+  chebyshev2: "Chebyshev II",
+  elliptic: "Elliptic",
+  bessel: "Bessel",
 };
 
 /** How each s→z discretisation method is named in the forms. */
