@@ -1,13 +1,7 @@
 import type { FilterSpec } from "@/lib/dsp";
 import { hz, withUnit } from "./format";
+import { FAMILY_LABELS } from "./spec-defaults";
 
-const FAMILY: Record<string, string> = {
-  butterworth: "Butterworth",
-  chebyshev1: "Chebyshev I",
-  chebyshev2: "Chebyshev II",
-  elliptic: "Elliptic",
-  bessel: "Bessel",
-};
 const RESPONSE: Record<string, string> = { lowpass: "LP", highpass: "HP", bandpass: "BP", bandstop: "BS" };
 const METHOD: Record<string, string> = {
   "forward-euler": "forward Euler",
@@ -25,7 +19,7 @@ const capital = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 export function specSummary(spec: FilterSpec): string {
   switch (spec.kind) {
     case "iir":
-      return `${FAMILY[spec.family]} ${RESPONSE[spec.response]} ${spec.order} · ${band(spec.cutoffHz)}`;
+      return `${FAMILY_LABELS[spec.family]} ${RESPONSE[spec.response]} ${spec.order} · ${band(spec.cutoffHz)}`;
     case "biquad": {
       const gain = spec.gainDb === undefined ? "" : `, ${withUnit(spec.gainDb, "dB")}`;
       return `${capital(spec.shape)} biquad · ${hz(spec.centerHz)}, Q ${withUnit(spec.q, "")}${gain}`;
