@@ -120,7 +120,7 @@ const DEGREE_SERIES_TERMS = 7;
 
 /**
  * Solves the degree equation N·K'(m1)/K(m1) = K'(m)/K(m) for m by nome series
- * (Orfanidis, "Lecture Notes on Elliptic Filter Design", 2006, eq. (49); scipy.signal _ellipdeg):
+ * (S. J. Orfanidis, notes on elliptic filter design, Rutgers University, 2006, eq. (49); scipy.signal _ellipdeg):
  * m = 16q·(Σ q^{k(k+1)} / (1 + 2Σ q^{k²}))⁴ with q = q1^{1/N}, q1 = exp(−π K'(m1)/K(m1)).
  */
 export function ellipdeg(order: number, m1: number): number {

@@ -12,7 +12,7 @@ const pow10m1 = (x: number): number => Math.expm1(x * Math.LN10);
 /**
  * Elliptic (Cauer) analog low-pass prototype: equiripple rippleDb in 0 ≤ ω ≤ 1 rad/s (passband edge at
  * 1 rad/s) and at least attenuationDb in the stopband. Zeros j/(√m·sn(jK/N, m)), poles from sn/cn/dn at
- * the imaginary shift v0 (Orfanidis, "Lecture Notes on Elliptic Filter Design", 2006, §3–§5;
+ * the imaginary shift v0 (S. J. Orfanidis, notes on elliptic filter design, Rutgers University, 2006, §3–§5;
  * scipy.signal ellipap convention). Needs attenuationDb > rippleDb.
  */
 export function ellipap(order: number, rippleDb: number, attenuationDb: number): Zpk {
