@@ -1,5 +1,6 @@
 import { expect, test } from "@playwright/test";
 import { SetsPage } from "./pages/sets-page";
+import { BenchPage } from "./pages/bench-page";
 import { SignInPage } from "./pages/sign-in-page";
 
 const CHANNEL = "gearbox-endurance/torque-node/input-torque";
@@ -38,6 +39,14 @@ test("engineer submits, lead approves and promotes, the device acknowledges", as
   const production = await page.request.get(`/api/v1/channels/${CHANNEL}/production`);
   expect(production.status()).toBe(200);
   expect(await production.json()).toMatchObject({ setId, revision: 1, setName: name, spec });
+
+  // The channel's bench now runs the acknowledged revision as its production trace.
+  const bench = new BenchPage(page);
+  await bench.open(CHANNEL);
+  await expect(page.getByText(`Production: ${name} revision 1`)).toBeVisible();
+  await expect.poll(async () => (await bench.latest()).production, { timeout: 15_000 }).toEqual(expect.any(Number));
+  const first = (await bench.latest()).production;
+  await expect.poll(async () => (await bench.latest()).production, { timeout: 15_000 }).not.toBe(first);
 
   const operator = await browser.newPage();
   await new SignInPage(operator).signInAs("operator");
