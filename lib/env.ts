@@ -20,6 +20,7 @@ const envSchema = z.object({
   SHARED_GROUP: z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "SHARED_GROUP must be a key of a-z, 0-9 and -").optional(),
   REPUBLISH_FILTERED: z.enum(["0", "1"]).default("0"),
   DEMO_SEED: z.coerce.number().int().min(0).max(0xffffffff).default(20261201),
+  DEPLOY_ACK_TIMEOUT_MS: z.coerce.number().int().min(100).max(600_000).default(10_000),
 });
 
 export type Env = z.infer<typeof envSchema>;

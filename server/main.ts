@@ -78,6 +78,7 @@ deployments = await startDeploymentWorker({
   pipeline: sidecar.pipeline,
   clock: systemClock,
   logger: consoleLogger,
+  ackTimeoutMs: e.DEPLOY_ACK_TIMEOUT_MS,
 });
 
 // Mail: notifications written to the outbox in the same transaction as their event are delivered with retries.
