@@ -21,6 +21,11 @@ export interface ChannelRow {
   coefficientFormat: "f32" | "q15" | "q31";
 }
 
+/** SQL for a channel's path `<rig>/<device>/<channel>` from the keys of the given table aliases. */
+export function channelPathSql(rig: string, device: string, channel: string) {
+  return sql<string>`${sql.ref(`${rig}.key`)} || '/' || ${sql.ref(`${device}.key`)} || '/' || ${sql.ref(`${channel}.key`)}`;
+}
+
 function channelQuery(db: Conn) {
   return db
     .selectFrom("channels as c")
@@ -28,7 +33,7 @@ function channelQuery(db: Conn) {
     .innerJoin("rigs as r", "r.id", "d.rig_id")
     .select([
       "c.id",
-      sql<string>`r.key || '/' || d.key || '/' || c.key`.as("path"),
+      channelPathSql("r", "d", "c").as("path"),
       "r.key as rigKey",
       "r.name as rigName",
       "d.key as deviceKey",

@@ -9,7 +9,7 @@ import { decide } from "@/lib/workflow";
 import type { Db } from "../client";
 import type { Database, DeploymentKind } from "../types";
 import { appendAudit } from "./audit";
-import { findChannelByPath, type ChannelRow } from "./channels";
+import { channelPathSql, findChannelByPath, type ChannelRow } from "./channels";
 import { enqueueMail, leadAddresses, userAddress } from "./mail";
 import { findRevision } from "./revisions";
 import { enforce } from "./sets";
@@ -19,7 +19,7 @@ type Conn = Db | Transaction<Database>;
 /** Channel the sidecar's deployment worker LISTENs on; the payload is the deployment id. */
 export const DEPLOY_CHANNEL = "tapwright_deploy";
 
-const pathExpr = sql<string>`rg.key || '/' || d.key || '/' || c.key`;
+const pathExpr = channelPathSql("rg", "d", "c");
 
 function deploymentQuery(db: Conn) {
   return db
@@ -60,7 +60,7 @@ function deploymentQuery(db: Conn) {
       "r.spec",
       "s.id as setId",
       "s.name as setName",
-      sql<string>`sr.key || '/' || sd.key || '/' || sc.key`.as("setChannel"),
+      channelPathSql("sr", "sd", "sc").as("setChannel"),
     ]);
 }
 

@@ -1,10 +1,11 @@
-import { sql, type Transaction } from "kysely";
+import type { Transaction } from "kysely";
 import type { SessionUser } from "@/lib/auth/guard";
 import { decodeSamples, encodeSamples } from "@/lib/recordings";
 import type { RecordingSummary } from "@/lib/recordings/summary";
 import type { Db } from "../client";
 import type { Database } from "../types";
 import { appendAudit } from "./audit";
+import { channelPathSql } from "./channels";
 
 type Conn = Db | Transaction<Database>;
 
@@ -29,7 +30,7 @@ function summaryQuery(db: Conn) {
     .innerJoin("users as u", "u.id", "rec.created_by")
     .select([
       "rec.id",
-      sql<string>`r.key || '/' || d.key || '/' || c.key`.as("channelPath"),
+      channelPathSql("r", "d", "c").as("channelPath"),
       "c.name as channelName",
       "c.unit",
       "rec.name",

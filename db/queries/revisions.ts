@@ -8,12 +8,13 @@ import { decide, TRANSITIONS, type RevisionState, type Transition } from "@/lib/
 import type { Db } from "../client";
 import type { Database } from "../types";
 import { appendAudit } from "./audit";
+import { channelPathSql } from "./channels";
 import { enqueueMail, leadAddresses, userAddress } from "./mail";
 import { enforce } from "./sets";
 
 type Conn = Db | Transaction<Database>;
 
-const pathExpr = sql<string>`rg.key || '/' || d.key || '/' || c.key`;
+const pathExpr = channelPathSql("rg", "d", "c");
 
 function revisionQuery(db: Conn) {
   return db

@@ -8,6 +8,7 @@ import type { SessionUser } from "@/lib/auth/guard";
 import type { Db } from "../client";
 import type { CoefficientFormat, Database } from "../types";
 import { appendAudit } from "./audit";
+import { channelPathSql } from "./channels";
 
 type Conn = Db | Transaction<Database>;
 
@@ -116,7 +117,7 @@ export async function retireSet(trx: Transaction<Database>, actor: SessionUser, 
 }
 
 const statusExpr = sql<SetStatus>`case when s.retired_at is not null then 'retired' else r.state end`;
-const pathExpr = sql<string>`rg.key || '/' || d.key || '/' || c.key`;
+const pathExpr = channelPathSql("rg", "d", "c");
 
 function setQuery(db: Conn) {
   return db
