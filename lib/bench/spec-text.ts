@@ -1,4 +1,4 @@
-import type { FilterSpec } from "@/lib/dsp";
+import { activeStages, type FilterSpec, type StageSpec } from "@/lib/dsp";
 import { hz, withUnit } from "./format";
 import { FAMILY_LABELS } from "./spec-defaults";
 
@@ -15,8 +15,20 @@ const METHOD: Record<string, string> = {
 const band = (f: number | [number, number]) => (typeof f === "number" ? hz(f) : `${hz(f[0])}–${hz(f[1])}`);
 const capital = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 
-/** One line that names a candidate, e.g. "Butterworth LP 4 · 120 Hz" or "Notch biquad · 50 Hz, Q 30". */
+/**
+ * One line that names a candidate, e.g. "Butterworth LP 4 · 120 Hz", "Notch biquad · 50 Hz, Q 30", or
+ * for a chain its running stages joined by " → ".
+ */
 export function specSummary(spec: FilterSpec): string {
+  if (spec.kind !== "chain") return stageSummary(spec);
+  const running = activeStages(spec);
+  const bypassed = spec.stages.length - running.length;
+  const line = running.map((s) => stageSummary(s.spec)).join(" → ");
+  return bypassed > 0 ? `${line} (${bypassed} bypassed)` : line;
+}
+
+/** One line that names a single stage. */
+export function stageSummary(spec: StageSpec): string {
   switch (spec.kind) {
     case "iir":
       return `${FAMILY_LABELS[spec.family]} ${RESPONSE[spec.response]} ${spec.order} · ${band(spec.cutoffHz)}`;
@@ -42,6 +54,8 @@ export function specSummary(spec: FilterSpec): string {
 /** The frequencies in Hz a spec is designed at (cutoffs, centre, prewarp), for the Nyquist check. */
 export function specFrequencies(spec: FilterSpec): number[] {
   switch (spec.kind) {
+    case "chain":
+      return activeStages(spec).flatMap((s) => specFrequencies(s.spec));
     case "iir":
     case "fir":
       return typeof spec.cutoffHz === "number" ? [spec.cutoffHz] : [...spec.cutoffHz];

@@ -6,13 +6,16 @@ import { movingAverage } from "./fir/movingAverage";
 import { windowedSinc } from "./fir/windowedSinc";
 import { kaiserBeta } from "./fir/windows";
 import { designIir } from "./iir/design";
-import { filterSpecSchema, type FilterSpec } from "./spec";
+import { chainDesign } from "./chain";
+import { activeStages, filterSpecSchema, type FilterSpec } from "./filter-spec";
+import type { StageSpec } from "./spec";
 import { designFromBa, designFromSos, designFromTaps } from "./transfer";
 import type { FilterDesign } from "./types";
 
 /**
  * Designs any filter request. The spec is checked with filterSpecSchema first; an invalid spec
- * throws an Error listing each refused field path and the allowed range.
+ * throws an Error listing each refused field path and the allowed range. A chain gives one design
+ * whose `stages` are its running stages in order (bypassed stages left out).
  */
 export function designFilter(input: FilterSpec): FilterDesign {
   const parsed = filterSpecSchema.safeParse(input);
@@ -21,6 +24,13 @@ export function designFilter(input: FilterSpec): FilterDesign {
     throw new Error(`invalid filter spec:\n${lines.join("\n")}`);
   }
   const spec = parsed.data;
+  if (spec.kind !== "chain") return designStage(spec);
+  const stages = activeStages(spec).map(({ index, spec: stage }) => ({ ...designStage(stage), stage: index }));
+  return chainDesign(stages, spec.sampleRateHz);
+}
+
+/** One already validated single-stage spec. */
+function designStage(spec: StageSpec): FilterDesign {
   const fs = spec.sampleRateHz;
   switch (spec.kind) {
     case "iir":

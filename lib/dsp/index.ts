@@ -1,8 +1,10 @@
 /** Public contract of lib/dsp: design requests, designs, discretisation, paste parsing, analysis and running. */
-export type { Complex, FilterDesign } from "./types";
+export type { Complex, FilterDesign, StageDesign } from "./types";
 
 export * from "./spec";
+export * from "./filter-spec";
 export { designFilter } from "./design";
+export { chainDesign, designStages } from "./chain";
 export { designFromBa, designFromSos, designFromTaps } from "./transfer";
 
 export { iirSpecSchema, IIR_FAMILIES, IIR_RESPONSES, MAX_ORDER, type IirSpec, type IirFamily, type IirResponse } from "./iir/spec";

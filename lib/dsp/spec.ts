@@ -17,6 +17,7 @@ export const SPEC_LIMITS = {
   maxPastedTaps: 1024,
   maxPastedDenominator: 65,
   maxSosRows: 64,
+  maxChainStages: 8,
 } as const;
 
 const finite = (what: string) => z.number({ error: `${what} must be a finite number` });
@@ -198,8 +199,8 @@ export const coefficientsSpecSchema = z
     if (spec.a !== undefined && spec.a[0] === 0) refuse(ctx, ["a", 0], "a[0] must be nonzero (it is normalised to 1)");
   });
 
-/** Every filter design request, told apart by `kind`. */
-export const filterSpecSchema = z.discriminatedUnion("kind", [
+/** Every single-stage design request, told apart by `kind` (a chain's stages are these). */
+export const stageSpecSchema = z.discriminatedUnion("kind", [
   iirSpecSchema,
   biquadSpecSchema,
   firSpecSchema,
@@ -210,7 +211,7 @@ export const filterSpecSchema = z.discriminatedUnion("kind", [
   coefficientsSpecSchema,
 ]);
 
-export type FilterSpec = z.infer<typeof filterSpecSchema>;
+export type StageSpec = z.infer<typeof stageSpecSchema>;
 export type BiquadSpec = z.infer<typeof biquadSpecSchema>;
 export type FirSpec = z.infer<typeof firSpecSchema>;
 export type MovingAverageSpec = z.infer<typeof movingAverageSpecSchema>;

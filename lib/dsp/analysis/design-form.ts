@@ -1,39 +1,84 @@
+import { polyMul } from "../poly";
 import type { FilterDesign } from "../types";
 
-/** A design reduced to the one form it runs in: SOS rows [b0, b1, b2, 1, a1, a2] or FIR taps. */
-export type RunForm = { kind: "sos"; sos: number[][] } | { kind: "taps"; taps: number[] };
+/** One running part: SOS rows [b0, b1, b2, 1, a1, a2] or FIR taps. */
+export type RunPart = { kind: "sos"; sos: number[][] } | { kind: "taps"; taps: number[] };
+
+/** A design reduced to what runs: its parts in order, a cascade (one part for a single design, one per stage for a chain). */
+export type RunForm = RunPart[];
 
 /**
  * The run form of a design, after checking what every analysis relies on: a finite sample rate
- * above 0 Hz, exactly one of sos and taps, six finite numbers per SOS row with a0 = 1 and a non-zero
- * numerator, finite taps not all zero. Throws with the allowed range otherwise.
+ * above 0 Hz; for a single design exactly one of sos and taps, for a chain at least one stage and each
+ * stage with exactly one of them; six finite numbers per SOS row with a0 = 1 and a non-zero numerator,
+ * finite taps not all zero. Throws with the allowed range otherwise.
  */
 export function runForm(design: FilterDesign): RunForm {
   const fs = design.sampleRateHz;
   if (!Number.isFinite(fs) || fs <= 0) {
     throw new Error(`sampleRateHz must be a finite number > 0 Hz (got ${fs})`);
   }
+  if (design.stages === undefined) return [runPart(design, "")];
+  if (design.sos !== undefined || design.taps !== undefined) {
+    throw new Error("a chain's design holds its stages only, not sos or taps of its own");
+  }
+  if (design.stages.length === 0) throw new Error("a chain's design must have at least one stage");
+  return design.stages.map((stage) => {
+    if (stage.sampleRateHz !== fs) {
+      throw new Error(`stage ${stage.stage + 1} runs at ${stage.sampleRateHz} Hz, the chain at ${fs} Hz`);
+    }
+    return runPart(stage, `stage ${stage.stage + 1}: `);
+  });
+}
+
+/** One part checked as runForm describes; `where` prefixes each message (e.g. "stage 2: "). */
+export function runPart(design: Pick<FilterDesign, "sos" | "taps">, where: string): RunPart {
   const hasSos = design.sos !== undefined;
   const hasTaps = design.taps !== undefined;
-  if (hasSos === hasTaps) throw new Error("a FilterDesign must have exactly one of sos and taps");
+  if (hasSos === hasTaps) throw new Error(`${where}a FilterDesign must have exactly one of sos and taps`);
   if (design.sos) {
-    if (design.sos.length === 0) throw new Error("sos must have at least one section");
+    if (design.sos.length === 0) throw new Error(`${where}sos must have at least one section`);
     design.sos.forEach((row, i) => {
       if (row.length !== 6 || row.some((v) => !Number.isFinite(v))) {
-        throw new Error(`sos row ${i} must hold 6 finite numbers [b0, b1, b2, a0, a1, a2]`);
+        throw new Error(`${where}sos row ${i} must hold 6 finite numbers [b0, b1, b2, a0, a1, a2]`);
       }
-      if (row[3] !== 1) throw new Error(`sos row ${i} must have a0 = 1 (got ${row[3]})`);
+      if (row[3] !== 1) throw new Error(`${where}sos row ${i} must have a0 = 1 (got ${row[3]})`);
       if (row[0] === 0 && row[1] === 0 && row[2] === 0) {
-        throw new Error(`sos row ${i} has an all-zero numerator, so the filter output is identically zero`);
+        throw new Error(`${where}sos row ${i} has an all-zero numerator, so the filter output is identically zero`);
       }
     });
     return { kind: "sos", sos: design.sos };
   }
   const taps = design.taps ?? [];
   if (taps.length === 0 || taps.some((v) => !Number.isFinite(v)) || taps.every((v) => v === 0)) {
-    throw new Error("taps must be finite numbers, at least one of them non-zero");
+    throw new Error(`${where}taps must hold at least 1 finite number, at least one of them non-zero`);
   }
   return { kind: "taps", taps };
+}
+
+/** All SOS rows of a run form, in order (FIR parts contribute none). */
+export function formSections(form: RunForm): number[][] {
+  return form.flatMap((part) => (part.kind === "sos" ? part.sos : []));
+}
+
+/**
+ * A run form as one b/a pair in ascending powers of z⁻¹: the products of every section's numerator
+ * and denominator and of every FIR part's taps (a cascade's polynomials multiply).
+ */
+export function formPolynomials(form: RunForm): { b: number[]; a: number[] } {
+  let b = [1];
+  let a = [1];
+  for (const part of form) {
+    if (part.kind === "taps") {
+      b = polyMul(b, part.taps);
+      continue;
+    }
+    for (const row of part.sos) {
+      b = polyMul(b, row.slice(0, 3));
+      a = polyMul(a, row.slice(3, 6));
+    }
+  }
+  return { b, a };
 }
 
 /** Normalised angular frequency ω = 2π·f/fs in rad/sample for f in Hz (common practice). */

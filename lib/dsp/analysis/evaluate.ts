@@ -1,6 +1,6 @@
 import { cDiv, cMul } from "../complex";
 import type { Complex } from "../types";
-import type { RunForm } from "./design-form";
+import type { RunForm, RunPart } from "./design-form";
 
 /** Σ c_k·x^k for real c in ascending powers of x (Horner's rule, in scalars: FIR designs reach 1000+ taps). */
 export function ascendingPolyAt(c: readonly number[], x: Complex): Complex {
@@ -16,10 +16,20 @@ export function ascendingPolyAt(c: readonly number[], x: Complex): Complex {
 }
 
 /**
- * H(e^{jω}) of a run form at ω rad/sample (dimensionless complex gain): the product over sections of
- * (b0 + b1·z⁻¹ + b2·z⁻²)/(1 + a1·z⁻¹ + a2·z⁻²), or Σ h[n]·z⁻ⁿ for taps (Oppenheim & Schafer §5.1).
+ * H(e^{jω}) of a run form at ω rad/sample (dimensionless complex gain): the product over its parts
+ * (a cascade multiplies, Oppenheim & Schafer DTSP §6.3) of each part's response.
  */
 export function transferAt(form: RunForm, omega: number): Complex {
+  let h: Complex = [1, 0];
+  for (const part of form) h = cMul(h, partTransferAt(part, omega));
+  return h;
+}
+
+/**
+ * H(e^{jω}) of one part: the product over sections of (b0 + b1·z⁻¹ + b2·z⁻²)/(1 + a1·z⁻¹ + a2·z⁻²),
+ * or Σ h[n]·z⁻ⁿ for taps (Oppenheim & Schafer §5.1).
+ */
+export function partTransferAt(form: RunPart, omega: number): Complex {
   const x: Complex = [Math.cos(omega), -Math.sin(omega)];
   if (form.kind === "taps") return ascendingPolyAt(form.taps, x);
   const x2: Complex = cMul(x, x);

@@ -6,7 +6,8 @@ import { linearGrid, logGrid } from "./grid";
 import { magnitudeToDb } from "./units";
 
 /**
- * DC gain H(z = 1) (dimensionless, signed): Π (b0+b1+b2)/(1+a1+a2) over sections, or Σ taps.
+ * DC gain H(z = 1) (dimensionless, signed): Π (b0+b1+b2)/(1+a1+a2) over sections times Σ taps of
+ * each FIR part (a chain multiplies its stages).
  * Throws when a pole sits at z = 1 (an integrator), where the DC gain is unbounded.
  */
 export function dcGain(design: FilterDesign): number {
@@ -17,13 +18,17 @@ export function dcGain(design: FilterDesign): number {
 
 /** dcGain, or null when a pole sits at z = 1 (1 + a1 + a2 = 0 in some section). */
 export function dcGainOrNull(design: FilterDesign): number | null {
-  const form = runForm(design);
-  if (form.kind === "taps") return form.taps.reduce((s, t) => s + t, 0);
   let g = 1;
-  for (const [b0, b1, b2, , a1, a2] of form.sos) {
-    const den = 1 + a1 + a2;
-    if (den === 0) return null;
-    g *= (b0 + b1 + b2) / den;
+  for (const part of runForm(design)) {
+    if (part.kind === "taps") {
+      g *= part.taps.reduce((s, t) => s + t, 0);
+      continue;
+    }
+    for (const [b0, b1, b2, , a1, a2] of part.sos) {
+      const den = 1 + a1 + a2;
+      if (den === 0) return null;
+      g *= (b0 + b1 + b2) / den;
+    }
   }
   return g;
 }

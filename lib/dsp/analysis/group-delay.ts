@@ -1,7 +1,7 @@
 import { cAbs, cAdd, cArg, cDiv, cMul } from "../complex";
 import { polyRoots } from "../poly";
 import type { Complex } from "../types";
-import type { RunForm } from "./design-form";
+import type { RunForm, RunPart } from "./design-form";
 import { ascendingPolyAt } from "./evaluate";
 
 /**
@@ -22,8 +22,19 @@ import { ascendingPolyAt } from "./evaluate";
  */
 export const ON_CIRCLE_TOLERANCE = 1e-12;
 
-/** Group delay in samples of a run form at each ω in rad/sample. */
+/** Group delay in samples of a run form at each ω in rad/sample: the sum over its parts (phases of a cascade add). */
 export function groupDelayAt(form: RunForm, omegas: readonly number[]): number[] {
+  const total = new Array<number>(omegas.length).fill(0);
+  for (const part of form) {
+    partGroupDelayAt(part, omegas).forEach((tau, i) => {
+      total[i] += tau;
+    });
+  }
+  return total;
+}
+
+/** Group delay in samples of one part at each ω in rad/sample. */
+export function partGroupDelayAt(form: RunPart, omegas: readonly number[]): number[] {
   if (form.kind === "taps") {
     const weighted = form.taps.map((t, n) => n * t);
     return omegas.map((w) => firGroupDelay(form.taps, weighted, w));

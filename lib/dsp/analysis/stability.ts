@@ -1,10 +1,10 @@
 import { cAbs } from "../complex";
 import { polyRoots } from "../poly";
 import type { FilterDesign } from "../types";
-import { runForm } from "./design-form";
+import { formSections, runForm, type RunForm } from "./design-form";
 
 export interface Stability {
-  /** True iff every pole lies strictly inside the unit circle (BIBO stability; FIR designs always). */
+  /** True iff every pole lies strictly inside the unit circle (BIBO stability; FIR designs always; a chain iff every stage). */
   stable: boolean;
   /** Largest pole radius |p| (dimensionless); 0 for FIR (all poles at the origin). */
   maxPoleRadius: number;
@@ -15,9 +15,13 @@ export interface Stability {
  * z² + a1·z + a2 (not design.poles), stable iff all |p| < 1 (Oppenheim & Schafer, DTSP §5.2).
  */
 export function stability(design: FilterDesign): Stability {
-  const form = runForm(design);
-  if (form.kind === "taps") return { stable: true, maxPoleRadius: 0 };
-  const maxPoleRadius = Math.max(...form.sos.flatMap((row) => polyRoots([1, row[4], row[5]]).map(cAbs)), 0);
+  return formStability(runForm(design));
+}
+
+/** stability of an already checked run form. */
+export function formStability(form: RunForm): Stability {
+  const sections = formSections(form);
+  const maxPoleRadius = Math.max(...sections.flatMap((row) => polyRoots([1, row[4], row[5]]).map(cAbs)), 0);
   return { stable: maxPoleRadius < 1, maxPoleRadius };
 }
 

@@ -56,7 +56,8 @@ export function stepMetrics(design: FilterDesign): StepMetrics {
   if (!stable || finalValue === null) return { ...none, finalValue };
   if (Math.abs(finalValue) <= 10 ** ((peakGainDb(design) - DC_BLOCKED_DB) / 20)) return { ...none, finalValue };
 
-  const n = simulationLength(maxPoleRadius, form.kind === "taps" ? form.taps.length : 0);
+  const firLength = form.reduce((n, part) => n + (part.kind === "taps" ? part.taps.length : 0), 0);
+  const n = simulationLength(maxPoleRadius, firLength);
   const y = stepResponse(design, n);
   const fs = design.sampleRateHz;
   const dir = Math.sign(finalValue);
@@ -80,7 +81,7 @@ export function stepMetrics(design: FilterDesign): StepMetrics {
 
 function simulationLength(maxPoleRadius: number, firLength: number): number {
   const decay = maxPoleRadius > 0 ? 2 * Math.ceil(Math.log(DECAY) / Math.log(maxPoleRadius)) : 0;
-  return Math.min(Math.max(decay, MIN_STEP_SAMPLES, firLength + 1), MAX_STEP_SAMPLES);
+  return Math.min(Math.max(decay + firLength, MIN_STEP_SAMPLES, firLength + 1), MAX_STEP_SAMPLES);
 }
 
 /** Fractional sample index at which dir·y first reaches level (linear interpolation), or null. */

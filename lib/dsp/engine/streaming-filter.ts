@@ -1,7 +1,6 @@
+import { runForm } from "../analysis/design-form";
 import type { FilterDesign } from "../types";
-import { FirState } from "./fir-state";
-import { packSos, packTaps } from "./sos-coefficients";
-import { SosState } from "./sos-state";
+import { CascadeState, type FilterState } from "./cascade-state";
 
 /** 'zero': start at rest. 'step': start at the steady state of the first sample (scipy.signal sosfilt_zi / lfilter_zi × x[0]). */
 export type InitialState = "zero" | "step";
@@ -28,18 +27,8 @@ export interface StreamingFilter {
   readonly faults: number;
 }
 
-interface FilterState {
-  clear(): void;
-  settle(v: number): void;
-  run(x: Float64Array, y: Float64Array, start: number, end: number): void;
-  runIfFinite(x: Float64Array, y: Float64Array, start: number, end: number): boolean;
-}
-
 function buildState(design: FilterDesign, withStep: boolean): FilterState {
-  const hasSos = design.sos !== undefined;
-  const hasTaps = design.taps !== undefined;
-  if (hasSos === hasTaps) throw new Error("a FilterDesign must have exactly one of sos and taps");
-  return design.sos ? new SosState(packSos(design.sos), withStep) : new FirState(packTaps(design.taps ?? []));
+  return new CascadeState(runForm(design), withStep).simplest();
 }
 
 /** Index of the first non-finite sample in x[from..), or x.length if none (v − v ≠ 0 exactly for NaN and ±∞). */
@@ -49,7 +38,10 @@ function firstNonFinite(x: Float64Array, from: number): number {
   return i;
 }
 
-/** Build a streaming filter for an SOS or FIR design (DF2T per section, scipy.signal sosfilt order). */
+/**
+ * Build a streaming filter for an SOS, FIR or chain design (DF2T per section, scipy.signal sosfilt
+ * order; a chain runs its stages one after the other).
+ */
 export function createStreamingFilter(design: FilterDesign, opts: StreamingFilterOptions = {}): StreamingFilter {
   const initial = opts.initial ?? "zero";
   if (initial !== "zero" && initial !== "step") {

@@ -1,7 +1,7 @@
-import { runForm } from "../analysis/design-form";
+import { formPolynomials, runForm } from "../analysis/design-form";
 import { ascendingPolyAt, transferAt } from "../analysis/evaluate";
 import { cAbs, cDiv } from "../complex";
-import { polyMul, polyRoots } from "../poly";
+import { polyRoots } from "../poly";
 import type { Complex, FilterDesign } from "../types";
 import { quantizeGroup } from "./coefficient-quantizer";
 import { maxDeviationDb } from "./deviation";
@@ -27,12 +27,11 @@ export interface DirectFormQuantization {
  * clustered poles move far or leave the unit circle (Oppenheim & Schafer, DTSP ch. 6 — from memory).
  * Favourable to direct form on purpose: b is normalised to peak |b| = 1 and its gain kept exact
  * in float64, b and a1…aN get separate post-shifts, and a0 = 1 is not stored. FIR: the taps.
+ * A chain is expanded as a whole: every stage's polynomials multiplied together.
  */
 export function quantizeDirectForm(design: FilterDesign, format: QuantFormat): DirectFormQuantization {
   const form = runForm(design);
-  const sos = form.kind === "sos" ? form.sos : undefined;
-  const bRef = sos ? sos.map((r) => r.slice(0, 3)).reduce(polyMul) : form.kind === "taps" ? form.taps : [];
-  const aRef = sos ? sos.map((r) => r.slice(3, 6)).reduce(polyMul) : [1];
+  const { b: bRef, a: aRef } = formPolynomials(form);
   const bPeak = Math.max(...bRef.map(Math.abs));
   if (!(bPeak > 0) || !Number.isFinite(bPeak)) throw new Error(`the numerator must be finite and non-zero (peak |b| = ${bPeak})`);
   const bGroup = quantizeGroup(bRef.map((v) => v / bPeak), format);
@@ -45,7 +44,7 @@ export function quantizeDirectForm(design: FilterDesign, format: QuantFormat): D
     const zInv: Complex = [Math.cos(w), -Math.sin(w)];
     return cDiv(ascendingPolyAt(num, zInv), ascendingPolyAt(den, zInv));
   };
-  const reference = sos ? (w: number) => transferAt({ kind: "sos", sos }, w) : ratioAt(bRef, aRef);
+  const reference = (w: number) => transferAt(form, w);
   return {
     b,
     a,

@@ -7,7 +7,14 @@ export {
 } from "./direct-form";
 export { quantizeGroup, quantizeSections, type QuantizedGroup, type QuantizedSections } from "./coefficient-quantizer";
 export { DEVIATION_FLOOR_DB, DEVIATION_GRID_POINTS } from "./deviation";
-export { spreadGain } from "./gain-spreading";
+export { spreadGain, spreadGainForm } from "./gain-spreading";
+export { stageHeadroom, type StageHeadroom } from "./headroom";
 export { fractionBits, roundHalfAway, toWord, wordLimits, wordToReal, type FixedFormat, type QuantFormat } from "./q-format";
-export { quantizeDesign, type QuantizedDesign } from "./quantize-design";
+export {
+  quantizeDesign,
+  quantizedParts,
+  type QuantizedDesign,
+  type QuantizedPart,
+  type QuantizedStage,
+} from "./quantize-design";
 export { MAX_Q15_TAPS, simulateFixed, type FixedSimulation } from "./simulate-fixed";

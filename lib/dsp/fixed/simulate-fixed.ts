@@ -30,7 +30,7 @@
  */
 import { fractionBits, toWord, wordLimits, type FixedFormat } from "./q-format";
 import { maxShift } from "./coefficient-quantizer";
-import type { QuantizedDesign } from "./quantize-design";
+import { quantizedParts, type QuantizedDesign, type QuantizedPart } from "./quantize-design";
 
 export interface FixedSimulation {
   /** Output samples as real values (last section's words · 2^−F). */
@@ -50,7 +50,12 @@ interface Stage {
   shift: number;
 }
 
+/** Every part's stages in order: a chain's parts run one after the other, like their sections. */
 function stagesOf(q: QuantizedDesign, format: FixedFormat): Stage[] {
+  return quantizedParts(q).flatMap((part) => partStages(part, format));
+}
+
+function partStages(q: QuantizedPart, format: FixedFormat): Stage[] {
   const words = q.integers;
   if (!words) throw new Error(`the quantized design has no ${format} words`);
   if (words.length !== q.shifts.length) throw new Error(`need one shift per row of words (${words.length} rows, ${q.shifts.length} shifts)`);

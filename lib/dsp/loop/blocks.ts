@@ -1,4 +1,5 @@
 import { discretize } from "../discretize/discretize";
+import { formPolynomials, runForm } from "../analysis/design-form";
 import { polyMul } from "../poly";
 import type { FilterDesign } from "../types";
 import type { LoopController, LoopModel, PidController } from "./schema";
@@ -65,12 +66,7 @@ export function loopBlocks(model: LoopModel): LoopBlocks {
   };
 }
 
-/** F(z) of a design as one b/a pair (products of the sections' polynomials; taps over 1). */
+/** F(z) of a design as one b/a pair (products of the sections' polynomials and of FIR taps; a chain's stages multiply). */
 export function filterTf(design: FilterDesign): DigitalTf {
-  if (design.taps) return { b: [...design.taps], a: [1] };
-  const rows = design.sos ?? [];
-  return {
-    b: rows.reduce<number[]>((acc, r) => polyMul(acc, r.slice(0, 3)), [1]),
-    a: rows.reduce<number[]>((acc, r) => polyMul(acc, r.slice(3, 6)), [1]),
-  };
+  return formPolynomials(runForm(design));
 }

@@ -4,7 +4,7 @@ import { frequencyResponse, stability } from "@/lib/dsp/analysis";
 import { cAbs, cDiv, cMul, cScale, cSub } from "@/lib/dsp/complex";
 import { polyMul } from "@/lib/dsp/poly";
 import { designFilter } from "@/lib/dsp/design";
-import { filterSpecSchema, type FilterSpec } from "@/lib/dsp/spec";
+import { filterSpecSchema, type FilterSpec } from "@/lib/dsp/filter-spec";
 import type { Complex, FilterDesign } from "@/lib/dsp/types";
 
 /** |H(e^{jω})| from the design's zeros, poles and gain: k·Π(e^{jω} − z)/Π(e^{jω} − p). */

@@ -33,8 +33,8 @@ describe("quantizeDesign", () => {
       expect(peakGainDb({ ...d, sos: spread.slice(0, k) })).toBeCloseTo(0, 9);
     }
     const deviation = maxDeviationDb(
-      (w) => transferAt({ kind: "sos", sos: d.sos ?? [] }, w),
-      (w) => transferAt({ kind: "sos", sos: spread }, w),
+      (w) => transferAt([{ kind: "sos", sos: d.sos ?? [] }], w),
+      (w) => transferAt([{ kind: "sos", sos: spread }], w),
     );
     expect(deviation).toBeLessThan(1e-9);
   });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { filterSpecSchema } from "@/lib/dsp/spec";
+import { filterSpecSchema } from "@/lib/dsp/filter-spec";
 
 /** Issues of a refused spec as "path → message"; fails when the spec is accepted. */
 function refusals(spec: unknown): Map<string, string> {

@@ -1,0 +1,22 @@
+import type { FilterDesign, StageDesign } from "./types";
+
+/**
+ * A chain's design from its running stages, in order: H(z) = Π H_stage(z) (a cascade, Oppenheim &
+ * Schafer DTSP §6.3), so zeros and poles are the stages' together and the gain is their product.
+ */
+export function chainDesign(stages: StageDesign[], sampleRateHz: number): FilterDesign {
+  if (stages.length === 0) throw new Error("a chain needs at least one running stage");
+  return {
+    sampleRateHz,
+    stages,
+    zeros: stages.flatMap((s) => s.zeros),
+    poles: stages.flatMap((s) => s.poles),
+    gain: stages.reduce((g, s) => g * s.gain, 1),
+  };
+}
+
+/** The single designs a design runs, in order: a chain's stages, or the design itself as a chain of one. */
+export function designStages(design: FilterDesign): Array<Omit<FilterDesign, "stages">> {
+  if (design.stages === undefined) return [design];
+  return design.stages;
+}
