@@ -1,19 +1,11 @@
 #!/usr/bin/env bash
 # `npm start`: set everything up, then run the web app, the local mail catcher and the sidecar
-# (broker, live filters, deployments, outbox, demo rig).
+# (broker, live filters, deployments, outbox, demo rig) under a supervisor that restarts whichever dies.
 set -euo pipefail
 ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)
 cd "$ROOT"
 source server/run/setup.sh tapwright
 export PORT=${PORT:-3000}
-
-pids=()
-cleanup() { for p in "${pids[@]}"; do kill "$p" 2>/dev/null || true; done; wait 2>/dev/null || true; }
-trap cleanup EXIT INT TERM
-
-node_modules/.bin/next start -H 127.0.0.1 -p "$PORT" & pids+=($!)
-node --import tsx server/mail/fake-smtp-main.ts & pids+=($!)
-node --import tsx server/main.ts & pids+=($!)
 
 cat <<MSG
 
@@ -22,7 +14,8 @@ cat <<MSG
   Demo accounts (password: ${DEMO_PASSWORD:-tapwright-demo}):
     operator@tapwright.test   engineer@tapwright.test
     lead@tapwright.test       admin@tapwright.test
-  Stop with Ctrl-C. PostgreSQL keeps running; stop it with: bash db/cluster.sh stop
+  A process that dies is restarted with a back-off; Ctrl-C stops all.
+  PostgreSQL keeps running; stop it with: bash db/cluster.sh stop
 
 MSG
-wait -n "${pids[@]}"
+exec node --import tsx server/run/supervise-main.ts

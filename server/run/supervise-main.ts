@@ -1,0 +1,29 @@
+import { supervise } from "./supervisor";
+
+/**
+ * `npm start`'s process keeper: the web app, the mail catcher and the sidecar, each restarted with a
+ * back-off when it dies; Ctrl-C (SIGINT) or SIGTERM stops all three.
+ */
+const port = process.env.PORT ?? "3000";
+const tsx = ["--import", "tsx"];
+const supervisor = supervise([
+  { name: "web", command: "node_modules/.bin/next", args: ["start", "-H", "127.0.0.1", "-p", port] },
+  { name: "mail", command: process.execPath, args: [...tsx, "server/mail/fake-smtp-main.ts"] },
+  { name: "sidecar", command: process.execPath, args: [...tsx, "server/main.ts"] },
+]);
+
+let stopping = false;
+function stopAll(signal: string): void {
+  if (stopping) return;
+  stopping = true;
+  console.log(`[supervisor] ${signal}: stopping the web app, the mail catcher and the sidecar`);
+  supervisor.stop().then(
+    () => process.exit(0),
+    (err: unknown) => {
+      console.error(`[supervisor] stop failed: ${err instanceof Error ? err.message : String(err)}`);
+      process.exit(1);
+    },
+  );
+}
+process.on("SIGINT", () => stopAll("SIGINT"));
+process.on("SIGTERM", () => stopAll("SIGTERM"));
