@@ -15,7 +15,7 @@ const envSchema = z.object({
   DEMO: z.enum(["0", "1"]).default("1"),
   DEMO_PASSWORD: z.string().min(8).default("tapwright-demo"),
   COOKIE_SECURE: z.enum(["0", "1"]).default("0"),
-  REQUIRE_DEVICE_AUTH: z.enum(["0", "1"]).default("0"),
+  REQUIRE_DEVICE_AUTH: z.enum(["0", "1"]).default("1"),
   MQTT_CA_FILE: z.string().optional(),
   SHARED_GROUP: z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "SHARED_GROUP must be a key of a-z, 0-9 and -").optional(),
   REPUBLISH_FILTERED: z.enum(["0", "1"]).default("0"),

@@ -1,5 +1,5 @@
-import { spawn, type ChildProcess } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { execFileSync, spawn, type ChildProcess } from "node:child_process";
+import { chmodSync, copyFileSync, mkdtempSync, writeFileSync } from "node:fs";
 import net from "node:net";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
@@ -9,6 +9,7 @@ import WebSocket from "ws";
 import type { Db } from "@/db/client";
 import { findUserByEmail } from "@/db/queries/users";
 import { seedDemo } from "@/db/seed";
+import { seedDemoDeviceCredentials } from "@/db/seed-device-credentials";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
 import type { ServerMessage } from "@/lib/protocol";
 import { systemClock, type Logger } from "@/server/clock";
@@ -25,9 +26,10 @@ export function memoryLogger(): Logger & { lines: string[] } {
 }
 
 /** A migrated, seeded database of its own. */
-export async function seededDb(label: string): Promise<{ db: Db; close: () => Promise<void> }> {
+export async function seededDb(label: string): Promise<{ db: Db; url: string; close: () => Promise<void> }> {
   const fresh = await freshDb(label);
   await seedDemo(fresh.db, "sidecar-test-password");
+  await seedDemoDeviceCredentials(fresh.db, SECRET);
   return fresh;
 }
 
@@ -122,12 +124,31 @@ export function freePort(): Promise<number> {
   });
 }
 
-/** Debian's mosquitto on a loopback port with a throwaway config; stop() kills it, start() brings it back on the same port. */
-export async function mosquitto(): Promise<{ port: number; url: string; start: () => Promise<void>; stop: () => Promise<void> }> {
+/**
+ * Debian's mosquitto on a loopback port with a throwaway config; stop() kills it, start() brings it
+ * back on the same port. `auth` switches anonymous access off and loads a password file (made with
+ * mosquitto_passwd) and an ACL file.
+ */
+export async function mosquitto(
+  auth?: { users: Array<{ username: string; password: string }>; aclFile: string },
+): Promise<{ port: number; url: string; start: () => Promise<void>; stop: () => Promise<void> }> {
   const port = await freePort();
   const dir = mkdtempSync(join(tmpdir(), "tw-mosquitto-"));
   const conf = join(dir, "mosquitto.conf");
-  writeFileSync(conf, `listener ${port} 127.0.0.1\nallow_anonymous true\npersistence false\n`);
+  let access = "allow_anonymous true\n";
+  if (auth) {
+    // Run as root, mosquitto drops to its own user before reading these: make them readable to it.
+    chmodSync(dir, 0o755);
+    const passwords = join(dir, "passwords");
+    writeFileSync(passwords, "", { mode: 0o644 });
+    for (const u of auth.users) execFileSync("/usr/bin/mosquitto_passwd", ["-b", passwords, u.username, u.password]);
+    chmodSync(passwords, 0o644);
+    const acl = join(dir, "acl");
+    copyFileSync(auth.aclFile, acl);
+    chmodSync(acl, 0o644);
+    access = `allow_anonymous false\npassword_file ${passwords}\nacl_file ${acl}\n`;
+  }
+  writeFileSync(conf, `listener ${port} 127.0.0.1\n${access}persistence false\n`);
   let child: ChildProcess | undefined;
   const start = async () => {
     child = spawn("/usr/sbin/mosquitto", ["-c", conf], { stdio: "ignore" });
