@@ -38,6 +38,13 @@ async function shutdown(signal: string): Promise<void> {
 process.on("SIGTERM", () => void shutdown("SIGTERM"));
 process.on("SIGINT", () => void shutdown("SIGINT"));
 
+if (!e.MQTT_URL && e.REQUIRE_DEVICE_AUTH === "0") {
+  consoleLogger.warn(
+    "!!! REQUIRE_DEVICE_AUTH=0: the embedded MQTT broker accepts ANY client without credentials. Anyone who can reach " +
+      `port ${e.MQTT_PORT} can read every signal, inject samples and acknowledge deployments. Use this for development only. !!!`,
+  );
+}
+
 sidecar = await startSidecar({
   db,
   clock: systemClock,

@@ -1,16 +1,16 @@
-import { randomBytes } from "node:crypto";
 import type { Server } from "node:http";
 import type { Db } from "@/db/client";
 import { listChannels } from "@/db/queries/channels";
 import { accountsByIds } from "@/db/queries/users";
-import { filteredTopic, SAMPLES_FILTER, sharedFilter, type LiveOverview } from "@/lib/protocol";
+import { demoDeviceCredential } from "@/lib/demo/device-credentials";
+import { filteredTopic, parseTopic, SAMPLES_FILTER, sharedFilter, type LiveOverview } from "@/lib/protocol";
 import type { MessageBus } from "./broker/bus";
-import { deviceAuthHooks, type InternalCredential } from "./broker/device-auth";
+import { deviceAuthHooks, type DeviceAuth, type InternalCredential } from "./broker/device-auth";
 import { inProcessBus, startEmbeddedBroker, type EmbeddedBroker } from "./broker/embedded";
 import { connectMqttBus } from "./broker/mqtt-bus";
 import type { Clock, Logger } from "./clock";
-import { createConfigExchange, type ConfigExchange } from "./devices/config-exchange";
-import { startDemoRig, type DemoRigHandle } from "./demo-rig/rig";
+import { busAckFeed, createConfigExchange, type AckFeed, type ConfigExchange } from "./devices/config-exchange";
+import { startDemoRig, type DemoRigHandle, type DemoRigOptions } from "./demo-rig/rig";
 import { createHttpServer, listen } from "./http";
 import { createFaultLog, type FaultLog } from "./ingest/fault-log";
 import { createIngest, type Ingest } from "./ingest/ingest";
@@ -61,6 +61,8 @@ export interface Sidecar {
   configs: ConfigExchange;
   broker: EmbeddedBroker | undefined;
   devices: DeviceStatusTracker;
+  /** The demo rig, when started. */
+  demo: DemoRigHandle | undefined;
   health(): { status: "ok" | "degraded" } & Record<string, unknown>;
   overview(): LiveOverview;
   close(): Promise<void>;
@@ -78,23 +80,22 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
   let broker: EmbeddedBroker | undefined;
   let bus: MessageBus;
   let mqttUrl: string;
-  let demoCredentials: InternalCredential | undefined;
+  let acks: AckFeed | undefined;
   if (opts.mqtt.mode === "embedded") {
-    const internal = [...(opts.mqtt.internal ?? [])];
-    if (opts.mqtt.requireDeviceAuth) {
-      demoCredentials = { username: "tapwright-demo-rig", password: randomBytes(24).toString("base64url") };
-      internal.push(demoCredentials);
-    }
-    const hooks = opts.mqtt.requireDeviceAuth ? deviceAuthHooks({ db: opts.db, internal, logger }) : undefined;
-    broker = await startEmbeddedBroker({ host: opts.mqtt.host, port: opts.mqtt.port, hooks });
+    const auth = opts.mqtt.requireDeviceAuth
+      ? deviceAuthHooks({ db: opts.db, internal: [...(opts.mqtt.internal ?? [])], logger, clock })
+      : undefined;
+    broker = await startEmbeddedBroker({ host: opts.mqtt.host, port: opts.mqtt.port, hooks: auth?.hooks });
     bus = inProcessBus(broker.broker);
     mqttUrl = `mqtt://${opts.mqtt.host}:${broker.port}`;
+    if (auth) acks = embeddedAckFeed(broker, auth.principalOf);
   } else {
     const { url, username, password, ca, sharedGroup, backoffMs } = opts.mqtt;
     bus = connectMqttBus({ url, username, password, ca, protocolVersion: sharedGroup ? 5 : 4, clock, logger, backoffMs });
     mqttUrl = url;
-    if (username && password) demoCredentials = { username, password };
   }
+  // Each simulated device signs in as itself, with the credential the seed stored for it.
+  const demoCredentials: DemoRigOptions["credentials"] = (rig, device) => demoDeviceCredential(opts.sessionSecret, rig, device);
 
   const pipeline = createPipeline({
     channels,
@@ -110,7 +111,13 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
   const samplesFilter =
     opts.mqtt.mode === "external" && opts.mqtt.sharedGroup ? sharedFilter(opts.mqtt.sharedGroup, SAMPLES_FILTER) : SAMPLES_FILTER;
   await bus.subscribe(samplesFilter, (topic, payload) => ingest.handle(topic, payload));
-  const configs = await createConfigExchange({ bus, clock, logger });
+  const configs = await createConfigExchange({
+    bus,
+    clock,
+    logger,
+    acks: acks ?? busAckFeed(bus),
+    onForeign: (device, why) => faults.record(device, "foreign_ack", why),
+  });
   const devices = await trackDeviceStatus({ bus, logger });
 
   const hub = createHub({
@@ -193,16 +200,32 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     configs,
     broker,
     devices,
+    demo,
     health,
     overview,
     async close() {
       hub.stop();
-      await demo?.stop().catch(() => undefined);
+      await demo?.stop().catch((err: unknown) => logger.warn(`demo rig did not stop cleanly: ${err instanceof Error ? err.message : String(err)}`));
       await ws.close();
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       await bus.close();
       await broker?.close();
     },
+  };
+}
+
+/**
+ * Acks as the embedded broker sees them, with the authenticated identity of the client that
+ * published each one (aedes' publish event carries the client), so the exchange can bind them to devices.
+ */
+function embeddedAckFeed(broker: EmbeddedBroker, principalOf: DeviceAuth["principalOf"]): AckFeed {
+  return async (handler) => {
+    broker.broker.on("publish", (packet, client) => {
+      if (parseTopic(packet.topic)?.kind !== "ack") return;
+      const p = principalOf(client);
+      const payload = typeof packet.payload === "string" ? Buffer.from(packet.payload) : packet.payload;
+      handler(packet.topic, payload, p?.kind === "device" ? p : null);
+    });
   };
 }

@@ -27,7 +27,8 @@ interface DeviceClient {
 
 export interface DemoRigOptions {
   url: string;
-  credentials?: { username: string; password: string };
+  /** The credential each simulated device signs in with (none where the broker takes anonymous clients). */
+  credentials?: (rig: string, device: string) => { username: string; password: string };
   clock: Clock;
   logger: Logger;
   seed: number;
@@ -40,6 +41,8 @@ export interface DemoRigHandle {
   stop(): Promise<void>;
   /** Messages published and batches deliberately dropped so far. */
   readonly counts: { published: number; dropped: number };
+  /** The configId of the last document a device applied (`<rig>/<device>`), if any. */
+  appliedConfigId(device: string): string | undefined;
 }
 
 function jsonPayload(seq: number, t0: number, fs: number, values: Float64Array): string {
@@ -57,14 +60,16 @@ export async function startDemoRig(opts: DemoRigOptions): Promise<DemoRigHandle>
   const counts = { published: 0, dropped: 0 };
   const startedAt = opts.clock.now();
   const devices: DeviceClient[] = [];
+  const applied = new Map<string, string>();
 
   for (const rig of opts.rigs ?? DEMO_RIGS) {
     for (const device of rig.devices) {
       const status = statusTopic(rig.key, device.key);
+      const credential = opts.credentials?.(rig.key, device.key);
       const client = await mqtt.connectAsync(opts.url, {
         clientId: `demo-${rig.key}-${device.key}`,
-        username: opts.credentials?.username,
-        password: opts.credentials?.password,
+        username: credential?.username,
+        password: credential?.password,
         will: { topic: status, payload: Buffer.from(JSON.stringify({ state: "offline" })), qos: 1, retain: true },
         queueQoSZero: false,
         reconnectPeriod: 1000,
@@ -79,6 +84,7 @@ export async function startDemoRig(opts: DemoRigOptions): Promise<DemoRigHandle>
       client.on("message", (topic, payload) => {
         try {
           const ack = answerConfig(rig.key, device, payload);
+          if (ack?.status === "applied") applied.set(`${rig.key}/${device.key}`, ack.configId);
           if (ack) client.publish(ackTopic(rig.key, device.key), JSON.stringify(ack), { qos: 1 });
         } catch (err) {
           opts.logger.warn(`demo ${device.key} config handler: ${err instanceof Error ? err.message : String(err)}`);
@@ -125,6 +131,7 @@ export async function startDemoRig(opts: DemoRigOptions): Promise<DemoRigHandle>
 
   return {
     counts,
+    appliedConfigId: (device) => applied.get(device),
     async stop() {
       opts.clock.clearInterval(timer);
       await Promise.all(

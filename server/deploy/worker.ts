@@ -1,4 +1,5 @@
 import type { Db } from "@/db/client";
+import { listDevices, listDevicesWithPendingDeployments } from "@/db/queries/devices";
 import {
   activateDeployment,
   DEPLOY_CHANNEL,
@@ -6,6 +7,7 @@ import {
   failDeployment,
   findDeployment,
   listActiveDeployments,
+  listDeviceChannelStates,
   listPendingDeploymentIds,
   type DeploymentView,
 } from "@/db/queries/deployments";
@@ -25,8 +27,11 @@ export interface DeploymentWorkerDeps {
   /** Connection string for the worker's own LISTEN connection. */
   databaseUrl: string;
   exchange: ConfigExchange;
-  /** Used to put the previous document back as the retained message after a failure. */
-  bus: Pick<MessageBus, "publish">;
+  /**
+   * Used to retain the documents of what is active: after a failure, at start, and at every
+   * (re)connection to the broker (onState), so a device always finds what it last acknowledged.
+   */
+  bus: Pick<MessageBus, "publish" | "onState">;
   pipeline?: Pick<Pipeline, "setProductionFilter">;
   clock: Clock;
   logger: Logger;
@@ -119,17 +124,45 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
     if (active) applyToPipeline(active);
   }
 
-  /** Fails the deployment and retains the document of what is still active (configId `restore-<id>`). */
+  /** Fails the deployment and retains the document of what is still active. */
   async function fail(d: DeploymentView, reason: string): Promise<void> {
     deps.logger.warn(`deployment ${d.id} failed: ${reason}`);
     const failed = await deps.db.transaction().execute((trx) => failDeployment(trx, d.id, reason));
     if (!failed) return;
-    try {
-      const previous = await buildDeviceDocument(deps.db, deviceOf(d), `restore-${d.id}`, null);
-      await deps.bus.publish(configTopic(d.rigKey, d.deviceKey), JSON.stringify(previous), { retain: true, qos: 1 });
-    } catch (err) {
-      deps.logger.warn(`deployment ${d.id}: previous config not put back: ${err instanceof Error ? err.message : String(err)}`);
+    await retainActive(deviceOf(d)).catch((err: unknown) =>
+      deps.logger.warn(`deployment ${d.id}: previous config not put back: ${err instanceof Error ? err.message : String(err)}`),
+    );
+  }
+
+  /**
+   * Retains a device's document of what is active in the database. Its configId names the active
+   * deployments (`active-<ids>`, `active-none` for pass-through everywhere), so publishing it again
+   * for an unchanged database publishes the same document: idempotent.
+   */
+  async function retainActive(device: DeviceRef): Promise<void> {
+    const ids = (await listDeviceChannelStates(deps.db, device.id)).flatMap((c) => (c.active ? [c.active.id] : []));
+    const configId = ids.length === 0 ? "active-none" : `active-${ids.sort((a, b) => a - b).join("-")}`;
+    const document = await buildDeviceDocument(deps.db, device, configId.slice(0, 64), null);
+    await deps.bus.publish(configTopic(device.rigKey, device.key), JSON.stringify(document), { retain: true, qos: 1 });
+  }
+
+  /**
+   * The database is the truth devices are brought back to: every device without a deployment in
+   * flight gets its active document retained again (the sweep sends the others theirs).
+   */
+  async function reconcile(): Promise<void> {
+    const pending = await listDevicesWithPendingDeployments(deps.db);
+    for (const device of await listDevices(deps.db)) {
+      if (stopped) return;
+      if (pending.has(device.id)) continue;
+      await retainActive(device).catch((err: unknown) =>
+        deps.logger.warn(`config of ${device.rigKey}/${device.key} not republished: ${err instanceof Error ? err.message : String(err)}`),
+      );
     }
+  }
+
+  function logged(what: string, work: Promise<void>): void {
+    work.catch((err: unknown) => deps.logger.warn(`${what} failed: ${err instanceof Error ? err.message : String(err)}`));
   }
 
   function applyToPipeline(d: DeploymentView): void {
@@ -149,11 +182,15 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
       const id = Number(payload);
       if (Number.isInteger(id) && id > 0) schedule(id);
     },
-    onReconnect: () => void sweep().catch(() => undefined),
+    onReconnect: () => logged("sweep after a database reconnect", sweep()),
     clock: deps.clock,
     logger: deps.logger,
   });
   await sweep();
+  await reconcile();
+  deps.bus.onState((state) => {
+    if (state === "connected") logged("republishing the active configs after a broker reconnect", reconcile());
+  });
 
   return {
     async idle() {

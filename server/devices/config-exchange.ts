@@ -2,6 +2,22 @@ import { ACK_FILTER, configTopic, deviceAckSchema, parseTopic, type DeviceAck, t
 import type { MessageBus } from "../broker/bus";
 import type { Clock, Logger } from "../clock";
 
+/**
+ * Who published an acknowledgement: an authenticated device identity (the embedded broker knows
+ * it), `topic` where the broker's own ACL binds topics to identities (an external broker configured
+ * as the README shows, or device authentication switched off for development), or null for anyone
+ * else (an internal client, an unauthenticated one).
+ */
+export type AckPublisher = { kind: "device"; rig: string; device: string } | { kind: "topic" } | null;
+
+/** Delivers every message on a device ack topic, with its publisher. */
+export type AckFeed = (handler: (topic: string, payload: Buffer, from: AckPublisher) => void) => Promise<void>;
+
+/** Acks from the bus subscription, trusting the topic (the broker enforces who may publish there). */
+export function busAckFeed(bus: MessageBus): AckFeed {
+  return (handler) => bus.subscribe(ACK_FILTER, (topic, payload) => handler(topic, payload, { kind: "topic" }));
+}
+
 export type ConfigOutcome =
   | { status: "applied"; ack: DeviceAck }
   | { status: "refused"; ack: DeviceAck }
@@ -25,13 +41,29 @@ interface Waiter {
   settle: (outcome: ConfigOutcome) => void;
 }
 
-export async function createConfigExchange(deps: { bus: MessageBus; clock: Clock; logger: Logger }): Promise<ConfigExchange> {
+/**
+ * An acknowledgement counts only when it comes from the device that owns the topic; anything else is
+ * passed to onForeign (counted and logged at a limited rate by the caller) and ignored.
+ */
+export async function createConfigExchange(deps: {
+  bus: MessageBus;
+  clock: Clock;
+  logger: Logger;
+  acks?: AckFeed;
+  onForeign?: (device: string, why: string) => void;
+}): Promise<ConfigExchange> {
   const waiters = new Set<Waiter>();
+  const feed = deps.acks ?? busAckFeed(deps.bus);
 
-  await deps.bus.subscribe(ACK_FILTER, (topic, payload) => {
+  await feed((topic, payload, from) => {
     try {
       const t = parseTopic(topic);
       if (!t || t.kind !== "ack") return;
+      const owner = `${t.rig}/${t.device}`;
+      if (from === null) return deps.onForeign?.(owner, "published by a client that is not the device");
+      if (from.kind === "device" && `${from.rig}/${from.device}` !== owner) {
+        return deps.onForeign?.(owner, `published by device ${from.rig}/${from.device}`);
+      }
       const parsed = deviceAckSchema.safeParse(JSON.parse(payload.toString("utf8")));
       if (!parsed.success) return deps.logger.warn(`ignored malformed ack on ${topic}`);
       const ack = parsed.data;
