@@ -5,6 +5,8 @@ const envSchema = z.object({
   DATABASE_URL: z.string().url().default("postgres://postgres@127.0.0.1:5433/tapwright"),
   SESSION_SECRET: z.string().min(32, "SESSION_SECRET must be at least 32 characters"),
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
+  /** Where people reach the web app (links in mail); default http://127.0.0.1:PORT. */
+  APP_URL: z.string().url().optional(),
   SIDECAR_PORT: z.coerce.number().int().min(1).max(65535).default(3001),
   MQTT_PORT: z.coerce.number().int().min(0).max(65535).default(1883),
   MQTT_URL: z.string().url().optional(),
@@ -24,6 +26,11 @@ const envSchema = z.object({
 });
 
 export type Env = z.infer<typeof envSchema>;
+
+/** The web app's public address: APP_URL, or the local web app. */
+export function appUrl(e: Env): string {
+  return e.APP_URL ?? `http://127.0.0.1:${e.PORT}`;
+}
 
 let cached: Env | undefined;
 

@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { createDb } from "@/db/client";
 import { sessionOptions } from "@/lib/auth/session-config";
-import { env } from "@/lib/env";
+import { appUrl, env } from "@/lib/env";
 import { consoleLogger, systemClock } from "./clock";
 import { startDeploymentWorker, type DeploymentWorker } from "./deploy/worker";
 import { smtpTransport, startOutboxSender, type OutboxSender } from "./mail/outbox-sender";
@@ -93,6 +93,7 @@ outbox = startOutboxSender({
   db,
   transport: smtpTransport("127.0.0.1", e.SMTP_PORT),
   from: e.MAIL_FROM,
+  appUrl: appUrl(e),
   clock: systemClock,
   logger: consoleLogger,
 });

@@ -15,8 +15,20 @@ export interface RevisionRef {
   channel: string;
 }
 
+/** Begins the line that links a message to its page; the path after it is made absolute when the mail is sent. */
+export const LINK_PREFIX = "Open it in Tapwright: ";
+
 const title = (r: RevisionRef) => `${r.setName} r${r.revision} (${r.channel})`;
-const footer = (r: RevisionRef) => `\n\nOpen it in Tapwright: /sets/${r.setId}\n\n— Tapwright (an engineering aid; this message makes no safety claim)\n`;
+const footer = (r: RevisionRef) => `\n\n${LINK_PREFIX}/sets/${r.setId}\n\n— Tapwright (an engineering aid; this message makes no safety claim)\n`;
+
+/**
+ * The body with every app link made absolute against appUrl (e.g. http://127.0.0.1:3000), so a mail
+ * client can open it; the stored body keeps the app-relative path, valid wherever the app is served.
+ */
+export function withAbsoluteLinks(body: string, appUrl: string): string {
+  const base = appUrl.replace(/\/+$/, "");
+  return body.split("\n").map((line) => (line.startsWith(`${LINK_PREFIX}/`) ? `${LINK_PREFIX}${base}${line.slice(LINK_PREFIX.length)}` : line)).join("\n");
+}
 
 export function reviewRequestedMail(r: RevisionRef, by: string, notes: string): MailMessage {
   return {

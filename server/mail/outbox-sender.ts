@@ -1,6 +1,7 @@
 import nodemailer from "nodemailer";
 import type { Db } from "@/db/client";
 import { lockDueMail, markMailFailed, markMailSent } from "@/db/queries/mail";
+import { withAbsoluteLinks } from "@/lib/mail/templates";
 import { backoffDelay } from "../broker/mqtt-bus";
 import type { Clock, Logger, Timer } from "../clock";
 
@@ -18,6 +19,8 @@ export interface OutboxSenderDeps {
   db: Db;
   transport: MailTransport;
   from: string;
+  /** The web app's address that links in mail point to (APP_URL). */
+  appUrl: string;
   clock: Clock;
   logger: Logger;
   /** How often due messages are looked for (ms); default 1000. */
@@ -53,7 +56,7 @@ export function startOutboxSender(deps: OutboxSenderDeps): OutboxSender {
       let sent = 0;
       for (const m of await lockDueMail(trx, now, deps.batchSize ?? 20)) {
         try {
-          await deps.transport.sendMail({ from: deps.from, to: m.recipients, subject: m.subject, text: m.body });
+          await deps.transport.sendMail({ from: deps.from, to: m.recipients, subject: m.subject, text: withAbsoluteLinks(m.body, deps.appUrl) });
           await markMailSent(trx, m.id, new Date(deps.clock.now()));
           sent++;
         } catch (err) {

@@ -34,7 +34,7 @@ describe("mail through the outbox and the SMTP fake", () => {
   it("delivers an outbox message with nodemailer to the fake, which stores it decoded in the mailbox", async () => {
     smtp = await startFakeSmtp({ db: lab.db, port: 0, logger });
     await enqueueMail(lab.db, ["engineer@tapwright.test", "lead@tapwright.test"], deploymentMail({ ...ref, target: "hydraulic-press/env-node/frame-strain" }, "promoted", "Checksum ab12."));
-    const sender = startOutboxSender({ db: lab.db, transport: smtpTransport("127.0.0.1", smtp.port), from: "Tapwright <tapwright@tapwright.test>", clock: manualClock, logger });
+    const sender = startOutboxSender({ db: lab.db, transport: smtpTransport("127.0.0.1", smtp.port), from: "Tapwright <tapwright@tapwright.test>", appUrl: "https://tapwright.cobalt-ridge.test/", clock: manualClock, logger });
     expect(await sender.drain()).toBe(1);
     await sender.stop();
     const [m] = await mailbox();
@@ -43,6 +43,7 @@ describe("mail through the outbox and the SMTP fake", () => {
     expect(m.envelope_from).toBe("tapwright@tapwright.test");
     expect(m.body).toContain("is now active on hydraulic-press/env-node/frame-strain; the device acknowledged it.");
     expect(m.body).toContain("— Tapwright");
+    expect(m.body).toContain("Open it in Tapwright: https://tapwright.cobalt-ridge.test/sets/7\n");
     const outbox = await lab.db.selectFrom("mail_outbox").select(["sent_at", "attempts"]).executeTakeFirstOrThrow();
     expect(outbox.sent_at).not.toBeNull();
     expect(outbox.attempts).toBe(1);
@@ -53,7 +54,7 @@ describe("mail through the outbox and the SMTP fake", () => {
     const port = smtp.port;
     await enqueueMail(lab.db, ["engineer@tapwright.test"], deploymentMail({ ...ref, target: ref.channel }, "failed", "Reason: no acknowledgement"));
     const sender = startOutboxSender({
-      db: lab.db, transport: smtpTransport("127.0.0.1", port), from: "tapwright@tapwright.test", clock: manualClock, logger,
+      db: lab.db, transport: smtpTransport("127.0.0.1", port), from: "tapwright@tapwright.test", appUrl: "http://127.0.0.1:3000", clock: manualClock, logger,
       initialBackoffMs: 1000, random: () => 1,
     });
     expect(await sender.drain()).toBe(0);
