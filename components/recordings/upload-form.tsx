@@ -1,10 +1,11 @@
 "use client";
 
 import { useRouter } from "next/navigation";
-import { useState, type FormEvent } from "react";
+import { useRef, useState, type FormEvent } from "react";
+import { ApiError } from "@/components/bench/api";
 import { formatHz } from "@/lib/format/units";
 import { MAX_SAMPLES, MAX_UPLOAD_BYTES } from "@/lib/recordings/limits";
-import { uploadRecording, type FieldError } from "./api";
+import { uploadRecording, type FieldError, type UploadProgress } from "./api";
 
 export interface ChannelChoice {
   path: string;
@@ -32,6 +33,8 @@ export function UploadForm({ channels, defaultChannel }: { channels: ChannelChoi
   const [errors, setErrors] = useState<FieldError[]>([]);
   const [message, setMessage] = useState<string | null>(null);
   const [pending, setPending] = useState(false);
+  const [progress, setProgress] = useState<UploadProgress | null>(null);
+  const abort = useRef<AbortController | null>(null);
   const [channel, setChannel] = useState(defaultChannel ?? channels[0]?.path ?? "");
   const chosen = channels.find((c) => c.path === channel);
 
@@ -46,14 +49,17 @@ export function UploadForm({ channels, defaultChannel }: { channels: ChannelChoi
     setPending(true);
     setErrors([]);
     setMessage(null);
+    setProgress({ sent: 0, total: file.size });
+    abort.current = new AbortController();
     try {
-      const id = await uploadRecording(form);
+      const id = await uploadRecording(form, { onProgress: setProgress, signal: abort.current.signal });
       router.push(`/recordings/${id}`);
     } catch (err) {
-      const fields = (err as { fields?: FieldError[] }).fields ?? [];
+      const fields = err instanceof ApiError ? err.fields : [];
       setErrors(fields);
       setMessage(fields.length ? null : err instanceof Error ? err.message : String(err));
       setPending(false);
+      setProgress(null);
     }
   };
 
@@ -104,6 +110,18 @@ export function UploadForm({ channels, defaultChannel }: { channels: ChannelChoi
         <button className="btn-primary" disabled={pending || !channel}>
           {pending ? "Uploading…" : "Upload recording"}
         </button>
+        {pending && progress && (
+          <>
+            <progress className="h-2 w-48 accent-brand-600" max={progress.total || undefined} value={progress.sent} aria-label="Upload progress" />
+            <span className="num text-xs text-slate-500" data-testid="upload-progress">
+              {(progress.sent / 1e6).toFixed(1)} of {(progress.total / 1e6).toFixed(1)} MB sent
+              {progress.total > 0 && progress.sent >= progress.total ? "; the server is checking it…" : ""}
+            </span>
+            <button type="button" className="btn-quiet" onClick={() => abort.current?.abort()}>
+              Cancel upload
+            </button>
+          </>
+        )}
         {message && (
           <p role="alert" className="text-sm text-fault">
             {message}

@@ -57,7 +57,13 @@ test("an engineer creates a token, sees it once, exports with it, and revokes it
   await expect(page.getByTestId("new-token-value")).toHaveCount(0);
   await expect(page.getByText(token)).toHaveCount(0);
 
+  // Revoking asks first; Cancel leaves the token working.
   await tokens.row("e2e pipeline").getByRole("button", { name: "Revoke" }).click();
+  await expect(tokens.row("e2e pipeline").getByRole("alertdialog")).toContainText("stops working at once");
+  await tokens.row("e2e pipeline").getByRole("button", { name: "Cancel" }).click();
+  expect((await page.request.get(`/api/v1/revisions/${revisionId}/export?format=json`, bearer)).status()).toBe(200);
+  await tokens.row("e2e pipeline").getByRole("button", { name: "Revoke" }).click();
+  await tokens.row("e2e pipeline").getByRole("button", { name: "Yes, revoke" }).click();
   await expect(tokens.row("e2e pipeline")).toContainText("revoked");
   expect((await page.request.get(`/api/v1/revisions/${revisionId}/export?format=json`, bearer)).status()).toBe(401);
 });

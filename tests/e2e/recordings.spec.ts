@@ -67,3 +67,23 @@ test("an engineer uploads a capture, sees its trace and spectrum, and overlays a
   await expect(page.getByTestId("recordings-table")).toContainText(name);
   await expect(page.getByRole("button", { name: "Upload recording" })).toHaveCount(0);
 });
+
+test("an upload shows the bytes sent and can be cancelled; nothing is stored", async ({ page }) => {
+  await new SignInPage(page).signInAs("engineer");
+  // A slow uplink (about 1 MB/s) so the upload is still under way when the engineer cancels.
+  const cdp = await page.context().newCDPSession(page);
+  await cdp.send("Network.enable");
+  await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: 1_000_000 });
+  const name = `Cancelled capture ${Date.now()}`;
+  const csv = torqueCsv().repeat(16); // about 4 MB: the rows repeat, which is fine for a refused-or-cancelled upload
+  await new RecordingsPage(page).upload(name, csv);
+  const progress = page.getByTestId("upload-progress");
+  await expect(progress).toContainText(/^[0-9.]+ of [0-9.]+ MB sent/);
+  await expect.poll(async () => Number((await progress.textContent())?.split(" ")[0] ?? 0), { timeout: 10_000 }).toBeGreaterThan(0);
+  await page.screenshot({ path: "test-results/recordings-upload-progress.png" });
+  await page.getByRole("button", { name: "Cancel upload" }).click();
+  await expect(page.getByText("Upload cancelled; nothing was stored.")).toBeVisible();
+  await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+  await page.reload();
+  await expect(page.getByTestId("recordings-table")).not.toContainText(name);
+});

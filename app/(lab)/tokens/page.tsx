@@ -48,7 +48,8 @@ export default async function TokensPage() {
                     {t.revokedAt ? (
                       <span className="text-xs text-slate-500">revoked {utc(t.revokedAt)}</span>
                     ) : (
-                      <ActionForm action={revokeTokenAction} fields={{ tokenId: t.id }} label="Revoke" testId={`revoke-${t.id}`} />
+                      <ActionForm action={revokeTokenAction} fields={{ tokenId: t.id }} label="Revoke" testId={`revoke-${t.id}`}
+                        confirm={`Revoke "${t.name}"? Every build or script that uses it stops working at once; this cannot be undone.`} />
                     )}
                   </td>
                 </tr>

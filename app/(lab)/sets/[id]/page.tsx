@@ -90,7 +90,8 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
         {roleAtLeast(me.role, "lead") && activeHere.some((d) => d.previousId !== null) && (
           <div className="mt-3 flex flex-wrap gap-3">
             {activeHere.filter((d) => d.previousId !== null).map((d) => (
-              <ActionForm key={d.id} action={rollbackAction} fields={{ channel: d.channel, expectedActiveId: d.id }} label={`Roll back ${d.channel}`} testId={`rollback-${d.channel}`} />
+              <ActionForm key={d.id} action={rollbackAction} fields={{ channel: d.channel, expectedActiveId: d.id }} label={`Roll back ${d.channel}`} testId={`rollback-${d.channel}`}
+                confirm={`Roll back ${d.channel}? Its device goes back to the filter that was active before this one, once it acknowledges. Check with your team's review and the machine's safety documentation first.`} />
             ))}
           </div>
         )}
