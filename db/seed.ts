@@ -18,7 +18,8 @@ export async function seedDemo(db: Db, demoPassword: string): Promise<void> {
         for (const ch of device.channels) {
           await trx.insertInto("channels")
             .values({ device_id: deviceId, key: ch.key, name: ch.name, unit: ch.unit, sample_rate_hz: ch.sampleRateHz,
-              range_min: ch.range[0], range_max: ch.range[1] })
+              range_min: ch.range[0], range_max: ch.range[1],
+              max_sections: ch.capacity.maxSections, max_fir_taps: ch.capacity.maxFirTaps })
             .onConflict((oc) => oc.columns(["device_id", "key"]).doNothing()).execute();
         }
       }

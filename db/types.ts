@@ -41,6 +41,10 @@ export interface ChannelsTable {
   sample_rate_hz: number;
   range_min: number;
   range_max: number;
+  /** Most second-order sections the channel's device runs over a whole chain (0–64). */
+  max_sections: Generated<number>;
+  /** Most FIR taps the channel's device runs over a whole chain (0–1024). */
+  max_fir_taps: Generated<number>;
 }
 
 export interface AuditLogTable {

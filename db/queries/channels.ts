@@ -19,6 +19,9 @@ export interface ChannelRow {
   rangeMin: number;
   rangeMax: number;
   coefficientFormat: "f32" | "q15" | "q31";
+  /** Capacity of the channel's device: sections and FIR taps over a whole chain. */
+  maxSections: number;
+  maxFirTaps: number;
 }
 
 /** SQL for a channel's path `<rig>/<device>/<channel>` from the keys of the given table aliases. */
@@ -45,6 +48,8 @@ function channelQuery(db: Conn) {
       "c.range_min as rangeMin",
       "c.range_max as rangeMax",
       "d.coefficient_format as coefficientFormat",
+      "c.max_sections as maxSections",
+      "c.max_fir_taps as maxFirTaps",
     ]);
 }
 

@@ -1,10 +1,18 @@
 import { sql, type Transaction } from "kysely";
 import type { SessionUser } from "@/lib/auth/guard";
-import { channelConfigChecksum, channelConfigEntry, DeploymentRefusal, quantizeForTarget, type DeploymentTarget } from "@/lib/coefficients";
+import {
+  channelConfigChecksum,
+  channelConfigEntry,
+  currentChannelConfig,
+  DeploymentRefusal,
+  entryDesign,
+  quantizeForTarget,
+  type DeploymentTarget,
+  type StoredChannelConfig,
+} from "@/lib/coefficients";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { AppError } from "@/lib/errors";
 import { deploymentMail, type DeploymentRef } from "@/lib/mail/templates";
-import type { ChannelConfig } from "@/lib/protocol";
 import { decide } from "@/lib/workflow";
 import type { Db } from "../client";
 import type { Database, DeploymentKind } from "../types";
@@ -71,8 +79,11 @@ export interface DeploymentView {
   format: "f32" | "q15" | "q31";
   /** SHA-256 of canonicalJson(config): the content hash of what this channel runs. */
   checksum: string;
-  /** This channel's entry of the device configuration document (lib/protocol channelConfigSchema). */
-  config: ChannelConfig;
+  /**
+   * This channel's entry of the device configuration document as stored: the current form (lib/protocol
+   * channelConfigSchema) or, for deployments made before chains, the v2 form (see currentChannelConfig).
+   */
+  config: StoredChannelConfig;
   previousId: number | null;
   requestedAt: Date;
   activatedAt: Date | null;
@@ -124,7 +135,7 @@ export async function listActiveDeployments(db: Conn): Promise<DeploymentView[]>
 export interface DeviceChannelState {
   channelId: number;
   channelKey: string;
-  active: { id: number; config: ChannelConfig; checksum: string } | null;
+  active: { id: number; config: StoredChannelConfig; checksum: string } | null;
 }
 
 /** Every channel of a device, ordered by key, each with its active deployment's config entry. */
@@ -139,7 +150,7 @@ export async function listDeviceChannelStates(db: Conn, deviceId: number): Promi
   return rows.map((r) => ({
     channelId: r.channelId,
     channelKey: r.channelKey,
-    active: r.deploymentId === null ? null : { id: r.deploymentId, config: r.config as ChannelConfig, checksum: r.checksum! },
+    active: r.deploymentId === null ? null : { id: r.deploymentId, config: r.config as StoredChannelConfig, checksum: r.checksum! },
   }));
 }
 
@@ -148,14 +159,22 @@ export async function listPendingDeploymentIds(db: Conn): Promise<number[]> {
   return rows.map((r) => r.id);
 }
 
-function targetOf(ch: Pick<ChannelRow, "key" | "sampleRateHz" | "coefficientFormat">): DeploymentTarget {
-  return { channelKey: ch.key, sampleRateHz: ch.sampleRateHz, format: ch.coefficientFormat };
+function targetOf(ch: ChannelRow): DeploymentTarget {
+  return {
+    label: `${ch.deviceKey}/${ch.key}`,
+    sampleRateHz: ch.sampleRateHz,
+    format: ch.coefficientFormat,
+    capacity: { maxSections: ch.maxSections, maxFirTaps: ch.maxFirTaps },
+  };
 }
 
-/** The production filter the sidecar runs for a deployment: the device's quantized sections as real values. */
-export function deployedDesign(d: Pick<DeploymentView, "design" | "channelKey" | "sampleRateHz" | "format">): FilterDesign {
-  const q = quantizeForTarget(d.design, { channelKey: d.channelKey, sampleRateHz: d.sampleRateHz, format: d.format });
-  return { ...d.design, sos: q.sos, taps: undefined };
+/**
+ * The production filter the sidecar runs for a deployment: exactly what its device acknowledged, the
+ * stored channel entry's coefficients at their real values (a chain for several stages); null for a
+ * unit filter.
+ */
+export function deployedDesign(d: Pick<DeploymentView, "config" | "design">): FilterDesign | null {
+  return entryDesign(currentChannelConfig(d.config), d.design);
 }
 
 function isUniqueViolation(err: unknown): boolean {
@@ -168,7 +187,7 @@ async function insertPending(
     revisionId: number;
     channel: ChannelRow;
     kind: DeploymentKind;
-    config: ChannelConfig;
+    config: StoredChannelConfig;
     checksum: string;
     previousId: number | null;
     actorId: number;
@@ -222,9 +241,10 @@ export async function requestPromotion(
   for (const path of [...new Set(channelPaths)]) {
     const channel = await findChannelByPath(trx, path);
     if (!channel) throw new AppError("not_found", `No channel ${path}.`);
-    let config: ChannelConfig;
+    let config: StoredChannelConfig;
     try {
-      config = channelConfigEntry(String(rev.id), targetOf(channel), quantizeForTarget(rev.design, targetOf(channel)));
+      const target = targetOf(channel);
+      config = channelConfigEntry(String(rev.id), target, quantizeForTarget(rev, target));
     } catch (err) {
       if (err instanceof DeploymentRefusal) throw new AppError("unprocessable", `Refused for ${path}: ${err.message}.`);
       throw err;

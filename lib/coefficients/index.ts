@@ -2,4 +2,4 @@ export * from "./analysis";
 export * from "./device-config";
 export * from "./diff";
 export * from "./revision-content";
-export * from "./sections";
+export * from "./stored-config";

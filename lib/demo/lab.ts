@@ -8,6 +8,8 @@ export interface DemoChannel {
   unit: string;
   sampleRateHz: number;
   range: [number, number];
+  /** What the channel's device runs over a whole filter chain: second-order sections and FIR taps. */
+  capacity: { maxSections: number; maxFirTaps: number };
 }
 
 export interface DemoDevice {
@@ -37,8 +39,8 @@ export const DEMO_RIGS: DemoRig[] = [
         name: "Torque node",
         coefficientFormat: "q15",
         channels: [
-          { key: "input-torque", name: "Input torque", unit: "N·m", sampleRateHz: 1000, range: [-400, 400] },
-          { key: "shaft-speed", name: "Shaft speed", unit: "rpm", sampleRateHz: 500, range: [0, 3600] },
+          { key: "input-torque", name: "Input torque", unit: "N·m", sampleRateHz: 1000, range: [-400, 400], capacity: { maxSections: 16, maxFirTaps: 256 } },
+          { key: "shaft-speed", name: "Shaft speed", unit: "rpm", sampleRateHz: 500, range: [0, 3600], capacity: { maxSections: 8, maxFirTaps: 64 } },
         ],
       },
       {
@@ -46,8 +48,8 @@ export const DEMO_RIGS: DemoRig[] = [
         name: "Vibration node",
         coefficientFormat: "f32",
         channels: [
-          { key: "housing-accel", name: "Housing acceleration", unit: "m/s²", sampleRateHz: 5000, range: [-50, 50] },
-          { key: "oil-temp", name: "Oil temperature", unit: "°C", sampleRateHz: 100, range: [0, 150] },
+          { key: "housing-accel", name: "Housing acceleration", unit: "m/s²", sampleRateHz: 5000, range: [-50, 50], capacity: { maxSections: 32, maxFirTaps: 512 } },
+          { key: "oil-temp", name: "Oil temperature", unit: "°C", sampleRateHz: 100, range: [0, 150], capacity: { maxSections: 8, maxFirTaps: 64 } },
         ],
       },
     ],
@@ -62,8 +64,8 @@ export const DEMO_RIGS: DemoRig[] = [
         name: "Press controller",
         coefficientFormat: "q31",
         channels: [
-          { key: "ram-position", name: "Ram position", unit: "mm", sampleRateHz: 2000, range: [0, 250] },
-          { key: "line-pressure", name: "Line pressure", unit: "bar", sampleRateHz: 2000, range: [0, 350] },
+          { key: "ram-position", name: "Ram position", unit: "mm", sampleRateHz: 2000, range: [0, 250], capacity: { maxSections: 4, maxFirTaps: 128 } },
+          { key: "line-pressure", name: "Line pressure", unit: "bar", sampleRateHz: 2000, range: [0, 350], capacity: { maxSections: 16, maxFirTaps: 256 } },
         ],
       },
       {
@@ -71,8 +73,8 @@ export const DEMO_RIGS: DemoRig[] = [
         name: "Environment node",
         coefficientFormat: "q15",
         channels: [
-          { key: "frame-strain", name: "Frame strain", unit: "µε", sampleRateHz: 1000, range: [-2000, 2000] },
-          { key: "ambient-temp", name: "Ambient temperature", unit: "°C", sampleRateHz: 100, range: [-20, 60] },
+          { key: "frame-strain", name: "Frame strain", unit: "µε", sampleRateHz: 1000, range: [-2000, 2000], capacity: { maxSections: 16, maxFirTaps: 256 } },
+          { key: "ambient-temp", name: "Ambient temperature", unit: "°C", sampleRateHz: 100, range: [-20, 60], capacity: { maxSections: 8, maxFirTaps: 64 } },
         ],
       },
     ],

@@ -1,3 +1,5 @@
+import { quantizedCounts } from "@/lib/coefficients";
+import { quantizedParts } from "@/lib/dsp";
 import { commentSafe } from "./names";
 import type { ExportTarget, PreparedExport } from "./types";
 
@@ -18,9 +20,9 @@ const FORMAT_TEXT: Record<ExportTarget, string> = {
 };
 
 const STRUCTURE_TEXT: Record<ExportTarget, string> = {
-  f32: "direct form II transposed, 2 float states per section",
-  q15: "direct form I (DF1 with a 64-bit accumulator), 4 word states per section",
-  q31: "direct form I (DF1 with a 64-bit accumulator), 4 word states per section",
+  f32: "sections in direct form II transposed, 2 float states per section; FIR stages in direct form",
+  q15: "sections in direct form I (DF1 with a 64-bit accumulator), 4 word states per section; FIR stages in direct form",
+  q31: "sections in direct form I (DF1 with a 64-bit accumulator), 4 word states per section; FIR stages in direct form",
 };
 
 const utc = (d: Date) => `${d.toISOString().slice(0, 19).replace("T", " ")} UTC`;
@@ -29,6 +31,8 @@ const utc = (d: Date) => `${d.toISOString().slice(0, 19).replace("T", " ")} UTC`
 export function describeExport(p: PreparedExport): string[] {
   const s = p.source;
   const q = p.quantized;
+  const parts = quantizedParts(q);
+  const { sections, taps } = quantizedCounts(q);
   const lines = [
     `Set:          ${commentSafe(JSON.stringify(s.setName))} (set id ${s.setId})`,
     `Revision:     r${s.revision} (revision id ${s.revisionId})`,
@@ -36,8 +40,10 @@ export function describeExport(p: PreparedExport): string[] {
     `Sample rate:  ${q.sampleRateHz} Hz`,
     `Structure:    ${STRUCTURE_TEXT[p.target]}`,
     `Format:       ${FORMAT_TEXT[p.target]}`,
-    `Sections:     ${q.shifts.length}`,
-    `Post-shifts:  ${p.target === "f32" ? "none (f32)" : q.shifts.join(", ")}`,
+    `Stages:       ${parts.length}`,
+    `Sections:     ${sections}`,
+    `FIR taps:     ${taps}`,
+    `Post-shifts:  ${p.target === "f32" ? "none (f32)" : parts.flatMap((part) => part.shifts).join(", ")}`,
     `Approved:     ${s.approval ? `by ${commentSafe(s.approval.by)} at ${utc(s.approval.at)}` : "not approved"}`,
     `Content hash: sha256:${p.contentHash}`,
     "              (SHA-256 of the RFC 8785 canonical JSON of the json export's \"coefficients\" object)",
@@ -50,4 +56,9 @@ export function describeExport(p: PreparedExport): string[] {
 /** The design inputs as indented JSON lines, safe inside comments. */
 export function specLines(p: PreparedExport): string[] {
   return JSON.stringify(p.source.spec, null, 2).split("\n").map(commentSafe);
+}
+
+/** Where stage k of an export comes from in its spec: `spec.stages[i]` of a chain, or the single spec. */
+export function stageSource(p: PreparedExport, k: number): string {
+  return p.source.spec.kind === "chain" ? `spec.stages[${p.specStages[k]}]` : "the spec";
 }

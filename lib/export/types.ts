@@ -44,15 +44,25 @@ export interface PreparedExport {
   contentHash: string;
   /** C identifier stem, lowercase, unique per set name, revision and target (e.g. hum_notch_r3_q15). */
   name: string;
+  /** Per stage of the content, its index in the spec's stages (0 for a single spec; bypassed stages are not run). */
+  specStages: number[];
 }
 
+/** One f32 stage of the exported content: sections [b0, b1, b2, a1, a2] as float32 values, or FIR taps. */
+export type FloatContentStage = { kind: "sections"; sections: number[][] } | { kind: "fir"; taps: number[] };
+
+/** One Q15/Q31 stage: sections of words [b0, b1, b2, a1, a2] with their post-shifts, or FIR tap words with one post-shift. */
+export type FixedContentStage =
+  | { kind: "sections"; sections: { words: number[]; shift: number }[] }
+  | { kind: "fir"; taps: { words: number[]; shift: number } };
+
 /**
- * The coefficient content an export's hash covers, identical to the JSON export's `coefficients`.
- * f32 sections: [b0, b1, b2, a1, a2] as float32 values; q15/q31: words [b0, b1, b2, a1, a2] and post-shift.
+ * The coefficient content an export's hash covers, identical to the JSON export's `coefficients`:
+ * every stage of the filter in the order it runs (a single design is one stage).
  */
 export type CoefficientContent =
-  | { v: 1; format: "f32"; structure: "df2t"; sampleRateHz: number; sections: number[][] }
-  | { v: 1; format: "q15" | "q31"; structure: "df1"; sampleRateHz: number; sections: { words: number[]; shift: number }[] };
+  | { v: 2; format: "f32"; structure: "df2t"; sampleRateHz: number; stages: FloatContentStage[] }
+  | { v: 2; format: "q15" | "q31"; structure: "df1"; sampleRateHz: number; stages: FixedContentStage[] };
 
 /** A rendered file, ready to send. */
 export interface ExportFile {

@@ -14,16 +14,64 @@ const configId = z.string().min(1).max(64);
 const checksum = z.string().regex(/^[0-9a-f]{64}$/, { error: "checksum must be 64 lowercase hex digits (SHA-256)" });
 
 /** One f32 section as an SOS row [b0, b1, b2, a0, a1, a2] with a0 = 1. */
-const floatSection = z.array(z.number()).length(6).refine((row) => row[3] === 1, { error: "a0 must be 1" });
+export const floatSectionSchema = z.array(z.number()).length(6).refine((row) => row[3] === 1, { error: "a0 must be 1" });
 
-/** One fixed-point section: words [b0, b1, b2, a1, a2] in Qn (n = 15 or 31); coefficient = word · 2^(shift − n). */
-const fixedSection = (bits: 15 | 31) =>
+/** Words in Qn (n = 15 or 31) sharing one post-shift: coefficient = word · 2^(shift − n). */
+const fixedGroup = (bits: 15 | 31, length: z.ZodArray<z.ZodNumber>) =>
+  z.object({ words: length, shift: z.number().int().min(0).max(bits) }).strict();
+const word = (bits: 15 | 31) => z.number().int().min(-(2 ** bits)).max(2 ** bits - 1);
+
+/** One fixed-point section: words [b0, b1, b2, a1, a2] and the section's post-shift. */
+export const fixedSectionSchema = (bits: 15 | 31) => fixedGroup(bits, z.array(word(bits)).length(5));
+
+/** Most sections one channel runs, over all its stages. */
+export const MAX_CONFIG_SECTIONS = 64;
+/** Most FIR taps one channel runs, over all its stages. */
+export const MAX_CONFIG_TAPS = 1024;
+/** Most stages in one channel's chain (a chain spec's limit). */
+export const MAX_CONFIG_STAGES = 8;
+
+/**
+ * The stages of one format: `sections` (second-order sections, in order) or `fir` (taps h[0]…h[N−1]).
+ * f32 sections are SOS rows, f32 taps a list of numbers; in Q15/Q31 every section and every tap list
+ * is `{words, shift}`.
+ */
+function stageSchema<S extends z.ZodType, T extends z.ZodType>(section: S, taps: T) {
+  return z.discriminatedUnion("kind", [
+    z.object({ kind: z.literal("sections"), sections: z.array(section).min(1).max(MAX_CONFIG_SECTIONS) }).strict(),
+    z.object({ kind: z.literal("fir"), taps }).strict(),
+  ]);
+}
+
+const floatTaps = z.array(z.number()).min(1).max(MAX_CONFIG_TAPS);
+const fixedTaps = (bits: 15 | 31) => fixedGroup(bits, z.array(word(bits)).min(1).max(MAX_CONFIG_TAPS));
+
+export const floatStageSchema = stageSchema(floatSectionSchema, floatTaps);
+export const q15StageSchema = stageSchema(fixedSectionSchema(15), fixedTaps(15));
+export const q31StageSchema = stageSchema(fixedSectionSchema(31), fixedTaps(31));
+export type FloatStage = z.infer<typeof floatStageSchema>;
+export type FixedStage = z.infer<typeof q15StageSchema>;
+
+/** Sections and taps a list of stages holds altogether (what a channel's capacity is checked against). */
+export function stageCounts(stages: ReadonlyArray<FloatStage | FixedStage>): { sections: number; taps: number } {
+  let sections = 0;
+  let taps = 0;
+  for (const stage of stages) {
+    if (stage.kind === "sections") sections += stage.sections.length;
+    else taps += Array.isArray(stage.taps) ? stage.taps.length : stage.taps.words.length;
+  }
+  return { sections, taps };
+}
+
+const stageList = <S extends z.ZodType<FloatStage | FixedStage>>(stage: S) =>
   z
-    .object({
-      words: z.array(z.number().int().min(-(2 ** bits)).max(2 ** bits - 1)).length(5),
-      shift: z.number().int().min(0).max(bits),
-    })
-    .strict();
+    .array(stage)
+    .max(MAX_CONFIG_STAGES)
+    .superRefine((stages, ctx) => {
+      const { sections, taps } = stageCounts(stages);
+      if (sections > MAX_CONFIG_SECTIONS) ctx.addIssue({ code: "custom", message: `a channel runs at most ${MAX_CONFIG_SECTIONS} sections (got ${sections})` });
+      if (taps > MAX_CONFIG_TAPS) ctx.addIssue({ code: "custom", message: `a channel runs at most ${MAX_CONFIG_TAPS} FIR taps (got ${taps})` });
+    });
 
 const channelConfigBase = {
   revisionId,
@@ -31,29 +79,33 @@ const channelConfigBase = {
 };
 
 /**
- * One channel's filter inside a device configuration: the revision, the coefficient format, the
- * sample rate it was designed for and its sections; an empty `sections` list is a unit filter.
+ * One channel's filter inside a device configuration (v3): the revision, the coefficient format, the
+ * sample rate it was designed for and its chain, an ordered list of stages run one after the other;
+ * an empty `stages` list is a unit filter.
  */
 export const channelConfigSchema = z.discriminatedUnion("format", [
-  z.object({ ...channelConfigBase, format: z.literal("f32"), sections: z.array(floatSection).max(64) }).strict(),
-  z.object({ ...channelConfigBase, format: z.literal("q15"), sections: z.array(fixedSection(15)).max(64) }).strict(),
-  z.object({ ...channelConfigBase, format: z.literal("q31"), sections: z.array(fixedSection(31)).max(64) }).strict(),
+  z.object({ ...channelConfigBase, format: z.literal("f32"), stages: stageList(floatStageSchema) }).strict(),
+  z.object({ ...channelConfigBase, format: z.literal("q15"), stages: stageList(q15StageSchema) }).strict(),
+  z.object({ ...channelConfigBase, format: z.literal("q31"), stages: stageList(q31StageSchema) }).strict(),
 ]);
 export type ChannelConfig = z.infer<typeof channelConfigSchema>;
+
+/** The version of the device configuration document and of its acknowledgement. */
+export const CONFIG_VERSION = 3 as const;
 
 /** Most channels one device configuration carries. */
 export const MAX_CONFIG_CHANNELS = 64;
 
 /**
- * Filter configuration v2, retained on `<rig>/<device>/config`: one document for the whole device
+ * Filter configuration v3, retained on `<rig>/<device>/config`: one document for the whole device
  * (MQTT keeps one retained message per topic, so a per-channel payload would overwrite its siblings).
  * `device` is `<rig>/<device>`; `channels` names every channel of the device, null meaning no filter
- * (pass-through). `checksum` is the lowercase hex SHA-256 of canonicalJson(document without checksum).
+ * (pass-through), each entry a chain of stages. `checksum` is the lowercase hex SHA-256 of canonicalJson(document without checksum).
  * The device applies the whole document or none of it.
  */
 export const deviceConfigSchema = z
   .object({
-    v: z.literal(2),
+    v: z.literal(CONFIG_VERSION),
     device: z.string().max(127).refine(isDevicePath, { error: "device must be <rig>/<device>" }),
     configId,
     channels: z
@@ -70,7 +122,7 @@ export type UnsignedDeviceConfig = Omit<DeviceConfig, "checksum">;
 /** Published by the device on `<rig>/<device>/ack` after it checked a configuration document. */
 export const deviceAckSchema = z
   .object({
-    v: z.literal(2),
+    v: z.literal(CONFIG_VERSION),
     configId,
     checksum,
     status: z.enum(["applied", "refused"]),

@@ -1,13 +1,14 @@
-import { deviceConfigSchema, type DeviceAck, type DeviceConfig } from "@/lib/protocol";
+import { CONFIG_VERSION, deviceConfigSchema, stageCounts, type DeviceAck, type DeviceConfig } from "@/lib/protocol";
 import type { DemoDevice } from "@/lib/demo/lab";
 import { checksumMatches } from "../devices/checksum";
 
 /**
- * What a demo device answers to a configuration document (v2): "applied" when it parses, its
+ * What a demo device answers to a configuration document (v3): "applied" when it parses, its
  * checksum matches, it is addressed to this device, and it names exactly this device's channels,
- * each in the device's format at the channel's sample rate (or null, pass-through); "refused" with
- * the first reason otherwise. The document is applied whole or not at all. Null when the payload is
- * too broken to name a configId and checksum (nothing to acknowledge).
+ * each in the device's format at the channel's sample rate with a chain that fits the channel's
+ * capacity (or null, pass-through); "refused" with the first reason otherwise. The document is applied
+ * whole or not at all. Null when the payload is too broken to name a configId and checksum (nothing to
+ * acknowledge).
  */
 export function answerConfig(rigKey: string, device: DemoDevice, payload: Buffer): DeviceAck | null {
   let json: unknown;
@@ -20,11 +21,11 @@ export function answerConfig(rigKey: string, device: DemoDevice, payload: Buffer
   if (!parsed.success) {
     const { configId, checksum } = (json ?? {}) as { configId?: unknown; checksum?: unknown };
     if (typeof configId !== "string" || typeof checksum !== "string" || !/^[0-9a-f]{64}$/.test(checksum)) return null;
-    return { v: 2, configId: configId.slice(0, 64), checksum, status: "refused", reason: "malformed config" };
+    return { v: CONFIG_VERSION, configId: configId.slice(0, 64), checksum, status: "refused", reason: "malformed config" };
   }
   const config = parsed.data;
   const reason = refusalReason(rigKey, device, config);
-  const ack = { v: 2 as const, configId: config.configId, checksum: config.checksum };
+  const ack = { v: CONFIG_VERSION, configId: config.configId, checksum: config.checksum };
   return reason ? { ...ack, status: "refused", reason } : { ...ack, status: "applied" };
 }
 
@@ -40,6 +41,11 @@ function refusalReason(rigKey: string, device: DemoDevice, config: DeviceConfig)
     if (entry === null) continue;
     if (entry.format !== device.coefficientFormat) return `${channel.key}: this device runs ${device.coefficientFormat}, not ${entry.format}`;
     if (entry.sampleRateHz !== channel.sampleRateHz) return `${channel.key}: channel runs at ${channel.sampleRateHz} Hz`;
+    const { sections, taps } = stageCounts(entry.stages);
+    const { maxSections, maxFirTaps } = channel.capacity;
+    if (sections > maxSections || taps > maxFirTaps) {
+      return `${channel.key}: ${sections} sections and ${taps} taps exceed this channel's ${maxSections} sections and ${maxFirTaps} taps`;
+    }
   }
   return null;
 }

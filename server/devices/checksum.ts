@@ -1,8 +1,9 @@
 import { createHash } from "node:crypto";
-import { canonicalJson, checksumSubject, type ChannelConfig, type DeviceConfig, type UnsignedDeviceConfig } from "@/lib/protocol";
+import type { StoredChannelConfig } from "@/lib/coefficients";
+import { canonicalJson, checksumSubject, type DeviceConfig, type UnsignedDeviceConfig } from "@/lib/protocol";
 
 /** Lowercase hex SHA-256 (FIPS 180-4) of canonicalJson(value). */
-function canonicalSha256(value: ChannelConfig | UnsignedDeviceConfig): string {
+function canonicalSha256(value: StoredChannelConfig | UnsignedDeviceConfig): string {
   return createHash("sha256").update(canonicalJson(value), "utf8").digest("hex");
 }
 
@@ -11,8 +12,11 @@ export function configChecksum(config: DeviceConfig | UnsignedDeviceConfig): str
   return canonicalSha256(checksumSubject(config));
 }
 
-/** A channel entry's content hash, as lib/coefficients channelConfigChecksum computes it in the browser. */
-export function channelConfigChecksum(entry: ChannelConfig): string {
+/**
+ * A channel entry's content hash, as lib/coefficients channelConfigChecksum computes it in the browser;
+ * also of entries stored in the form before chains, which keep the hash they were stored with.
+ */
+export function channelConfigChecksum(entry: StoredChannelConfig): string {
   return canonicalSha256(entry);
 }
 

@@ -132,8 +132,7 @@ describe("refusals and production", () => {
     const { revisionId } = await createSet("Torque LP production");
     const rev = await lab.db.selectFrom("revisions").select(["design", "quantized"]).where("id", "=", revisionId).executeTakeFirstOrThrow();
     const channel = await lab.db.selectFrom("channels").select("id").where("key", "=", "input-torque").executeTakeFirstOrThrow();
-    const target = { channelKey: "input-torque", sampleRateHz: 1000, format: "q15" as const };
-    const config = channelConfigEntry(String(revisionId), target, rev.quantized as never);
+    const config = channelConfigEntry(String(revisionId), { sampleRateHz: 1000 }, rev.quantized as never);
     const checksum = await channelConfigChecksum(config);
     const [dep] = await lab.db
       .insertInto("deployments")
@@ -144,7 +143,7 @@ describe("refusals and production", () => {
     expect(res.status).toBe(200);
     const doc = await res.json();
     expect(doc).toMatchObject({ revision: { id: revisionId }, target: "q15", deployment: { id: dep.id, checksum } });
-    expect(doc.coefficients.sections).toEqual(config.sections);
+    expect(doc.coefficients.stages).toEqual(config.stages);
     expect((await get("format=c-header")).headers.get("content-disposition")).toBe('attachment; filename="torque_lp_production_r1_q15.h"');
   });
 });

@@ -24,11 +24,19 @@ afterAll(async () => {
 });
 
 const unsigned: UnsignedDeviceConfig = {
-  v: 2,
+  v: 3,
   device: "gearbox-endurance/torque-node",
   configId: "rev-42",
   channels: {
-    "input-torque": { revisionId: "rev-42", format: "q15", sampleRateHz: 1000, sections: [{ words: [1024, 2048, 1024, -20000, 9000], shift: 1 }] },
+    "input-torque": {
+      revisionId: "rev-42",
+      format: "q15",
+      sampleRateHz: 1000,
+      stages: [
+        { kind: "sections", sections: [{ words: [1024, 2048, 1024, -20000, 9000], shift: 1 }] },
+        { kind: "fir", taps: { words: [8192, 16384, 8192], shift: 0 } },
+      ],
+    },
     "shaft-speed": null,
   },
 };
@@ -60,7 +68,7 @@ describe("demo rig (authenticated like a device) and the config exchange", () =>
     engineer.ws.close();
   }, 15_000);
 
-  it("a matching checksum is applied and acknowledged", async () => {
+  it("a chain with a matching checksum is applied and acknowledged", async () => {
     const config = signConfig(unsigned);
     expect(deviceConfigSchema.parse(config)).toEqual(config);
     const outcome = await sidecar.configs.send("gearbox-endurance", "torque-node", config, 5000);
@@ -74,7 +82,7 @@ describe("demo rig (authenticated like a device) and the config exchange", () =>
       status: "refused",
       ack: { reason: "checksum mismatch" },
     });
-    const f32 = { revisionId: "rev-43", format: "f32" as const, sampleRateHz: 1000, sections: [[1, 0, 0, 1, 0, 0]] };
+    const f32 = { revisionId: "rev-43", format: "f32" as const, sampleRateHz: 1000, stages: [{ kind: "sections" as const, sections: [[1, 0, 0, 1, 0, 0]] }] };
     const wrongFormat = signConfig({ ...unsigned, configId: "rev-43", channels: { ...unsigned.channels, "input-torque": f32 } });
     expect(await sidecar.configs.send("gearbox-endurance", "torque-node", wrongFormat, 5000)).toMatchObject({
       status: "refused",

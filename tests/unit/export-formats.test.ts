@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { canonicalJson } from "@/lib/protocol";
-import { parseCoefficientText } from "@/lib/dsp";
+import { parseCoefficientText, quantizedParts } from "@/lib/dsp";
 import {
   ExportRefusal,
   commentSafe,
@@ -11,7 +11,8 @@ import {
   renderExport,
   wordLiteral,
 } from "@/lib/export";
-import { butter4, sourceFor } from "./export-support";
+import { humChain } from "./coefficients-support";
+import { butter4, chainWithFir, sourceFor } from "./export-support";
 
 /** Significant digits of a C float literal such as -0.0618851967f or 1.00000000e-12f. */
 const significantDigits = (lit: string) => lit.replace(/[eE].*$|f$/g, "").replace(/[-.]/g, "").replace(/^0+/, "").length;
@@ -100,6 +101,19 @@ describe("C header text", () => {
     expect(body.indexOf("*/")).toBe(body.indexOf(" */\n#ifndef") + 1);
   });
 
+it("chain, q15: the header holds every stage in order, with the FIR's taps as their own array", async () => {
+    const p = await prepareExport(sourceFor(chainWithFir, "q15", "Chain"), "q15");
+    const body = renderExport(p, "c-header").body;
+    expect(body).toContain("#define CHAIN_R3_Q15_STAGES 4\n");
+    expect(body).toContain("#define CHAIN_R3_Q15_SECTIONS 4\n");
+    expect(body).toContain("#define CHAIN_R3_Q15_TAPS 63\n");
+    expect(body).toContain(`#define CHAIN_R3_Q15_STAGE_1_SHIFT ${p.quantized.stages?.[1].shifts[0]}\n`);
+    const taps = /chain_r3_q15_stage_1_taps\[CHAIN_R3_Q15_STAGE_1_TAPS\] = \{([\s\S]*?)\};/.exec(body)?.[1] ?? "";
+    expect(taps.split(",").map((t) => t.trim()).filter(Boolean).map(Number)).toEqual(p.quantized.stages?.[1].integers?.[0].map((w) => w + 0)); // -0 words print as 0
+    expect(body.indexOf("chain_r3_q15_sections(v, CHAIN_R3_Q15_STAGE_0_FIRST")).toBeLessThan(body.indexOf("chain_r3_q15_fir(v, chain_r3_q15_stage_1_taps"));
+    expect(body.indexOf("chain_r3_q15_fir(v, chain_r3_q15_stage_1_taps")).toBeLessThan(body.indexOf("chain_r3_q15_sections(v, CHAIN_R3_Q15_STAGE_2_FIRST"));
+  });
+
   it("refuses firmware formats for an unstable design, but still writes scipy arrays with a warning", async () => {
     const p = await prepareExport(sourceFor(unstable, "f32"), "f32");
     expect(p.stable).toBe(false);
@@ -126,8 +140,10 @@ describe("JSON and scipy forms", () => {
       approval: { by: "Lena Lead", at: "2026-11-30T09:15:00.000Z" },
       spec: butter4,
     });
-    expect(doc.coefficients.sections.map((s: { words: number[] }) => s.words)).toEqual(p.quantized.integers);
-    expect(doc.coefficients.sections.map((s: { shift: number }) => s.shift)).toEqual(p.quantized.shifts);
+    expect(doc).toMatchObject({ v: 2, specStages: [0], coefficients: { v: 2, format: "q15", structure: "df1", sampleRateHz: 1000 } });
+    expect(doc.coefficients.stages).toHaveLength(1);
+    expect(doc.coefficients.stages[0].sections.map((s: { words: number[] }) => s.words)).toEqual(p.quantized.integers);
+    expect(doc.coefficients.stages[0].sections.map((s: { shift: number }) => s.shift)).toEqual(p.quantized.shifts);
     expect(doc.contentHash).toBe(await contentHash(doc.coefficients));
     const bytes = new TextEncoder().encode(canonicalJson(doc.coefficients));
     const digest = Buffer.from(await crypto.subtle.digest("SHA-256", bytes)).toString("hex");
@@ -143,6 +159,30 @@ describe("JSON and scipy forms", () => {
       expect(file.body).toContain("fs = 1000.0  # Hz\n");
       expect(parseCoefficientText(file.body.slice(file.body.indexOf("sos = ")))).toEqual(p.quantized.sos);
     }
+  });
+
+  it("JSON of a chain: every stage in order with the spec stage it comes from, FIR taps as one word list with one shift", async () => {
+    const bypassed = { ...chainWithFir, stages: chainWithFir.kind === "chain" ? [{ ...chainWithFir.stages[0], bypassed: true }, ...chainWithFir.stages.slice(1)] : [] };
+    const p = await prepareExport(sourceFor(bypassed, "q31", "Chain"), "q31");
+    const doc = JSON.parse(renderExport(p, "json").body);
+    expect(doc.specStages).toEqual([1, 2, 3]);
+    expect(doc.coefficients.stages.map((s: { kind: string }) => s.kind)).toEqual(["fir", "sections", "sections"]);
+    expect(doc.coefficients.stages[0].taps).toEqual({ words: p.quantized.stages?.[0].integers?.[0].map((w) => w + 0), shift: p.quantized.stages?.[0].shifts[0] });
+    expect(doc.coefficients.stages[2].sections).toHaveLength(2);
+    expect(doc.contentHash).toBe(await contentHash(doc.coefficients));
+  });
+
+  it("scipy form of a chain: one sos list of every section when there is no FIR stage, stage lists and `stages` otherwise", async () => {
+    const sections = await prepareExport(sourceFor(humChain, "q15", "Chain"), "q15");
+    const body = renderExport(sections, "scipy").body;
+    expect(body).toContain("    # stage 2 (spec.stages[2]): 2 sections\n");
+    expect(parseCoefficientText(body.slice(body.indexOf("sos = ")))).toEqual(quantizedParts(sections.quantized).flatMap((part) => part.sos ?? []));
+    const withFir = await prepareExport(sourceFor(chainWithFir, "f32", "Chain"), "f32");
+    const text = renderExport(withFir, "scipy").body;
+    expect(text).not.toContain("sos = ");
+    expect(text).toContain('stages = [("sos", stage_0), ("fir", stage_1), ("sos", stage_2), ("sos", stage_3)]\n');
+    const fir = /stage_1 = (\[[^\n]*\])\n/.exec(text)?.[1] ?? "";
+    expect(parseCoefficientText(fir)).toEqual(withFir.quantized.stages?.[1].taps);
   });
 
   it("uses the stored quantized form for its own format and requantizes for another", async () => {

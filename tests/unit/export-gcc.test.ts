@@ -3,9 +3,9 @@ import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
-import { simulateFixed, type FilterSpec } from "@/lib/dsp";
+import { quantizedParts, simulateFixed, type FilterSpec, type QuantizedPart } from "@/lib/dsp";
 import { prepareExport, renderCHeader, type ExportTarget, type PreparedExport } from "@/lib/export";
-import { butter4, peak, sourceFor } from "./export-support";
+import { butter4, chainWithFir, peak, sourceFor } from "./export-support";
 
 /**
  * The strongest check of the C header: compile it with gcc next to a tiny driver that runs the
@@ -56,11 +56,16 @@ function compileAndRun(p: PreparedExport, inputs: string[], cType: string, print
 }
 
 async function prepared(spec: FilterSpec, target: ExportTarget): Promise<PreparedExport> {
-  return prepareExport(sourceFor(spec, target), target);
+  return prepareExport(sourceFor(spec, target, spec.kind === "chain" ? "Chain" : undefined), target);
 }
 
 describe.skipIf(!hasGcc)("generated C header compiled with gcc", () => {
-  for (const [label, spec] of [["4th-order Butterworth low-pass", butter4], ["+12 dB resonant peak (saturates)", peak]] as const) {
+  const designs = [
+    ["4th-order Butterworth low-pass", butter4],
+    ["+12 dB resonant peak (saturates)", peak],
+    ["chain: notch, 63-tap FIR, notch, Butterworth low-pass", chainWithFir],
+  ] as const;
+  for (const [label, spec] of designs) {
     for (const target of ["q15", "q31"] as const) {
       it(`${label}, ${target}: the header's step equals simulateFixed word for word`, async () => {
         const p = await prepared(spec, target);
@@ -75,28 +80,48 @@ describe.skipIf(!hasGcc)("generated C header compiled with gcc", () => {
     }
   }
 
-  it("4th-order Butterworth low-pass, f32: the header's step equals a float32 DF2T model (relative 1e-6)", async () => {
-    const p = await prepared(butter4, "f32");
-    const x = inputWords(15).map((w) => Math.fround(w / 2 ** 15));
-    const got = compileAndRun(p, x.map((v) => `${v.toPrecision(9)}f`), "float", "%.9g", "double").map(Number);
-    const expected = float32Df2t(p.quantized.sos ?? [], x);
-    expect(got).toHaveLength(x.length);
-    got.forEach((g, i) => expect(Math.abs(g - expected[i])).toBeLessThanOrEqual(1e-6 * Math.max(1, Math.abs(expected[i]))));
-  });
+  for (const [label, spec] of [designs[0], designs[2]]) {
+    it(`${label}, f32: the header's step equals a float32 model, sections in DF2T and FIR stages in direct form (relative 1e-6)`, async () => {
+      const p = await prepared(spec, "f32");
+      const x = inputWords(15).map((w) => Math.fround(w / 2 ** 15));
+      const got = compileAndRun(p, x.map((v) => `${v.toPrecision(9)}f`), "float", "%.9g", "double").map(Number);
+      const expected = float32Chain(quantizedParts(p.quantized), x);
+      expect(got).toHaveLength(x.length);
+      got.forEach((g, i) => expect(Math.abs(g - expected[i])).toBeLessThanOrEqual(1e-6 * Math.max(1, Math.abs(expected[i]))));
+    });
+  }
 });
 
-/** Direct form II transposed with every operation rounded to float32 (Math.fround), rows [b0, b1, b2, 1, a1, a2]. */
-function float32Df2t(sos: number[][], x: number[]): number[] {
+/**
+ * The stages in order with every operation rounded to float32 (Math.fround): sections (rows
+ * [b0, b1, b2, 1, a1, a2]) in direct form II transposed, FIR stages as y = h0·x, then y += h_i·x_i.
+ */
+function float32Chain(parts: QuantizedPart[], x: number[]): number[] {
   const f = Math.fround;
-  const d = sos.map(() => [0, 0]);
-  return x.map((input) => {
-    let v = input;
-    sos.forEach(([b0, b1, b2, , a1, a2], k) => {
-      const y = f(f(b0 * v) + d[k][0]);
-      d[k][0] = f(f(f(b1 * v) - f(a1 * y)) + d[k][1]);
-      d[k][1] = f(f(b2 * v) - f(a2 * y));
-      v = y;
-    });
-    return v;
+  const runners = parts.map((part) => {
+    if (part.taps) {
+      const taps = part.taps;
+      const hist: number[] = new Array<number>(taps.length).fill(0);
+      return (v: number) => {
+        hist.pop();
+        hist.unshift(v);
+        let y = f(taps[0] * v);
+        for (let i = 1; i < taps.length; i++) y = f(y + f(taps[i] * hist[i]));
+        return y;
+      };
+    }
+    const sos = part.sos ?? [];
+    const d = sos.map(() => [0, 0]);
+    return (input: number) => {
+      let v = input;
+      sos.forEach(([b0, b1, b2, , a1, a2], k) => {
+        const y = f(f(b0 * v) + d[k][0]);
+        d[k][0] = f(f(f(b1 * v) - f(a1 * y)) + d[k][1]);
+        d[k][1] = f(f(b2 * v) - f(a2 * y));
+        v = y;
+      });
+      return v;
+    };
   });
+  return x.map((input) => runners.reduce((v, run) => run(v), input));
 }

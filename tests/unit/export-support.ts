@@ -23,3 +23,15 @@ export const butter4: FilterSpec = { kind: "iir", family: "butterworth", respons
 
 /** A resonant peak (+12 dB at 50 Hz, Q 8): full-scale input saturates Q15, which the C code must match. */
 export const peak: FilterSpec = { kind: "biquad", shape: "peaking", centerHz: 50, q: 8, gainDb: 12, sampleRateHz: 1000 };
+
+/** A chain with an FIR stage between sections: notch 50 Hz, 63-tap Hamming low-pass at 200 Hz, notch 150 Hz, Butterworth low-pass 4 at 300 Hz (1 kHz). */
+export const chainWithFir: FilterSpec = {
+  kind: "chain",
+  sampleRateHz: 1000,
+  stages: [
+    { kind: "biquad", shape: "notch", centerHz: 50, q: 5, sampleRateHz: 1000 },
+    { kind: "fir", response: "lowpass", window: "hamming", taps: 63, cutoffHz: 200, sampleRateHz: 1000 },
+    { kind: "biquad", shape: "notch", centerHz: 150, q: 5, sampleRateHz: 1000 },
+    { kind: "iir", family: "butterworth", response: "lowpass", order: 4, cutoffHz: 300, sampleRateHz: 1000 },
+  ],
+};
