@@ -1,5 +1,4 @@
 import { sql } from "kysely";
-import mqtt from "mqtt";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { findChannelByPath } from "@/db/queries/channels";
 import { findActiveDeployment, requestPromotion, requestRollback } from "@/db/queries/deployments";
@@ -8,7 +7,7 @@ import { createSet } from "@/db/queries/sets";
 import { buildRevisionContent } from "@/lib/coefficients";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { DEMO_RIGS } from "@/lib/demo/lab";
-import { ackTopic, configTopic, deviceConfigSchema, parseTopic, type DeviceConfig } from "@/lib/protocol";
+import { ackTopic, deviceConfigSchema, parseTopic, type DeviceConfig } from "@/lib/protocol";
 import type { MessageBus } from "@/server/broker/bus";
 import { inProcessBus, startEmbeddedBroker, type EmbeddedBroker } from "@/server/broker/embedded";
 import { systemClock, type Logger } from "@/server/clock";
@@ -17,6 +16,7 @@ import { checksumMatches } from "@/server/devices/checksum";
 import { createConfigExchange, type ConfigExchange } from "@/server/devices/config-exchange";
 import { answerConfig } from "@/server/demo-rig/config-handler";
 import { actAs, butterSpec, jsonRequest, params, pathParams, setUpLab, type Accounts } from "./sets-fixture";
+import { retainedDocument } from "./sidecar-support";
 
 vi.mock("@/db", async () => (await import("./sets-fixture")).dbModule);
 vi.mock("@/app/_lib/auth", async () => (await import("./sets-fixture")).authModule);
@@ -247,7 +247,7 @@ describe("one retained document per device", () => {
     expect(await activeRevision(SPEED)).toBe(speedFirst);
     const retained = await retainedConfig("gearbox-endurance", "torque-node");
     expect(retained).toMatchObject({
-      v: 2,
+      v: 3,
       device: "gearbox-endurance/torque-node",
       configId: String(deployments[0].id),
       channels: { "input-torque": { revisionId: String(first), format: "q15", sampleRateHz: 1000 }, "shaft-speed": { revisionId: String(speedFirst), format: "q15", sampleRateHz: 500 } },
@@ -299,23 +299,7 @@ describe("one retained document per device", () => {
 });
 
 /** What a fresh MQTT subscriber to the device's config topic receives: the retained document, or null. */
-async function retainedConfig(rig: string, device: string): Promise<DeviceConfig | null> {
-  const client = await mqtt.connectAsync(`mqtt://127.0.0.1:${embedded.port}`, { clean: true, reconnectPeriod: 0 });
-  try {
-    const received = new Promise<DeviceConfig | null>((resolve) => {
-      const timer = setTimeout(() => resolve(null), 500);
-      client.on("message", (_topic, payload, packet) => {
-        if (!packet.retain) return;
-        clearTimeout(timer);
-        resolve(payload.length ? deviceConfigSchema.parse(JSON.parse(payload.toString("utf8"))) : null);
-      });
-    });
-    await client.subscribeAsync(configTopic(rig, device), { qos: 1 });
-    return await received;
-  } finally {
-    await client.endAsync();
-  }
-}
+const retainedConfig = (rig: string, device: string) => retainedDocument(`mqtt://127.0.0.1:${embedded.port}`, rig, device);
 
 describe("promotion refusals", () => {
   it("refuses a revision that is not approved (409), a sample-rate mismatch and an unstable revision (422)", async () => {

@@ -11,7 +11,7 @@ import { findUserByEmail } from "@/db/queries/users";
 import { seedDemo } from "@/db/seed";
 import { seedDemoDeviceCredentials } from "@/db/seed-device-credentials";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
-import type { ServerMessage } from "@/lib/protocol";
+import { configTopic, deviceConfigSchema, type DeviceConfig, type ServerMessage } from "@/lib/protocol";
 import { systemClock, type Logger } from "@/server/clock";
 import { startSidecar, type Sidecar, type SidecarOptions } from "@/server/sidecar";
 import { freshDb } from "./support/fresh-db";
@@ -174,4 +174,23 @@ export async function mosquitto(
   };
   await start();
   return { port, url: `mqtt://127.0.0.1:${port}`, start, stop };
+}
+
+/** What a fresh MQTT subscriber to a device's config topic receives: the retained document, or null (after 500 ms). */
+export async function retainedDocument(url: string, rig: string, device: string): Promise<DeviceConfig | null> {
+  const client = await mqtt.connectAsync(url, { clean: true, reconnectPeriod: 0 });
+  try {
+    const received = new Promise<DeviceConfig | null>((resolve) => {
+      const timer = setTimeout(() => resolve(null), 500);
+      client.on("message", (_topic, payload, packet) => {
+        if (!packet.retain) return;
+        clearTimeout(timer);
+        resolve(payload.length ? deviceConfigSchema.parse(JSON.parse(payload.toString("utf8"))) : null);
+      });
+    });
+    await client.subscribeAsync(configTopic(rig, device), { qos: 1 });
+    return await received;
+  } finally {
+    await client.endAsync();
+  }
 }

@@ -1,58 +1,22 @@
-import { execFileSync } from "node:child_process";
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { quantizedParts, simulateFixed, type FilterSpec, type QuantizedPart } from "@/lib/dsp";
 import { prepareExport, renderCHeader, type ExportTarget, type PreparedExport } from "@/lib/export";
 import { butter4, chainWithFir, peak, sourceFor } from "./export-support";
+import { compileAndRun, GCC, hasGcc, inputWords, scratch } from "./gcc-support";
 
 /**
  * The strongest check of the C header: compile it with gcc next to a tiny driver that runs the
  * header's own reference step over a fixed input, and compare with lib/dsp — simulateFixed
- * bit for bit (Q15, Q31), a float32 DF2T model to float tolerance (f32).
+ * bit for bit (Q15, Q31), a float32 model to float tolerance (f32); chains with an FIR stage too.
  */
-const GCC = "/usr/bin/gcc";
-const hasGcc = existsSync(GCC);
 if (!hasGcc) console.warn(`export-gcc: ${GCC} is absent, so the compile-and-run checks of the C header are skipped`);
 
-const dir = mkdtempSync(join(tmpdir(), "tw-export-gcc-"));
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
+const { dir, remove } = scratch();
+afterAll(remove);
 
-/** Deterministic input words: a 32-bit LCG (Numerical Recipes constants) at half scale, then full-scale steps. */
-function inputWords(bits: 15 | 31, n = 600): number[] {
-  let state = 12345;
-  const full = 2 ** bits;
-  const words: number[] = [];
-  for (let i = 0; i < n; i++) {
-    state = (Math.imul(state, 1664525) + 1013904223) >>> 0;
-    words.push(Math.round((state / 2 ** 32 - 0.5) * full));
-  }
-  for (let i = 0; i < 200; i++) words.push(i % 100 < 50 ? full - 1 : -full);
-  return words;
-}
-
-function compileAndRun(p: PreparedExport, inputs: string[], cType: string, printf: string, cast: string): string[] {
-  const base = join(dir, p.name);
-  writeFileSync(`${base}.h`, renderCHeader(p));
-  writeFileSync(
-    `${base}_driver.c`,
-    [
-      "#include <stdio.h>",
-      `#include "${p.name}.h"`,
-      `static const ${cType} input[] = { ${inputs.join(", ")} };`,
-      "int main(void) {",
-      `    ${cType} state[${p.name.toUpperCase()}_STATE_WORDS] = { 0 };`,
-      "    for (unsigned i = 0; i < sizeof input / sizeof input[0]; i++) {",
-      `        printf("${printf}\\n", (${cast})${p.name}_step(state, input[i]));`,
-      "    }",
-      "    return 0;",
-      "}",
-      "",
-    ].join("\n"),
-  );
-  execFileSync(GCC, ["-std=c99", "-pedantic", "-Wall", "-Wextra", "-Werror", "-O2", "-o", base, `${base}_driver.c`], { cwd: dir });
-  return execFileSync(base, { encoding: "utf8", maxBuffer: 1 << 24 }).trim().split("\n");
+/** Runs the header of a prepared export through gcc (see compileAndRun). */
+function compileAndRunExport(p: PreparedExport, inputs: string[], cType: string, printf: string, cast: string): string[] {
+  return compileAndRun(dir, p.name, renderCHeader(p), inputs, cType, printf, cast);
 }
 
 async function prepared(spec: FilterSpec, target: ExportTarget): Promise<PreparedExport> {
@@ -72,7 +36,7 @@ describe.skipIf(!hasGcc)("generated C header compiled with gcc", () => {
         const bits = target === "q15" ? 15 : 31;
         const words = inputWords(bits);
         const expected = simulateFixed(p.quantized, Float64Array.from(words, (w) => w / 2 ** bits));
-        const got = compileAndRun(p, words.map(String), target === "q15" ? "int16_t" : "int32_t", "%lld", "long long").map(Number);
+        const got = compileAndRunExport(p, words.map(String), target === "q15" ? "int16_t" : "int32_t", "%lld", "long long").map(Number);
         expect(got).toHaveLength(words.length);
         expect(got).toEqual(Array.from(expected.y, (y) => y * 2 ** bits));
         if (spec === peak && target === "q15") expect(expected.overflows).toBeGreaterThan(0);
@@ -84,7 +48,7 @@ describe.skipIf(!hasGcc)("generated C header compiled with gcc", () => {
     it(`${label}, f32: the header's step equals a float32 model, sections in DF2T and FIR stages in direct form (relative 1e-6)`, async () => {
       const p = await prepared(spec, "f32");
       const x = inputWords(15).map((w) => Math.fround(w / 2 ** 15));
-      const got = compileAndRun(p, x.map((v) => `${v.toPrecision(9)}f`), "float", "%.9g", "double").map(Number);
+      const got = compileAndRunExport(p, x.map((v) => `${v.toPrecision(9)}f`), "float", "%.9g", "double").map(Number);
       const expected = float32Chain(quantizedParts(p.quantized), x);
       expect(got).toHaveLength(x.length);
       got.forEach((g, i) => expect(Math.abs(g - expected[i])).toBeLessThanOrEqual(1e-6 * Math.max(1, Math.abs(expected[i]))));
