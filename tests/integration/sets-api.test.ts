@@ -104,3 +104,45 @@ describe("GET /api/v1/channels/{path}/production", () => {
     expect(res.status).toBe(404);
   });
 });
+
+describe("chains through the sets API", () => {
+  const notch = (centerHz: number, sampleRateHz = 1000) => ({ kind: "biquad", shape: "notch", centerHz, q: 5, sampleRateHz });
+  const chain = { kind: "chain", sampleRateHz: 1000, stages: [notch(50), notch(150), butterSpec(200)] };
+
+  it("saves a chain as revision 1 and another as revision 2; the revision holds every stage", async () => {
+    actAs(users.engineer);
+    const res = await createSet("Torque hum chain", chain);
+    expect(res.status).toBe(201);
+    const { setId, revisionId } = await res.json();
+    const rev = await lab.db.selectFrom("revisions").select(["spec", "design", "quantized"]).where("id", "=", revisionId).executeTakeFirstOrThrow();
+    expect(rev.spec).toEqual(chain);
+    expect((rev.design as { stages: unknown[] }).stages).toHaveLength(3);
+    expect((rev.quantized as { stages: { stage: number }[] }).stages.map((s) => s.stage)).toEqual([0, 1, 2]);
+    const next = { ...chain, stages: [{ ...notch(50), bypassed: true }, notch(150), butterSpec(150)] };
+    const second = await revisionsRoute.POST(
+      jsonRequest("POST", `/api/v1/sets/${setId}/revisions`, { spec: next, expectedLatestRevision: 1 }),
+      params({ id: String(setId) }),
+    );
+    expect(second.status).toBe(201);
+    const { revisionId: r2 } = await second.json();
+    const stored = await lab.db.selectFrom("revisions").select("quantized").where("id", "=", r2).executeTakeFirstOrThrow();
+    expect((stored.quantized as { stages: { stage: number }[] }).stages.map((s) => s.stage)).toEqual([1, 2]); // the bypassed stage is kept in the spec, not run
+  });
+
+  it("refuses a bad chain with 400 and the stage's path: 9 stages, a nested chain, a stage at another rate, no stages", async () => {
+    actAs(users.engineer);
+    const refusal = async (spec: unknown) => {
+      const res = await createSet("bad chain", spec);
+      expect(res.status).toBe(400);
+      return (await res.json()).error.details[0];
+    };
+    expect(await refusal({ ...chain, stages: new Array(9).fill(notch(50)) })).toEqual({ path: "spec.stages", message: "a chain holds at most 8 stages (got 9)" });
+    expect((await refusal({ ...chain, stages: [chain] })).message).toMatch(/cannot hold another chain/);
+    expect(await refusal({ ...chain, stages: [notch(50), notch(50, 2000)] })).toEqual({
+      path: "spec.stages.1.sampleRateHz",
+      message: "stage 2 is designed for 2000 Hz but the chain runs at 1000 Hz; every stage must use the chain's sample rate",
+    });
+    expect(await refusal({ ...chain, stages: [] })).toEqual({ path: "spec.stages", message: "a chain needs at least 1 stage (got 0)" });
+    expect((await createSet("chain at 2 kHz", { ...chain, sampleRateHz: 2000, stages: [notch(50, 2000)] })).status).toBe(422);
+  });
+});

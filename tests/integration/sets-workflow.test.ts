@@ -180,7 +180,7 @@ describe("server actions (a representative subset of the same rules)", () => {
     expect(await actions.promoteAction({ ok: true }, form({ revisionId, channels: [CHANNEL], confirm: "yes" }))).toMatchObject({ ok: true });
   });
 
-  it("saves a new revision from JSON, and refuses a stale one", async () => {
+  it("saves a new revision from JSON (a chain too), and refuses a stale one and a bad chain", async () => {
     const { setId } = await newRevision(users.engineer);
     const spec = JSON.stringify(butterSpec(60));
     expect(await actions.reviseAction({ ok: true }, form({ setId, expectedLatestRevision: 1, spec, notes: "lower" }))).toMatchObject({
@@ -189,6 +189,19 @@ describe("server actions (a representative subset of the same rules)", () => {
     });
     expect(await actions.reviseAction({ ok: true }, form({ setId, expectedLatestRevision: 1, spec }))).toMatchObject({ ok: false });
     expect(await actions.reviseAction({ ok: true }, form({ setId, expectedLatestRevision: 2, spec: "{" }))).toMatchObject({ ok: false });
+    const chain = { kind: "chain", sampleRateHz: 1000, stages: [{ kind: "biquad", shape: "notch", centerHz: 50, q: 5, sampleRateHz: 1000 }, butterSpec(60)] };
+    expect(await actions.reviseAction({ ok: true }, form({ setId, expectedLatestRevision: 2, spec: JSON.stringify(chain) }))).toMatchObject({
+      ok: true,
+      message: "Saved revision r3 as a draft.",
+    });
+    const r3 = await lab.db.selectFrom("revisions").select(["spec", "design"]).where("set_id", "=", setId).where("revision", "=", 3).executeTakeFirstOrThrow();
+    expect(r3.spec).toEqual(chain);
+    expect((r3.design as { stages: unknown[] }).stages).toHaveLength(2);
+    const nested = JSON.stringify({ ...chain, stages: [chain] });
+    expect(await actions.reviseAction({ ok: true }, form({ setId, expectedLatestRevision: 3, spec: nested }))).toMatchObject({
+      ok: false,
+      message: expect.stringMatching(/cannot hold another chain/),
+    });
   });
 });
 

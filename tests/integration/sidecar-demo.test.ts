@@ -4,6 +4,7 @@ import { DEMO_RIGS } from "@/lib/demo/lab";
 import { deviceConfigSchema, type UnsignedDeviceConfig } from "@/lib/protocol";
 import { signConfig } from "@/server/devices/checksum";
 import type { Sidecar } from "@/server/sidecar";
+import { humChain } from "../unit/coefficients-support";
 import { cookieFor, openSocket, seededDb, testSidecar, until } from "./sidecar-support";
 
 let store: { db: Db; close: () => Promise<void> };
@@ -65,6 +66,20 @@ describe("demo rig (authenticated like a device) and the config exchange", () =>
     expect(m.measuredAttenuationDb).toBeGreaterThan(15);
     expect(m.removedRms).toBeGreaterThan(15); // the hum's RMS is 35/√2 ≈ 25 µε
     expect(m.lagMs).toBeGreaterThanOrEqual(0);
+    engineer.ws.close();
+  }, 15_000);
+
+  it("runs a chain candidate (notch 50, notch 150, low-pass) on the live stream: the hum lines fall", async () => {
+    const engineer = await openSocket(sidecar.httpPort, await cookieFor(store.db, "engineer@tapwright.test"));
+    const channel = "hydraulic-press/env-node/frame-strain";
+    engineer.send({ type: "subscribe", channel });
+    engineer.send({ type: "candidate.add", channel, id: "hum", spec: humChain });
+    expect((await engineer.next("frame", (f) => f.channel === channel && f.traces.hum !== undefined)).traces.hum.length).toBeGreaterThan(0);
+    const metrics = await engineer.next("metrics", (m) => m.candidates.hum?.measuredAttenuationDb !== null && m.candidates.hum?.measuredAttenuationDb !== undefined);
+    const m = metrics.candidates.hum;
+    expect(m.noiseLineHz).toBeCloseTo(50, 0);
+    expect(m.predictedAttenuationDb).toBeGreaterThan(40);
+    expect(m.measuredAttenuationDb).toBeGreaterThan(15);
     engineer.ws.close();
   }, 15_000);
 

@@ -38,6 +38,18 @@ describe("WebSocket client messages", () => {
     }
   });
 
+  it("takes a chain as a candidate's spec, and refuses a bad chain naming the stage", () => {
+    const chain = { kind: "chain", sampleRateHz: 1000, stages: [{ kind: "biquad", shape: "notch", centerHz: 50, q: 5, sampleRateHz: 1000 }, spec] };
+    expect(clientMessageSchema.safeParse({ type: "candidate.add", channel: "a/b/c", id: "hum", spec: chain }).success).toBe(true);
+    const issue = (bad: unknown) => clientMessageSchema.safeParse({ type: "candidate.add", channel: "a/b/c", id: "hum", spec: bad }).error?.issues[0];
+    expect(issue({ ...chain, stages: [chain.stages[0], { ...spec, sampleRateHz: 500 }] })).toMatchObject({
+      path: ["spec", "stages", 1, "sampleRateHz"],
+      message: "stage 2 is designed for 500 Hz but the chain runs at 1000 Hz; every stage must use the chain's sample rate",
+    });
+    expect(issue({ ...chain, stages: [chain] })?.message).toMatch(/cannot hold another chain/);
+    expect(issue({ ...chain, stages: [] })?.message).toBe("a chain needs at least 1 stage (got 0)");
+  });
+
   it("refuses bad paths, ids, specs, windows and extra fields", () => {
     for (const m of [
       { type: "subscribe", channel: "a/b" },

@@ -4,6 +4,7 @@ import { designFilter, filterSignal } from "@/lib/dsp";
 import { decodeSamples, encodeSamples } from "@/lib/recordings";
 import { formatDuration } from "@/lib/recordings/format";
 import { finiteRuns, longestRun, replayThrough } from "@/lib/recordings/replay";
+import { humChain } from "./coefficients-support";
 
 describe("sample bytes", () => {
   it("round-trips any float64, NaN included, as little-endian bytes", () => {
@@ -45,6 +46,18 @@ describe("offline replay", () => {
     expect(Number.isNaN(y[3])).toBe(true);
     expect(y[4]).toBeCloseTo(5, 12);
     expect([...y.subarray(4)]).toEqual([...filterSignal(design, x.subarray(4), { initial: "step" })]);
+  });
+});
+
+describe("offline replay through a chain", () => {
+  it("runs the chain over each stretch, from the steady state of its first sample", () => {
+    const chain = designFilter(humChain);
+    const x = Float64Array.from({ length: 400 }, (_, n) => (n === 150 ? NaN : 3 + Math.sin((2 * Math.PI * 50 * n) / 1000)));
+    const y = replayThrough(chain, x);
+    expect(Number.isNaN(y[150])).toBe(true);
+    expect([...y.subarray(0, 150)]).toEqual([...filterSignal(chain, x.subarray(0, 150), { initial: "step" })]);
+    expect([...y.subarray(151)]).toEqual([...filterSignal(chain, x.subarray(151), { initial: "step" })]);
+    expect(y[151]).toBeCloseTo(x[151], 12); // settled: the chain's DC gain is 1 (notches and a Butterworth low-pass)
   });
 });
 

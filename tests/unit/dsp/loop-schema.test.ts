@@ -54,6 +54,21 @@ describe("loop model validation: bad parameters throw with the allowed range", (
     expect(loopModelSchema.safeParse({ ...base, filter }).success).toBe(true);
   });
 
+  it("takes a chain's design as the filter, and its phase costs the loop what its stages' phases add up to", () => {
+    const stage = { kind: "iir" as const, family: "butterworth" as const, response: "lowpass" as const, order: 2, cutoffHz: 200, sampleRateHz: 2000 };
+    const notch = { kind: "biquad" as const, shape: "notch" as const, centerHz: 225, q: 5, sampleRateHz: 2000 };
+    const chain = designFilter({ kind: "chain", sampleRateHz: 2000, stages: [notch, stage] });
+    expect(loopModelSchema.safeParse({ ...base, filter: chain }).success).toBe(true);
+    const withChain = stabilityMargins({ ...base, filter: chain });
+    const without = stabilityMargins(base);
+    expect(withChain.phaseMarginDeg).toBeLessThan(without.phaseMarginDeg!);
+    // A cascade's phase is the sum of its stages' phases (Oppenheim & Schafer DTSP §6.3, H = Π H_stage).
+    const at = 20;
+    expect(filterPhaseCost(chain, at).lagDeg).toBeCloseTo(filterPhaseCost(designFilter(notch), at).lagDeg + filterPhaseCost(designFilter(stage), at).lagDeg, 9);
+    const bad = { ...chain, stages: chain.stages?.map((s, i) => (i === 1 ? { ...s, sos: [[1, 0, 0, 2, 0, 0]] } : s)) };
+    expect(loopModelSchema.safeParse({ ...base, filter: bad }).success).toBe(false);
+  });
+
   it("a loop without a crossover reports null margins", () => {
     const tiny = { ...base, plant: { num: [1e-9], den: [1, 100] }, controller: { kind: "pid" as const, kp: 1, ki: 0, kd: 0, n: 10, method: "tustin" as const } };
     const m = stabilityMargins(tiny);
