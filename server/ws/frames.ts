@@ -47,11 +47,18 @@ function concat(a: PendingBlock, b: PendingBlock): PendingBlock {
   return { seq: a.seq, lastSeq: b.lastSeq, t0: a.t0, raw: a.raw.concat(b.raw), traces };
 }
 
+/** Whether a block continues the carried samples: the next sequence number, with the same of the view's filters running. */
+function continues(view: ViewState, carry: PendingBlock, block: PendingBlock): boolean {
+  if (((carry.lastSeq + 1) >>> 0) !== block.seq) return false;
+  return [...view.traceIds.keys()].every((key) => carry.traces.has(key) === block.traces.has(key));
+}
+
 /**
  * Frames for one view from this tick's blocks. Undecimated: one frame per block. Decimated: whole
- * buckets only, the remainder carried to the next tick while the sequence continues; a break in
- * the sequence flushes the remainder as a short last bucket. A frame's seq is the newest message
- * it draws on.
+ * buckets only, the remainder carried to the next tick while the sequence and the view's filters
+ * continue; a break in the sequence, or a filter of the view switched in or out (a promotion, a
+ * rollback), flushes the remainder as a short last bucket, so a new filter's trace shows from its
+ * first sample. A frame's seq is the newest message it draws on.
  */
 export function buildFrames(view: ViewState, blocks: readonly PendingBlock[]): FrameMessage[] {
   const frames: FrameMessage[] = [];
@@ -61,7 +68,7 @@ export function buildFrames(view: ViewState, blocks: readonly PendingBlock[]): F
       continue;
     }
     let work = block;
-    if (view.carry && ((view.carry.lastSeq + 1) >>> 0) === block.seq) work = concat(view.carry, block);
+    if (view.carry && continues(view, view.carry, block)) work = concat(view.carry, block);
     else if (view.carry) frames.push(pick(view, view.carry, 0, view.carry.raw.length, view.bucket));
     view.carry = null;
     const whole = Math.floor(work.raw.length / view.bucket) * view.bucket;
