@@ -33,7 +33,7 @@ afterAll(async () => {
 
 /** A config document for env-node with every channel pass-through, signed like the sidecar's. */
 function envNodeDocument(configId: string): DeviceConfig {
-  return signConfig({ v: 2, device: "hydraulic-press/env-node", configId, channels: { "frame-strain": null, "ambient-temp": null } });
+  return signConfig({ v: 3, device: "hydraulic-press/env-node", configId, channels: { "frame-strain": null, "ambient-temp": null } });
 }
 
 /** Resolves true when the subscription was granted, false when the broker refused it (SUBACK 128) or dropped the client. */
@@ -80,7 +80,7 @@ describe("acknowledgements are bound to the device's identity", () => {
     const forged = envNodeDocument("forged-1");
     const pending = sidecar.configs.send("hydraulic-press", "env-node", forged, 1500);
     await until(() => received.some((c) => c.configId === "forged-1"), 5000, "the document at the device");
-    const ack = JSON.stringify({ v: 2, configId: forged.configId, checksum: forged.checksum, status: "applied" });
+    const ack = JSON.stringify({ v: 3, configId: forged.configId, checksum: forged.checksum, status: "applied" });
     for (const spoofer of [TORQUE_NODE, MONITOR]) {
       const c = await connectDevice(sidecar.mqttUrl, spoofer);
       c.publish(ackTopic("hydraulic-press", "env-node"), ack, { qos: 0 });
@@ -92,7 +92,7 @@ describe("acknowledgements are bound to the device's identity", () => {
     const real = envNodeDocument("real-1");
     const applied = sidecar.configs.send("hydraulic-press", "env-node", real, 5000);
     await until(() => received.some((c) => c.configId === "real-1"), 5000, "the second document at the device");
-    await device.publishAsync(ackTopic("hydraulic-press", "env-node"), JSON.stringify({ v: 2, configId: real.configId, checksum: real.checksum, status: "applied" }), { qos: 1 });
+    await device.publishAsync(ackTopic("hydraulic-press", "env-node"), JSON.stringify({ v: 3, configId: real.configId, checksum: real.checksum, status: "applied" }), { qos: 1 });
     expect((await applied).status).toBe("applied");
     await device.endAsync();
   });
@@ -112,7 +112,7 @@ describe("acknowledgements are bound to the device's identity", () => {
     });
     const doc = envNodeDocument("bound-1");
     const outcome = exchange.send("hydraulic-press", "env-node", doc, 300);
-    const ack = Buffer.from(JSON.stringify({ v: 2, configId: doc.configId, checksum: doc.checksum, status: "applied" }));
+    const ack = Buffer.from(JSON.stringify({ v: 3, configId: doc.configId, checksum: doc.checksum, status: "applied" }));
     deliver(ackTopic("hydraulic-press", "env-node"), ack, { kind: "device", rig: "gearbox-endurance", device: "torque-node" });
     deliver(ackTopic("hydraulic-press", "env-node"), ack, null);
     expect((await outcome).status).toBe("timeout");
