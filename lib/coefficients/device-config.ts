@@ -33,7 +33,7 @@ export function quantizedCounts(q: QuantizedDesign): { sections: number; taps: n
 }
 
 /** Refuses a quantized design that needs more sections or FIR taps than the channel runs, with both sets of numbers. */
-export function assertFits(q: QuantizedDesign, target: Pick<DeploymentTarget, "label" | "capacity">): void {
+function assertFits(q: QuantizedDesign, target: Pick<DeploymentTarget, "label" | "capacity">): void {
   const needs = quantizedCounts(q);
   const { maxSections, maxFirTaps } = target.capacity;
   if (needs.sections <= maxSections && needs.taps <= maxFirTaps) return;

@@ -6,12 +6,12 @@ import { channelConfigSchema, fixedSectionSchema, floatSectionSchema, type Chann
  * A channel entry as deployments stored it before chains (configuration v2): one list of sections,
  * never on the wire any more but kept as it was stored, with the checksum computed over it.
  */
-export const legacyChannelConfigSchema = z.discriminatedUnion("format", [
+const legacyChannelConfigSchema = z.discriminatedUnion("format", [
   z.object({ revisionId: z.string(), sampleRateHz: z.number(), format: z.literal("f32"), sections: z.array(floatSectionSchema) }).strict(),
   z.object({ revisionId: z.string(), sampleRateHz: z.number(), format: z.literal("q15"), sections: z.array(fixedSectionSchema(15)) }).strict(),
   z.object({ revisionId: z.string(), sampleRateHz: z.number(), format: z.literal("q31"), sections: z.array(fixedSectionSchema(31)) }).strict(),
 ]);
-export type LegacyChannelConfig = z.infer<typeof legacyChannelConfigSchema>;
+type LegacyChannelConfig = z.infer<typeof legacyChannelConfigSchema>;
 
 /** A deployment's stored channel entry: the current form, or the v2 form of deployments made before chains. */
 export type StoredChannelConfig = ChannelConfig | LegacyChannelConfig;
