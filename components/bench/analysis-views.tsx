@@ -5,9 +5,22 @@ import type uPlot from "uplot";
 import { staticSource } from "@/components/charts/sources";
 import { UPlotChart, type ChartSeries } from "@/components/charts/uplot-chart";
 import { Swatch } from "@/components/ui/swatch";
-import { fixedPreview, responseCurves, sPlaneRoots, timeCurves, type ResponseCurves, type TimeCurves } from "@/lib/bench/analysis";
+import {
+  fixedPreview,
+  responseCurves,
+  sPlaneRoots,
+  stageCurves,
+  stageLevels,
+  timeCurves,
+  type ResponseCurves,
+  type StageCurves,
+  type StageLevel,
+  type TimeCurves,
+} from "@/lib/bench/analysis";
+import { STAGE_COLORS } from "@/lib/bench/colors";
 import { withUnit } from "@/lib/bench/format";
-import { freqGrid, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import { stageSummary } from "@/lib/bench/spec-text";
+import { freqGrid, specStages, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
 import { PoleZeroMap } from "./pole-zero-map";
 
 /** One filter shown in the analysis views: a candidate or the production filter. */
@@ -33,12 +46,41 @@ function safe<T>(fn: () => T): T | null {
   }
 }
 
+/** Dash of a chain's stage drawn on its own under the total (the analog prototype's is longer). */
+const STAGE_DASH = [2, 3];
+
 export function useFrequencyGrid(sampleRateHz: number): number[] {
   return useMemo(() => freqGrid(sampleRateHz, GRID_POINTS, "log"), [sampleRateHz]);
 }
 
-function useCurves(items: AnalysisItem[], freqs: number[]): (ResponseCurves | null)[] {
-  return useMemo(() => items.map((it) => safe(() => responseCurves(it.spec, it.design, freqs))), [items, freqs]);
+/** Each item's response, with each of its stages on its own when it is a chain (empty otherwise). */
+interface ItemCurves {
+  total: ResponseCurves;
+  stages: StageCurves[];
+}
+
+function useCurves(items: AnalysisItem[], freqs: number[]): (ItemCurves | null)[] {
+  return useMemo(
+    () => items.map((it) => safe(() => ({ total: responseCurves(it.spec, it.design, freqs), stages: stageCurves(it.spec, it.design, freqs) }))),
+    [items, freqs],
+  );
+}
+
+/** One series per item (solid) followed by its stages (thin, dashed, same colour), with the column each takes. */
+function withStages(items: AnalysisItem[], curves: (ItemCurves | null)[], column: (c: ResponseCurves) => number[]): { series: ChartSeries[]; cols: number[][] } {
+  const series: ChartSeries[] = [];
+  const cols: number[][] = [];
+  items.forEach((it, i) => {
+    const c = curves[i];
+    if (!c) return;
+    series.push({ label: it.name, color: it.color, unit: "" });
+    cols.push(column(c.total));
+    for (const s of c.stages) {
+      series.push({ label: `${it.name} · stage ${s.stage + 1}: ${s.summary}`, color: it.color, unit: "", dash: STAGE_DASH, width: 1 });
+      cols.push(column(s.curves));
+    }
+  });
+  return { series, cols };
 }
 
 const hzAxis = { kind: "log" as const, label: "Frequency (Hz)", unit: "Hz" };
@@ -73,47 +115,52 @@ function Chart({ title, testId, series, data, yLabel, kind = "log", height = 220
   );
 }
 
-/** Bode magnitude and phase on a log frequency axis, each digital response beside its analog prototype (dashed) so the warping shows. */
+/**
+ * Bode magnitude and phase on a log frequency axis: each digital response beside its analog prototype
+ * (long dashes) so the warping shows, and for a chain each stage on its own (short dashes) under the total.
+ */
 export function ResponseView({ items, freqs }: { items: AnalysisItem[]; freqs: number[] }) {
   const curves = useCurves(items, freqs);
   const { mag, phase, series } = useMemo(() => {
-    const series: ChartSeries[] = [];
-    const mag: (number | null)[][] = [];
-    const phase: (number | null)[][] = [];
+    const withMag = withStages(items, curves, (c) => c.magnitudeDb);
+    const withPhase = withStages(items, curves, (c) => c.phaseDeg);
+    const series = [...withMag.series];
+    const mag: (number | null)[][] = [...withMag.cols];
+    const phase: (number | null)[][] = [...withPhase.cols];
     items.forEach((it, i) => {
-      const c = curves[i];
-      if (!c) return;
-      series.push({ label: it.name, color: it.color, unit: "" });
-      mag.push(c.magnitudeDb);
-      phase.push(c.phaseDeg);
-      if (c.analogMagnitudeDb && c.analogPhaseDeg) {
-        series.push({ label: `${it.name} (analog)`, color: it.color, unit: "", dash: [5, 4], width: 1 });
-        mag.push(c.analogMagnitudeDb);
-        phase.push(c.analogPhaseDeg);
-      }
+      const c = curves[i]?.total;
+      if (!c?.analogMagnitudeDb || !c.analogPhaseDeg) return;
+      series.push({ label: `${it.name} (analog)`, color: it.color, unit: "", dash: [5, 4], width: 1 });
+      mag.push(c.analogMagnitudeDb);
+      phase.push(c.analogPhaseDeg);
     });
     return { series, mag: [freqs, ...mag] as uPlot.AlignedData, phase: [freqs, ...phase] as uPlot.AlignedData };
   }, [items, curves, freqs]);
+  const chains = curves.some((c) => (c?.stages.length ?? 0) > 0);
+  const analog = curves.some((c) => c?.total.analogMagnitudeDb);
   return (
     <div className="space-y-3">
       <Chart title="Magnitude (dB)" testId="bode-magnitude" series={series.map((s) => ({ ...s, unit: "dB" }))} data={mag} yLabel="dB" floor={MAGNITUDE_FLOOR_DB} />
       <Chart title="Phase (°)" testId="bode-phase" series={series.map((s) => ({ ...s, unit: "°" }))} data={phase} yLabel="degrees" height={180} />
-      <p className="text-xs text-slate-500">Dashed: the analog prototype (no prewarping) — where it departs from the solid line, the bilinear map has warped the frequency axis.</p>
+      {chains && <p className="text-xs text-slate-500">Short dashes: each stage of a chain on its own, in the chain&apos;s colour; the solid line is the whole chain (their product).</p>}
+      {analog && <p className="text-xs text-slate-500">Long dashes: the analog prototype (no prewarping) — where it departs from the solid line, the bilinear map has warped the frequency axis.</p>}
     </div>
   );
 }
 
-/** Group delay in samples (left axis) and ms (right axis). */
+/** Group delay in samples (left axis) and ms (right axis); for a chain each stage dashed under the total (delays add). */
 export function DelayView({ items, freqs, sampleRateHz }: { items: AnalysisItem[]; freqs: number[]; sampleRateHz: number }) {
   const curves = useCurves(items, freqs);
-  const shown = items.map((it, i) => ({ it, c: curves[i] })).filter((x): x is { it: AnalysisItem; c: ResponseCurves } => x.c !== null);
-  const data = useMemo(() => [freqs, ...shown.map((x) => x.c.groupDelaySamples)] as uPlot.AlignedData, [shown, freqs]);
+  const { series, data } = useMemo(() => {
+    const { series, cols } = withStages(items, curves, (c) => c.groupDelaySamples);
+    return { series: series.map((s) => ({ ...s, unit: "samples" })), data: [freqs, ...cols] as uPlot.AlignedData };
+  }, [items, curves, freqs]);
   const ms = (v: number) => withUnit((1000 * v) / sampleRateHz, "", 3);
   return (
     <Chart
       title="Group delay (samples, and ms on the right)"
       testId="group-delay"
-      series={shown.map((x) => ({ label: x.it.name, color: x.it.color, unit: "samples" }))}
+      series={series}
       data={data}
       yLabel="samples"
       height={260}
@@ -125,7 +172,33 @@ export function DelayView({ items, freqs, sampleRateHz }: { items: AnalysisItem[
   );
 }
 
-/** Pole-zero maps: the z-plane of every design and the s-plane of analog prototypes. */
+/** The chain among the items to break down by stage: the one chosen, else the first chain shown. */
+function useChosenChain(items: AnalysisItem[]) {
+  const [chosen, setChosen] = useState("");
+  const chains = items.filter((it) => (it.design.stages?.length ?? 0) > 1);
+  return { chains, item: chains.find((it) => it.id === chosen) ?? chains[0], setChosen };
+}
+
+/** A select of the shown filters (the fixed-point and stage views look at one at a time). */
+function FilterPicker({ items, value, onChange, label = "Filter" }: { items: AnalysisItem[]; value: string; onChange: (id: string) => void; label?: string }) {
+  return (
+    <label className="flex items-center gap-2 text-sm">
+      <span className="text-slate-500">{label}</span>
+      <select className="field w-auto py-1" value={value} onChange={(e) => onChange(e.target.value)}>
+        {items.map((it) => (
+          <option key={it.id} value={it.id}>
+            {it.name}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
+}
+
+/**
+ * Pole-zero maps: the z-plane of every design and the s-plane of analog prototypes; for a chain, a third
+ * map with each stage's poles and zeros in its own colour.
+ */
 export function PolesView({ items }: { items: AnalysisItem[] }) {
   const analog = useMemo(
     () => items.flatMap((it) => {
@@ -134,13 +207,41 @@ export function PolesView({ items }: { items: AnalysisItem[] }) {
     }),
     [items],
   );
+  const { chains, item: chain, setChosen } = useChosenChain(items);
+  const stages = chain?.design.stages ?? [];
+  const stageSets = stages.map((s, k) => ({
+    name: `Stage ${s.stage + 1}`,
+    color: STAGE_COLORS[k % STAGE_COLORS.length],
+    zeros: s.zeros,
+    poles: s.poles,
+    summary: chain?.spec ? stageSummary(specStages(chain.spec)[s.stage]) : "",
+  }));
   return (
     <div className="grid gap-4 sm:grid-cols-2">
       <PoleZeroMap plane="z" label="Pole-zero map in the z-plane" sets={items.map((it) => ({ name: it.name, color: it.color, zeros: it.design.zeros, poles: it.design.poles }))} />
       {analog.length > 0 ? (
         <PoleZeroMap plane="s" label="Pole-zero map of the analog prototypes in the s-plane" sets={analog} />
       ) : (
-        <p className="text-sm text-slate-500">No analog prototype: the s-plane map appears for IIR designs and analog H(s).</p>
+        <p className="text-sm text-slate-500">No analog prototype: the s-plane map appears for single IIR designs and analog H(s).</p>
+      )}
+      {chain && (
+        <div className="space-y-2 sm:col-span-2">
+          <h4 className="text-sm font-medium">Poles and zeros by stage</h4>
+          <FilterPicker items={chains} value={chain.id} onChange={setChosen} label="Chain" />
+          <div className="grid items-start gap-4 sm:grid-cols-2">
+            <PoleZeroMap plane="z" label={`Pole-zero map of the stages of ${chain.name}`} sets={stageSets} testId="pz-stages" />
+            <ul className="space-y-1 text-xs" aria-label={`Stages of ${chain.name}`}>
+              {stageSets.map((s) => (
+                <li key={s.name} className="flex items-start gap-1.5">
+                  <Swatch color={s.color} />
+                  <span>
+                    <span className="font-medium">{s.name}</span> {s.summary}
+                  </span>
+                </li>
+              ))}
+            </ul>
+          </div>
+        </div>
       )}
     </div>
   );
@@ -198,15 +299,18 @@ export function StepView({ items }: { items: AnalysisItem[] }) {
 
 const FORMAT_COLORS: Record<QuantFormat, string> = { f32: "#56b4e9", q31: "#009e73", q15: "#f0e442" };
 
-/** The float64 magnitude with f32, Q31 and Q15 quantizations overlaid; stability and largest deviation per format. */
+/**
+ * The float64 magnitude with f32, Q31 and Q15 quantizations overlaid; stability and largest deviation per
+ * format; for a chain, the headroom at each stage's output in the device's format.
+ */
 export function FixedView({ items, freqs, deviceFormat }: { items: AnalysisItem[]; freqs: number[]; deviceFormat: QuantFormat }) {
   const [chosen, setChosen] = useState<string>("");
   const item = items.find((it) => it.id === chosen) ?? items[0];
   const result = useMemo(() => {
     if (!item) return null;
     const float = safe(() => responseCurves(null, item.design, freqs));
-    return { float, formats: fixedPreview(item.design, freqs) };
-  }, [item, freqs]);
+    return { float, formats: fixedPreview(item.design, freqs), levels: safe(() => stageLevels(item.spec, item.design, deviceFormat)) };
+  }, [item, freqs, deviceFormat]);
   if (!item || !result) return null;
   const series: ChartSeries[] = [{ label: "float64", color: "#e2e8f0", unit: "dB", width: 2 }];
   const cols: (number | null)[][] = [result.float?.magnitudeDb ?? freqs.map(() => null)];
@@ -217,16 +321,7 @@ export function FixedView({ items, freqs, deviceFormat }: { items: AnalysisItem[
   }
   return (
     <div className="space-y-3">
-      <label className="flex items-center gap-2 text-sm">
-        <span className="text-slate-500">Filter</span>
-        <select className="field w-auto py-1" value={item.id} onChange={(e) => setChosen(e.target.value)}>
-          {items.map((it) => (
-            <option key={it.id} value={it.id}>
-              {it.name}
-            </option>
-          ))}
-        </select>
-      </label>
+      <FilterPicker items={items} value={item.id} onChange={setChosen} />
       <Chart title={`${item.name}: magnitude quantized vs float64 (dB)`} testId="fixed-point" series={series} data={[freqs, ...cols] as uPlot.AlignedData} yLabel="dB" floor={MAGNITUDE_FLOOR_DB} />
       <table className="num w-full text-xs">
         <thead className="text-left text-slate-500">
@@ -249,6 +344,50 @@ export function FixedView({ items, freqs, deviceFormat }: { items: AnalysisItem[
           ))}
         </tbody>
       </table>
+      {result.levels && result.levels.length > 0 && <StageHeadroomTable levels={result.levels} format={deviceFormat} />}
+    </div>
+  );
+}
+
+/** Each stage's output level for a full-scale input, with the stages a worst-case input can saturate flagged. */
+function StageHeadroomTable({ levels, format }: { levels: StageLevel[]; format: QuantFormat }) {
+  const tight = levels.filter((l) => l.mayOverflow);
+  return (
+    <div className="space-y-2">
+      <h4 className="text-sm font-medium">Headroom after each stage ({format.toUpperCase()}, this device)</h4>
+      <table className="num w-full text-xs" data-testid="stage-headroom">
+        <thead className="text-left text-slate-500">
+          <tr>
+            <th className="py-1 font-medium">Stage</th>
+            <th className="font-medium" title="Peak gain up to this stage's output: the level a full-scale sine reaches at the worst frequency">
+              Full-scale sine
+            </th>
+            <th className="font-medium" title="Sum of |h[n]| up to this stage's output: the bound for the worst full-scale input">
+              Worst-case input
+            </th>
+          </tr>
+        </thead>
+        <tbody>
+          {levels.map((l) => (
+            <tr key={l.stage} data-stage={l.stage} data-overflow={l.mayOverflow} className="border-t border-slate-200 dark:border-slate-800">
+              <td className="py-1 font-sans">
+                {l.stage + 1}. {l.summary}
+              </td>
+              <td>{withUnit(l.sinePeakDb, "dB")}</td>
+              <td className={l.mayOverflow ? "font-semibold text-red-700 dark:text-red-300" : ""}>
+                {l.mayOverflow ? "+" : ""}
+                {withUnit(l.worstCaseDb, "dB")}
+                {l.mayOverflow && <span className="ml-1 font-sans font-normal">can saturate</span>}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <p className="text-xs text-slate-500">
+        The gain is spread over the stages so that a full-scale sine never exceeds full scale at any stage&apos;s output (0 dB). The worst-case column bounds any full-scale
+        input (Σ|h[n]| up to that stage).
+        {tight.length > 0 && ` Above 0 dB at stage ${tight.map((l) => l.stage + 1).join(", ")}: an input of that worst shape can saturate there, so the device would clip or wrap.`}
+      </p>
     </div>
   );
 }

@@ -4,6 +4,7 @@ import { useMemo } from "react";
 import { Swatch } from "@/components/ui/swatch";
 import { candidateFigures, type CandidateFigures } from "@/lib/bench/figures";
 import { hz, withUnit } from "@/lib/bench/format";
+import { activeStages } from "@/lib/dsp";
 import type { CandidateMetrics } from "@/lib/protocol";
 import type { AnalysisItem } from "./analysis-views";
 
@@ -24,7 +25,11 @@ const KIND: Record<string, string> = {
   ema: "EMA",
   analog: "Analog → z",
   coefficients: "Pasted",
+  chain: "Chain",
 };
+
+/** Sections and taps of a design, e.g. "2 SOS", "101 taps", "3 SOS + 101 taps" for a chain. */
+const sizeOf = (f: CandidateFigures) => [f.sections !== null ? `${f.sections} SOS` : null, f.taps !== null ? `${f.taps} taps` : null].filter(Boolean).join(" + ");
 
 function NumberInput({ id, label, value, onChange }: { id: string; label: string; value: number | null; onChange: (v: number | null) => void }) {
   return (
@@ -121,9 +126,10 @@ export function ComparisonTable({
                       </span>
                     </td>
                     <td className={td}>
-                      {it.spec ? KIND[it.spec.kind] : "—"} · {f.order}
+                      {it.spec ? KIND[it.spec.kind] : "—"}
+                      {it.spec?.kind === "chain" && ` of ${activeStages(it.spec).length}`} · {f.order}
                     </td>
-                    <td className={td}>{f.sections !== null ? `${f.sections} SOS` : `${f.taps} taps`}</td>
+                    <td className={td}>{sizeOf(f)}</td>
                     <td className={td}>{f.cutoffHz.length ? f.cutoffHz.map((c) => hz(c, 4)).join(", ") : "—"}</td>
                     <td className={td}>{withUnit(f.attenuationAtNoiseDb, "dB")}</td>
                     <td className={td}>

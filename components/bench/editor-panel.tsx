@@ -1,27 +1,27 @@
 "use client";
 
-import { useState, type ReactNode } from "react";
-import { Segmented } from "@/components/ui/segmented";
+import type { ReactNode } from "react";
 import { Swatch } from "@/components/ui/swatch";
 import { candidateColor, candidateName, type Candidate } from "@/lib/bench/candidates";
 import type { Caution } from "@/lib/bench/cautions";
-import { defaultSpec } from "@/lib/bench/spec-defaults";
 import { specSummary } from "@/lib/bench/spec-text";
 import type { FilterSpec } from "@/lib/dsp";
 import { CautionsList } from "./cautions-list";
-import { KindSelect } from "./kind-select";
-import { RequirementForm } from "./requirement-form";
 import { SavePanel } from "./save-panel";
-import { SpecForm } from "./spec-form";
+import { StageList } from "./stage-list";
 import type { CandidateList } from "./use-candidates";
 
+/** Longest set name the save form suggests (the API takes 120 characters). */
+const NAME_LENGTH = 120;
+
 /**
- * The candidate editor in a side panel: the design kind, then its fields (or, for IIR, a requirement
- * with an estimated order); every valid edit re-plots at once and goes to the stream.
+ * The candidate editor in a side panel: the candidate's chain of stages, each with its design form;
+ * every valid edit re-plots at once and goes to the stream.
  */
 export function EditorPanel({
   candidate,
   seedVersion,
+  seedNote,
   designError,
   cautions,
   onSpec,
@@ -29,17 +29,16 @@ export function EditorPanel({
   save,
 }: {
   candidate: Candidate;
-  /** Bumped when the spec is changed from outside the form (a seeded peak), so the form starts afresh. */
+  /** Bumped when the spec is changed from outside the form (a spectrum click), so the open form starts afresh. */
   seedVersion: number;
+  /** What the last spectrum click could not do, in plain words. */
+  seedNote: string | null;
   designError: string | null;
   cautions: Caution[];
   onSpec: (spec: FilterSpec) => void;
   onClose: () => void;
   save: ReactNode;
 }) {
-  const fs = candidate.spec.sampleRateHz;
-  const [mode, setMode] = useState<"order" | "requirement">("order");
-  const kind = candidate.spec.kind;
   return (
     <aside
       aria-label="Candidate editor"
@@ -53,41 +52,23 @@ export function EditorPanel({
         </button>
       </header>
       <div className="flex-1 space-y-4 overflow-y-auto px-4 py-4">
-        <KindSelect
-          id="spec-kind"
-          label="Kind of filter"
-          value={kind}
-          onChange={(k) => {
-            setMode("order");
-            onSpec(defaultSpec(k, fs));
-          }}
-        />
-        {kind === "iir" && (
-          <Segmented
-            label="How to set the order"
-            value={mode}
-            onChange={setMode}
-            options={[
-              { value: "order", label: "Set the order" },
-              { value: "requirement", label: "From a requirement" },
-            ]}
-          />
-        )}
-        {kind === "iir" && mode === "requirement" ? (
-          <RequirementForm key={`${candidate.id}-req`} sampleRateHz={fs} onValid={onSpec} />
-        ) : (
-          <SpecForm key={`${candidate.id}-${kind}-${seedVersion}-${mode}`} initial={candidate.spec} onValid={onSpec} />
-        )}
-        {designError && (
-          <p role="alert" className="rounded-md border border-fault/50 bg-red-50 px-3 py-2 text-sm text-red-900 dark:bg-red-950/40 dark:text-red-200">
-            The design failed: {designError}
+        {seedNote && (
+          <p role="status" className="rounded-md bg-slate-100 px-3 py-2 text-sm dark:bg-slate-800">
+            From the spectrum: {seedNote}
           </p>
         )}
+        <StageList key={candidate.id} spec={candidate.spec} onSpec={onSpec} designError={designError} resetKey={seedVersion} />
         <CautionsList cautions={cautions} />
         {save}
       </div>
     </aside>
   );
+}
+
+/** A set name from the channel and the candidate's summary, cut to the length the API takes. */
+function suggestedName(channelName: string, spec: FilterSpec): string {
+  const name = `${channelName} · ${specSummary(spec)}`;
+  return name.length <= NAME_LENGTH ? name : `${name.slice(0, NAME_LENGTH - 1)}…`;
 }
 
 /** The editor of the candidate being edited in `list`, saving to the given channel; nothing when none is. */
@@ -98,11 +79,12 @@ export function CandidateEditor({ list, channelPath, channelName }: { list: Cand
     <EditorPanel
       candidate={editing}
       seedVersion={list.seedVersion}
+      seedNote={list.seedNote}
       designError={editingDesign?.error ?? null}
       cautions={list.cautions.get(editing.id) ?? []}
       onSpec={(spec) => list.updateSpec(editing.id, spec)}
       onClose={() => list.setEditingId(null)}
-      save={<SavePanel key={editing.id} channel={channelPath} spec={editingDesign?.design ? editing.spec : null} suggestedName={`${channelName} · ${specSummary(editing.spec)}`} />}
+      save={<SavePanel key={editing.id} channel={channelPath} spec={editingDesign?.design ? editing.spec : null} suggestedName={suggestedName(channelName, editing.spec)} />}
     />
   );
 }

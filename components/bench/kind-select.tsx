@@ -1,8 +1,8 @@
 import { KIND_LABELS, SPEC_KINDS, type SpecKind } from "@/lib/bench/spec-defaults";
-import type { FilterSpec } from "@/lib/dsp";
+import type { StageSpec } from "@/lib/dsp";
 
-/** A labelled select of the filter kinds the forms can edit. */
-export function KindSelect({ id, label, value, onChange }: { id: string; label: string; value: FilterSpec["kind"]; onChange: (kind: SpecKind) => void }) {
+/** A labelled select of the stage kinds the forms can edit. */
+export function KindSelect({ id, label, value, onChange }: { id: string; label: string; value: StageSpec["kind"]; onChange: (kind: SpecKind) => void }) {
   return (
     <div>
       <label htmlFor={id} className="label">

@@ -26,7 +26,7 @@ const PAD = 28;
  * A pole-zero map as SVG: × for poles, ○ for zeros, one colour per filter. The z-plane shows the unit
  * circle and spans at least ±1.25; the s-plane (rad/s) fits its roots and marks the imaginary axis.
  */
-export function PoleZeroMap({ sets, plane, label }: { sets: RootSet[]; plane: "z" | "s"; label: string }) {
+export function PoleZeroMap({ sets, plane, label, testId = `pz-${plane}` }: { sets: RootSet[]; plane: "z" | "s"; label: string; testId?: string }) {
   const all = sets.flatMap((s) => [...s.zeros, ...s.poles]).filter((r) => Number.isFinite(r[0]) && Number.isFinite(r[1]));
   const extent = Math.max(plane === "z" ? 1.25 : 1e-9, ...all.map((r) => Math.max(Math.abs(r[0]), Math.abs(r[1])) * 1.15));
   const scale = (SIZE / 2 - PAD) / extent;
@@ -35,7 +35,7 @@ export function PoleZeroMap({ sets, plane, label }: { sets: RootSet[]; plane: "z
   const m = 4.5;
   return (
     <figure className="m-0">
-      <svg viewBox={`0 0 ${SIZE} ${SIZE}`} role="img" aria-label={label} data-testid={`pz-${plane}`} className="w-full max-w-[22rem] rounded-md bg-canvas">
+      <svg viewBox={`0 0 ${SIZE} ${SIZE}`} role="img" aria-label={label} data-testid={testId} className="w-full max-w-[22rem] rounded-md bg-canvas">
         <line x1={PAD / 2} x2={SIZE - PAD / 2} y1={SIZE / 2} y2={SIZE / 2} stroke="#475569" strokeWidth={1} />
         <line x1={SIZE / 2} x2={SIZE / 2} y1={PAD / 2} y2={SIZE - PAD / 2} stroke={plane === "s" ? "#94a3b8" : "#475569"} strokeWidth={plane === "s" ? 1.5 : 1} />
         {plane === "z" && <circle cx={SIZE / 2} cy={SIZE / 2} r={scale} fill="none" stroke="#94a3b8" strokeDasharray="4 3" />}

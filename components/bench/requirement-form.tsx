@@ -3,7 +3,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useRef, useState } from "react";
 import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
-import { IIR_FAMILIES, IIR_RESPONSES, orderRequirementSchema, type FilterSpec, type OrderRequirement } from "@/lib/dsp";
+import { IIR_FAMILIES, IIR_RESPONSES, orderRequirementSchema, type OrderRequirement, type StageSpec } from "@/lib/dsp";
 import { defaultRequirement, specFromRequirement } from "@/lib/bench/requirement";
 import { FAMILY_LABELS } from "@/lib/bench/spec-defaults";
 import { hz } from "@/lib/bench/format";
@@ -23,7 +23,7 @@ function edges(response: string, current: unknown, wider: boolean): number | [nu
  * An IIR requirement (pass and stop edges, ripple, attenuation) checked by lib/dsp's orderRequirementSchema;
  * each valid requirement is turned into a design at the order estimateOrder finds.
  */
-export function RequirementForm({ sampleRateHz, onValid }: { sampleRateHz: number; onValid: (spec: FilterSpec) => void }) {
+export function RequirementForm({ sampleRateHz, onValid }: { sampleRateHz: number; onValid: (spec: StageSpec) => void }) {
   const form = useForm<OrderRequirement>({
     resolver: zodResolver(orderRequirementSchema) as unknown as Resolver<OrderRequirement>,
     mode: "onChange",
@@ -39,7 +39,6 @@ export function RequirementForm({ sampleRateHz, onValid }: { sampleRateHz: numbe
     if (!parsed.success) return setEstimate(null);
     try {
       const spec = specFromRequirement(parsed.data);
-      if (spec.kind !== "iir") return;
       const cut = typeof spec.cutoffHz === "number" ? hz(spec.cutoffHz) : `${hz(spec.cutoffHz[0])}–${hz(spec.cutoffHz[1])}`;
       setEstimate({ text: `Estimated order ${spec.order}, natural cutoff ${cut}.`, error: false });
       onValidRef.current(spec);

@@ -7,13 +7,13 @@ import { FAMILY_LABELS, METHOD_LABELS } from "@/lib/bench/spec-defaults";
 import {
   biquadShapes,
   discretizationMethods,
-  filterSpecSchema,
   firResponses,
   firWindows,
   gainShapes,
   IIR_FAMILIES,
   IIR_RESPONSES,
-  type FilterSpec,
+  stageSpecSchema,
+  type StageSpec,
 } from "@/lib/dsp";
 import { ListField, NumberField, SelectField } from "./form-fields";
 
@@ -30,16 +30,16 @@ function cutoffFor(response: string, current: unknown): number | [number, number
 }
 
 /**
- * The fields of one design kind, validated with lib/dsp's filterSpecSchema through react-hook-form; every
- * valid edit is handed to onValid at once (the charts re-plot within a frame). Errors sit beside their field.
+ * The fields of one stage's design kind, validated with lib/dsp's stageSpecSchema through react-hook-form;
+ * every valid edit is handed to onValid at once (the charts re-plot within a frame). Errors sit beside their field.
  */
-export function SpecForm({ initial, onValid }: { initial: FilterSpec; onValid: (spec: FilterSpec) => void }) {
-  const form = useForm<FilterSpec>({
-    resolver: zodResolver(filterSpecSchema) as unknown as Resolver<FilterSpec>,
+export function SpecForm({ initial, onValid }: { initial: StageSpec; onValid: (spec: StageSpec) => void }) {
+  const form = useForm<StageSpec>({
+    resolver: zodResolver(stageSpecSchema) as unknown as Resolver<StageSpec>,
     mode: "onChange",
     defaultValues: initial,
   });
-  const values = useWatch({ control: form.control }) as FilterSpec;
+  const values = useWatch({ control: form.control }) as StageSpec;
   const lastSent = useRef(JSON.stringify(initial));
   const onValidRef = useRef(onValid);
   onValidRef.current = onValid;
@@ -49,7 +49,7 @@ export function SpecForm({ initial, onValid }: { initial: FilterSpec; onValid: (
   }, [form]);
 
   useEffect(() => {
-    const parsed = filterSpecSchema.safeParse(values);
+    const parsed = stageSpecSchema.safeParse(values);
     if (!parsed.success) return;
     const text = JSON.stringify(parsed.data);
     if (text === lastSent.current) return;
@@ -62,7 +62,7 @@ export function SpecForm({ initial, onValid }: { initial: FilterSpec; onValid: (
 
   return (
     <FormProvider {...form}>
-      <form className="grid grid-cols-2 gap-3" onSubmit={(e) => e.preventDefault()} aria-label="Filter design" noValidate>
+      <form className="grid grid-cols-2 gap-3" onSubmit={(e) => e.preventDefault()} aria-label="Stage design" noValidate>
         {values.kind === "iir" && (
           <>
             <SelectField name="family" label="Family" options={opts(IIR_FAMILIES, FAMILY_LABELS)} />

@@ -7,9 +7,9 @@ import { staticSource } from "@/components/charts/sources";
 import { Swatch } from "@/components/ui/swatch";
 import { hz } from "@/lib/bench/format";
 import type { LiveStore } from "@/lib/bench/live-store";
-import { liveSpectrum, type LiveSpectrum } from "@/lib/bench/spectrum";
+import { levelAtDb, liveSpectrum, type LiveSpectrum } from "@/lib/bench/spectrum";
 import type { TraceInfo } from "./live-panel";
-import { PeakList } from "./peak-list";
+import { PeakList, type PeakLevels } from "./peak-list";
 
 /** Seconds of signal each spectrum is taken over, and how often it is refreshed (ms). */
 const SPECTRUM_SECONDS = 4;
@@ -79,6 +79,13 @@ export function SpectrumPanel({
   }, [computed]);
   const peaks = computed?.lead.peaks ?? [];
   const marks = peaks.map((p) => ({ x: p.freqHz, label: hz(p.freqHz, 3) }));
+  // Every trace's level at each labelled peak, so a candidate's drop below the lead trace reads as a number.
+  const levels: PeakLevels[] = computed
+    ? traces.map((t, i) => {
+        const psd = i === 0 ? computed.lead.psdDb : computed.others[i - 1];
+        return { id: t.id, label: t.label, color: t.color, levelsDb: peaks.map((p) => (psd ? levelAtDb(computed.lead.freqsHz, psd, p.freqHz) : null)) };
+      })
+    : [];
   const nearestPeak = (f: number) => {
     let best: number | null = null;
     for (const p of peaks) if (Math.abs(Math.log(p.freqHz / f)) < 0.08 && (best === null || Math.abs(p.freqHz - f) < Math.abs(best - f))) best = p.freqHz;
@@ -118,9 +125,9 @@ export function SpectrumPanel({
           {peaks.length === 0 ? (
             <p className="text-sm text-slate-500">{computed ? "No clear peaks (none 10 dB above its surroundings)." : "Estimating…"}</p>
           ) : (
-            <PeakList peaks={peaks} testId="spectrum-peaks" onSeed={onSeed} />
+            <PeakList peaks={peaks} levels={levels} testId="spectrum-peaks" onSeed={onSeed} />
           )}
-          {onSeed && <p className="mt-2 text-xs text-slate-500">Click a peak on the chart to seed a notch for the candidate being edited.</p>}
+          {onSeed && <p className="mt-2 text-xs text-slate-500">Click a peak on the chart to add a notch stage to the candidate being edited, or to start a candidate.</p>}
         </div>
       </div>
     </section>

@@ -1,7 +1,8 @@
 "use client";
 
 import { useMemo, useRef, useState } from "react";
-import { seedSpec, tryDesign, type Candidate, type Designed } from "@/lib/bench/candidates";
+import { tryDesign, type Candidate, type Designed } from "@/lib/bench/candidates";
+import { seedStage } from "@/lib/bench/chain-edit";
 import { cautionsFor, type Caution } from "@/lib/bench/cautions";
 import { freeColorIndex } from "@/lib/bench/colors";
 import { defaultSpec } from "@/lib/bench/spec-defaults";
@@ -20,12 +21,13 @@ interface Options {
 
 /**
  * The candidate list shared by the live bench and the recording replay: candidates with their designs
- * and cautions, the one being edited, and adding, editing, hiding, removing and seeding from a peak.
+ * and cautions, the one being edited, and adding, editing, hiding, removing and seeding stages from a peak.
  */
 export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onAdd, onRemove }: Options) {
   const [candidates, setCandidates] = useState<Candidate[]>([]);
   const [editingId, setEditingId] = useState<string | null>(null);
   const [seedVersion, setSeedVersion] = useState(0);
+  const [seedResult, setSeedResult] = useState<{ id: string; note: string | null } | null>(null);
   const nextId = useRef(1);
 
   const designs = useMemo(() => new Map<string, Designed>(candidates.map((c) => [c.id, tryDesign(c.spec)])), [candidates]);
@@ -58,17 +60,21 @@ export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onA
     if (editingId === id) setEditingId(null);
   };
   const setCandidateVisible = (id: string, visible: boolean) => setCandidates((cs) => cs.map((c) => (c.id === id ? { ...c, visible } : c)));
+  /** A spectrum click: a notch or low-pass stage for the candidate being edited, or a new candidate. */
   const seed = (freqHz: number, mode: SeedMode) => {
     const editing = candidates.find((c) => c.id === editingId);
-    if (!editing) return addCandidate(seedSpec(null, freqHz, mode, fs));
-    updateSpec(editing.id, seedSpec(editing.spec, freqHz, mode, fs));
+    const edit = seedStage(editing?.spec ?? null, freqHz, mode, fs);
+    if (!editing) return addCandidate(edit.spec);
+    updateSpec(editing.id, edit.spec);
+    setSeedResult({ id: editing.id, note: edit.note });
     setSeedVersion((v) => v + 1);
   };
 
   const editing = candidates.find((c) => c.id === editingId) ?? null;
   const editingDesign = editing ? designs.get(editing.id) : undefined;
+  const seedNote = editing && seedResult?.id === editing.id ? seedResult.note : null;
 
-  return { candidates, designs, cautions, editingId, setEditingId, editing, editingDesign, seedVersion, addCandidate, updateSpec, removeCandidate, setCandidateVisible, seed };
+  return { candidates, designs, cautions, editingId, setEditingId, editing, editingDesign, seedVersion, seedNote, addCandidate, updateSpec, removeCandidate, setCandidateVisible, seed };
 }
 
 export type CandidateList = ReturnType<typeof useCandidates>;

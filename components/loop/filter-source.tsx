@@ -3,11 +3,11 @@
 import { useQuery } from "@tanstack/react-query";
 import { useEffect, useMemo, useState } from "react";
 import { fetchProduction, fetchSets } from "@/components/bench/api";
-import { KindSelect } from "@/components/bench/kind-select";
-import { SpecForm } from "@/components/bench/spec-form";
+import { StageList } from "@/components/bench/stage-list";
 import { Segmented } from "@/components/ui/segmented";
-import { defaultSpec, KIND_LABELS, type SpecKind } from "@/lib/bench/spec-defaults";
-import { designFilter, filterSpecSchema, type FilterDesign, type FilterSpec } from "@/lib/dsp";
+import { tryDesign } from "@/lib/bench/candidates";
+import { specSummary } from "@/lib/bench/spec-text";
+import { filterSpecSchema, type FilterDesign, type FilterSpec } from "@/lib/dsp";
 import { startingSpec } from "./defaults";
 
 /** The sensor filter the loop is checked with, or why there is none yet. */
@@ -26,19 +26,6 @@ async function fetchLatestRevision(setId: string): Promise<RevisionDetail | null
   if (!res.ok) throw new Error(res.status === 404 ? "That set no longer exists." : `The set could not be loaded (HTTP ${res.status}).`);
   const body = (await res.json()) as { revisions: RevisionDetail[] };
   return body.revisions[0] ?? null;
-}
-
-function describeSpec(spec: FilterSpec): string {
-  if (spec.kind === "iir") return `${spec.family} ${spec.response} · order ${spec.order} · ${Array.isArray(spec.cutoffHz) ? spec.cutoffHz.join("–") : spec.cutoffHz} Hz`;
-  return KIND_LABELS[spec.kind as SpecKind] ?? spec.kind;
-}
-
-function design(spec: FilterSpec): { design: FilterDesign } | { error: string } {
-  try {
-    return { design: designFilter(spec) };
-  } catch (err) {
-    return { error: err instanceof Error ? err.message : "the design failed" };
-  }
 }
 
 /** A spec pasted as JSON, checked by lib/dsp's filterSpecSchema. */
@@ -68,7 +55,8 @@ function JsonSpec({ sampleRateHz, onSpec }: { sampleRateHz: number; onSpec: (spe
 
 /**
  * Where the sensor filter comes from: the channel's production revision, the latest revision of a saved
- * set, or a spec typed here (form or JSON). Reports the chosen design (or why there is none) at once.
+ * set, or a filter typed here (its stages in the bench's editor, or JSON). Reports the chosen design (or
+ * why there is none) at once.
  */
 export function FilterSource({ path, sampleRateHz, onPick }: { path: string; sampleRateHz: number; onPick: (f: PickedFilter) => void }) {
   const [source, setSource] = useState<Source>("production");
@@ -76,7 +64,8 @@ export function FilterSource({ path, sampleRateHz, onPick }: { path: string; sam
   const [typing, setTyping] = useState<"form" | "json">("form");
   const [spec, setSpec] = useState<FilterSpec>(() => startingSpec(sampleRateHz));
   const [jsonState, setJsonState] = useState<{ spec: FilterSpec | null; error: string | null }>({ spec: null, error: null });
-  const [formVersion, setFormVersion] = useState(0);
+  const typed = typing === "json" ? jsonState.spec : spec;
+  const typedDesign = useMemo(() => (typed ? tryDesign(typed) : null), [typed]);
 
   const production = useQuery({ queryKey: ["production", path], queryFn: () => fetchProduction(path), enabled: source === "production" });
   const sets = useQuery({ queryKey: ["sets", path], queryFn: () => fetchSets(path), enabled: source === "set" });
@@ -97,13 +86,11 @@ export function FilterSource({ path, sampleRateHz, onPick }: { path: string; sam
       if (revision.isError) return { design: null, reason: revision.error.message };
       if (!revision.data) return { design: null, reason: "That set has no revision yet." };
       const name = sets.data?.find((s) => String(s.id) === setId)?.name ?? "set";
-      return { design: revision.data.design, label: `${name} r${revision.data.revision} · ${describeSpec(revision.data.spec)}` };
+      return { design: revision.data.design, label: `${name} r${revision.data.revision} · ${specSummary(revision.data.spec)}` };
     }
-    const typed = typing === "json" ? jsonState.spec : spec;
-    if (!typed) return { design: null, reason: `The JSON spec is refused: ${jsonState.error ?? "empty"}` };
-    const result = design(typed);
-    return "error" in result ? { design: null, reason: `The design failed: ${result.error}` } : { design: result.design, label: `Typed: ${describeSpec(typed)}` };
-  }, [source, production.isPending, production.isError, production.error, production.data, setId, revision.isPending, revision.isError, revision.error, revision.data, sets.data, typing, jsonState, spec]);
+    if (!typed || !typedDesign) return { design: null, reason: `The JSON spec is refused: ${jsonState.error ?? "empty"}` };
+    return typedDesign.design ? { design: typedDesign.design, label: `Typed: ${specSummary(typed)}` } : { design: null, reason: `The design failed: ${typedDesign.error}` };
+  }, [source, production.isPending, production.isError, production.error, production.data, setId, revision.isPending, revision.isError, revision.error, revision.data, sets.data, typed, typedDesign, jsonState.error]);
 
   useEffect(() => onPick(picked), [picked, onPick]);
 
@@ -148,18 +135,7 @@ export function FilterSource({ path, sampleRateHz, onPick }: { path: string; sam
             ]}
           />
           {typing === "form" ? (
-            <>
-              <KindSelect
-                id="loop-spec-kind"
-                label="Design"
-                value={spec.kind}
-                onChange={(kind) => {
-                  setSpec(kind === "iir" ? startingSpec(sampleRateHz) : defaultSpec(kind, sampleRateHz));
-                  setFormVersion((v) => v + 1);
-                }}
-              />
-              <SpecForm key={`${spec.kind}-${formVersion}`} initial={spec} onValid={setSpec} />
-            </>
+            <StageList spec={spec} onSpec={setSpec} designError={typedDesign?.error ?? null} />
           ) : (
             <JsonSpec sampleRateHz={sampleRateHz} onSpec={onJson} />
           )}

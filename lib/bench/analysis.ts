@@ -6,14 +6,19 @@ import {
   polyRoots,
   quantizeDesign,
   stepMetrics,
+  specStages,
   stepResponse,
   type AnalogSystem,
   type Complex,
   type FilterDesign,
   type FilterSpec,
   type QuantFormat,
+  type QuantizedDesign,
+  type QuantizedPart,
+  type StageHeadroom,
   type StepMetrics,
 } from "@/lib/dsp";
+import { stageSummary } from "./spec-text";
 
 /** The analog system behind a spec, for drawing beside the digital response: an IIR's prototype at 2π·cutoff, or an analog H(s). */
 export function analogSystemFor(spec: FilterSpec): AnalogSystem | null {
@@ -41,6 +46,26 @@ export interface ResponseCurves {
 }
 
 const toDeg = (rad: number[]) => rad.map((r) => (r * 180) / Math.PI);
+
+/** One running stage of a chain on its own: its index in the spec, its summary line and its digital response. */
+export interface StageCurves {
+  stage: number;
+  summary: string;
+  curves: ResponseCurves;
+}
+
+/**
+ * The response of each running stage of a chain alone (for the dashed breakdown under the total);
+ * empty for a single design or a chain with one running stage, where the total says it all.
+ */
+export function stageCurves(spec: FilterSpec | null, design: FilterDesign, freqsHz: number[]): StageCurves[] {
+  if (!design.stages || design.stages.length < 2) return [];
+  const specs = spec ? specStages(spec) : [];
+  return design.stages.map((s) => {
+    const stageSpec = specs[s.stage];
+    return { stage: s.stage, summary: stageSpec ? stageSummary(stageSpec) : `stage ${s.stage + 1}`, curves: responseCurves(null, s, freqsHz) };
+  });
+}
 
 /** Digital response (and the analog one where a spec has it) on a frequency grid in Hz. */
 export function responseCurves(spec: FilterSpec | null, design: FilterDesign, freqsHz: number[]): ResponseCurves {
@@ -92,15 +117,45 @@ export interface FixedPreview {
   error: string | null;
 }
 
+/** A quantized design as it runs (its rounded coefficient values), for its response after quantization. */
+function runnable(q: QuantizedDesign): FilterDesign {
+  const part = (p: QuantizedPart) => ({ sampleRateHz: q.sampleRateHz, sos: p.sos, taps: p.taps, zeros: [], poles: [], gain: 1 });
+  return q.stages ? { sampleRateHz: q.sampleRateHz, stages: q.stages.map((s) => ({ ...part(s), stage: s.stage })), zeros: [], poles: [], gain: 1 } : part(q);
+}
+
 /** Magnitude of the design quantized to each device format, with stability and the largest deviation from float64. */
 export function fixedPreview(design: FilterDesign, freqsHz: number[]): FixedPreview[] {
   return FIXED_FORMATS.map((format) => {
     try {
       const q = quantizeDesign(design, format);
-      const runnable: FilterDesign = { sampleRateHz: q.sampleRateHz, sos: q.sos, taps: q.taps, zeros: [], poles: [], gain: 1 };
-      return { format, magnitudeDb: frequencyResponse(runnable, freqsHz).magnitudeDb, stable: q.stable, maxDeviationDb: q.maxDeviationDb, error: null };
+      return { format, magnitudeDb: frequencyResponse(runnable(q), freqsHz).magnitudeDb, stable: q.stable, maxDeviationDb: q.maxDeviationDb, error: null };
     } catch (err) {
       return { format, magnitudeDb: null, stable: null, maxDeviationDb: null, error: err instanceof Error ? err.message : String(err) };
     }
+  });
+}
+
+/** The level at one running stage's output of a quantized chain, named for the engineer. */
+export interface StageLevel extends StageHeadroom {
+  /** Index of the stage in the chain spec. */
+  stage: number;
+  summary: string;
+  /** The worst full-scale input can saturate this stage (worst-case level above 0 dB). */
+  mayOverflow: boolean;
+}
+
+/**
+ * Headroom at every running stage's output of a chain quantized to `format` (quantizeDesign's L∞
+ * scaling; see lib/dsp/fixed/headroom.ts for the two bounds); empty for a single design. Throws
+ * when the design cannot be quantized in that format.
+ */
+export function stageLevels(spec: FilterSpec | null, design: FilterDesign, format: QuantFormat): StageLevel[] {
+  if (!design.stages) return [];
+  const q = quantizeDesign(design, format);
+  const specs = spec ? specStages(spec) : [];
+  return (q.headroom ?? []).map((h) => {
+    const stage = q.stages?.[h.part]?.stage ?? h.part;
+    const stageSpec = specs[stage];
+    return { ...h, stage, summary: stageSpec ? stageSummary(stageSpec) : `stage ${stage + 1}`, mayOverflow: h.worstCaseDb > 0 };
   });
 }

@@ -1,6 +1,6 @@
-import { frequencyResponse, quantizeDesign, stability, toMs, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import { frequencyResponse, quantizeDesign, stability, toMs, type FilterDesign, type FilterSpec, type QuantFormat, type QuantizedDesign } from "@/lib/dsp";
 import { hz, withUnit } from "./format";
-import { notchBand, specFrequencies } from "./spec-text";
+import { notchBands, specFrequencies } from "./spec-text";
 
 /** The closing line of every caution (product safety wording). */
 export const REVIEW_LINE =
@@ -20,7 +20,7 @@ export const CAUTION_LIMITS = {
   nyquistFraction: 0.45,
 } as const;
 
-export type CautionKind = "poles" | "loop" | "quantization" | "nyquist" | "notch";
+export type CautionKind = "poles" | "loop" | "quantization" | "headroom" | "nyquist" | "notch";
 
 export interface Caution {
   kind: CautionKind;
@@ -81,14 +81,9 @@ function loopCaution(design: FilterDesign, crossoverHz: number | null | undefine
   };
 }
 
-function quantizationCaution(design: FilterDesign, format: QuantFormat): Caution | null {
+function quantizationCaution(q: QuantizedDesign | string, format: QuantFormat): Caution | null {
   const name = format.toUpperCase();
-  let q;
-  try {
-    q = quantizeDesign(design, format);
-  } catch (err) {
-    return { kind: "quantization", title: `Not representable in ${name}`, text: err instanceof Error ? err.message : String(err) };
-  }
+  if (typeof q === "string") return { kind: "quantization", title: `Not representable in ${name}`, text: q };
   if (!q.stable) {
     return {
       kind: "quantization",
@@ -104,6 +99,27 @@ function quantizationCaution(design: FilterDesign, format: QuantFormat): Caution
   };
 }
 
+/** A chain stage whose output the worst full-scale input can push past full scale (see lib/dsp/fixed/headroom.ts). */
+function headroomCaution(q: QuantizedDesign | string): Caution | null {
+  if (typeof q === "string") return null;
+  const tight = (q.headroom ?? []).filter((h) => h.worstCaseDb > 0);
+  if (tight.length === 0) return null;
+  const where = tight.map((h) => `stage ${(q.stages?.[h.part]?.stage ?? h.part) + 1} (${withUnit(h.worstCaseDb, "dB")})`).join(", ");
+  return {
+    kind: "headroom",
+    title: "Headroom is tight inside the chain",
+    text: `A full-scale sine stays within full scale at every stage, but the worst full-scale input can exceed it after ${where}: the device's ${q.format.toUpperCase()} arithmetic would clip or wrap there. Check the input's real range against the Fixed point view.`,
+  };
+}
+
+function quantized(design: FilterDesign, format: QuantFormat): QuantizedDesign | string {
+  try {
+    return quantizeDesign(design, format);
+  } catch (err) {
+    return err instanceof Error ? err.message : String(err);
+  }
+}
+
 function nyquistCaution(spec: FilterSpec): Caution | null {
   const limit = CAUTION_LIMITS.nyquistFraction * spec.sampleRateHz;
   const high = specFrequencies(spec).filter((f) => f > limit);
@@ -116,20 +132,24 @@ function nyquistCaution(spec: FilterSpec): Caution | null {
 }
 
 function notchCaution(spec: FilterSpec): Caution | null {
-  const band = notchBand(spec);
-  if (!band) return null;
+  const bands = notchBands(spec);
+  if (bands.length === 0) return null;
+  const list = bands.map(([lo, hi]) => `${hz(lo)}–${hz(hi)}`);
+  const removed = list.length === 1 ? list[0] : `${list.slice(0, -1).join(", ")} and ${list[list.length - 1]}`;
   return {
     kind: "notch",
-    title: "A notch may hide a fault",
-    text: `This filter removes ${hz(band[0])}–${hz(band[1])}. A running-speed harmonic, a bearing or gear-mesh tone or a structural resonance in that band would vanish from the filtered signal. Keep protection and alarm paths on the raw signal.`,
+    title: bands.length === 1 ? "A notch may hide a fault" : "Notches may hide a fault",
+    text: `This filter removes ${removed}. A running-speed harmonic, a bearing or gear-mesh tone or a structural resonance in ${bands.length === 1 ? "that band" : "those bands"} would vanish from the filtered signal. Keep protection and alarm paths on the raw signal.`,
   };
 }
 
 /** Every caution that applies to a candidate, most severe kinds first. */
 export function cautionsFor(input: CautionInput): Caution[] {
+  const q = quantized(input.design, input.deviceFormat);
   const found = [
     poleCaution(input.design),
-    quantizationCaution(input.design, input.deviceFormat),
+    quantizationCaution(q, input.deviceFormat),
+    headroomCaution(q),
     loopCaution(input.design, input.crossoverHz),
     nyquistCaution(input.spec),
     notchCaution(input.spec),

@@ -14,3 +14,9 @@ export function freeColorIndex(used: readonly number[]): number | null {
   for (let i = 0; i < CANDIDATE_COLORS.length; i++) if (!used.includes(i)) return i;
   return null;
 }
+
+/**
+ * Colours of a chain's stages where one chain is drawn alone (the stage pole-zero map): the eight
+ * Okabe–Ito hues with their black, which vanishes on the dark canvas, replaced by a light grey.
+ */
+export const STAGE_COLORS = ["#56b4e9", "#e69f00", "#009e73", "#f0e442", "#cc79a7", "#3d8fd1", "#d55e00", "#e2e8f0"] as const;

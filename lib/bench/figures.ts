@@ -1,6 +1,7 @@
 import {
   attenuationDb,
   cutoffPoints,
+  designStages,
   frequencyResponse,
   stability,
   stepMetrics,
@@ -10,11 +11,11 @@ import {
 
 /** The comparison table's figures of one design; units in the names; null where undefined. */
 export interface CandidateFigures {
-  /** Filter order: pole count for SOS designs, taps − 1 for FIR. */
+  /** Filter order: pole count for SOS designs, taps − 1 for FIR, their sum over a chain's running stages. */
   order: number;
-  /** Second-order sections, or null for FIR designs. */
+  /** Second-order sections (over every running stage), or null when no stage has any. */
   sections: number | null;
-  /** FIR length, or null for SOS designs. */
+  /** FIR taps (over every running FIR stage), or null when no stage is FIR. */
   taps: number | null;
   /** −3 dB (half-power) crossings in Hz, ascending. */
   cutoffHz: number[];
@@ -45,11 +46,12 @@ export function candidateFigures(design: FilterDesign, opts: FigureOptions = {})
   const { groupDelaySamples } = frequencyResponse(design, delayAt === null ? [0] : [0, delayAt]);
   const { stable, maxPoleRadius } = stability(design);
   const step = stepMetrics(design);
-  const order = design.taps ? design.taps.length - 1 : design.poles.length;
+  const parts = designStages(design);
+  const sum = (count: (p: (typeof parts)[number]) => number) => parts.reduce((n, p) => n + count(p), 0);
   return {
-    order,
-    sections: design.sos ? design.sos.length : null,
-    taps: design.taps ? design.taps.length : null,
+    order: sum((p) => (p.taps ? p.taps.length - 1 : p.poles.length)),
+    sections: parts.some((p) => p.sos) ? sum((p) => p.sos?.length ?? 0) : null,
+    taps: parts.some((p) => p.taps) ? sum((p) => p.taps?.length ?? 0) : null,
     cutoffHz: cutoffPoints(design),
     attenuationAtNoiseDb: inBand(opts.noiseLineHz) ? attenuationDb(design, [opts.noiseLineHz])[0] : null,
     delayDcSamples: groupDelaySamples[0],

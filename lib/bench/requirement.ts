@@ -1,7 +1,7 @@
-import { estimateOrder, type FilterSpec, type OrderRequirement } from "@/lib/dsp";
+import { estimateOrder, type IirSpec, type OrderRequirement } from "@/lib/dsp";
 
 /** The IIR spec that meets a requirement at the order estimateOrder finds (ripple/attenuation kept where the family uses them). */
-export function specFromRequirement(req: OrderRequirement): FilterSpec {
+export function specFromRequirement(req: OrderRequirement): IirSpec {
   const { order, cutoffHz } = estimateOrder(req);
   const ripple = req.family === "chebyshev1" || req.family === "elliptic";
   const atten = req.family === "chebyshev2" || req.family === "elliptic";

@@ -1,4 +1,4 @@
-import type { DiscretizationMethod, FilterSpec, IirFamily } from "@/lib/dsp";
+import type { DiscretizationMethod, IirFamily, StageSpec } from "@/lib/dsp";
 
 export const SPEC_KINDS = ["iir", "biquad", "fir", "moving-average", "differentiator", "ema", "analog", "coefficients"] as const;
 export type SpecKind = (typeof SPEC_KINDS)[number];
@@ -37,7 +37,7 @@ export const METHOD_LABELS: Record<DiscretizationMethod, string> = {
 const near = (fs: number, fraction: number) => Math.max(1, Math.round(fs * fraction));
 
 /** A valid starting spec of each kind at sample rate fs (product choices, meant to be edited). */
-export function defaultSpec(kind: SpecKind, fs: number): FilterSpec {
+export function defaultSpec(kind: SpecKind, fs: number): StageSpec {
   const sampleRateHz = fs;
   switch (kind) {
     case "iir":

@@ -70,14 +70,17 @@ export function specFrequencies(spec: FilterSpec): number[] {
   }
 }
 
-/** The band a spec rejects, in Hz: a notch biquad (−3 dB width f0/Q) or a band-stop IIR/FIR; else null. */
-export function notchBand(spec: FilterSpec): [number, number] | null {
-  if (spec.kind === "biquad" && spec.shape === "notch") {
-    const half = spec.centerHz / spec.q / 2;
-    return [spec.centerHz - half, spec.centerHz + half];
-  }
-  if ((spec.kind === "iir" || spec.kind === "fir") && spec.response === "bandstop" && typeof spec.cutoffHz !== "number") {
-    return [spec.cutoffHz[0], spec.cutoffHz[1]];
-  }
-  return null;
+/**
+ * The bands a spec rejects, in Hz, one per running stage that rejects one: a notch biquad (−3 dB width
+ * f0/Q) or a band-stop IIR/FIR.
+ */
+export function notchBands(spec: FilterSpec): [number, number][] {
+  return activeStages(spec).flatMap(({ spec: s }): [number, number][] => {
+    if (s.kind === "biquad" && s.shape === "notch") {
+      const half = s.centerHz / s.q / 2;
+      return [[s.centerHz - half, s.centerHz + half]];
+    }
+    if ((s.kind === "iir" || s.kind === "fir") && s.response === "bandstop" && typeof s.cutoffHz !== "number") return [[s.cutoffHz[0], s.cutoffHz[1]]];
+    return [];
+  });
 }

@@ -24,3 +24,10 @@ export function liveSpectrum(samples: Float64Array, sampleRateHz: number, peakCo
   return { freqsHz, psdDb, peaks };
 }
 
+
+/** The level in dB of a spectrum on liveSpectrum's evenly spaced bins (0 … fs/2) at the bin nearest f Hz. */
+export function levelAtDb(freqsHz: readonly number[], psdDb: readonly number[], f: number): number | null {
+  if (freqsHz.length < 2) return null;
+  const i = Math.round((f - freqsHz[0]) / (freqsHz[1] - freqsHz[0]));
+  return i >= 0 && i < psdDb.length ? psdDb[i] : null;
+}

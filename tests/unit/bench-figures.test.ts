@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { candidateFigures } from "@/lib/bench/figures";
-import { seedSpec } from "@/lib/bench/candidates";
+import { seedStage } from "@/lib/bench/chain-edit";
 import { specSummary } from "@/lib/bench/spec-text";
 import { attenuationDb, cutoffPoints, designFilter, frequencyResponse, stability, stepMetrics, toMs, type FilterSpec } from "@/lib/dsp";
 
@@ -72,9 +72,9 @@ describe("candidate summaries and seeding", () => {
   });
 
   it("seed a notch at a peak, or move a cutoff there", () => {
-    expect(seedSpec(null, 50.04, "notch", fs)).toEqual({ kind: "biquad", shape: "notch", centerHz: 50.04, q: 30, sampleRateHz: fs });
-    expect(seedSpec({ ...notch, q: 10 }, 150, "notch", fs)).toMatchObject({ centerHz: 150, q: 10 });
-    expect(seedSpec(butter4, 80, "cutoff", fs)).toEqual({ ...butter4, cutoffHz: 80 });
-    expect(seedSpec(notch, 80, "cutoff", fs)).toEqual({ ...butter4, cutoffHz: 80 });
+    expect(seedStage(null, 50.04, "notch", fs).spec).toEqual({ kind: "biquad", shape: "notch", centerHz: 50.04, q: 30, sampleRateHz: fs });
+    expect(seedStage({ ...notch, q: 10 }, 150, "notch", fs).spec).toEqual({ kind: "chain", sampleRateHz: fs, stages: [{ ...notch, q: 10 }, { ...notch, centerHz: 150, q: 10 }] });
+    expect(seedStage(butter4, 80, "cutoff", fs).spec).toEqual({ ...butter4, cutoffHz: 80 });
+    expect(seedStage(notch, 80, "cutoff", fs).spec).toEqual({ kind: "chain", sampleRateHz: fs, stages: [notch, { ...butter4, cutoffHz: 80 }] });
   });
 });

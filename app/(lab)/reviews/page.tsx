@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { requirePageUser } from "@/app/_lib/auth";
 import { ActionForm } from "@/components/sets/action-form";
+import { RevisionStages } from "@/components/sets/revision-stages";
 import { RevisionSummary } from "@/components/sets/revision-summary";
 import { db } from "@/db";
 import { listAwaitingReview } from "@/db/queries/revisions";
@@ -31,6 +32,7 @@ export default async function ReviewsPage() {
               </h2>
               <p className="text-xs text-slate-500"><span className="num">{rev.channel}</span> · by {rev.author} · submitted <span className="num">{rev.stateChangedAt.toISOString().slice(0, 16).replace("T", " ")} UTC</span></p>
               {rev.notes && <p className="whitespace-pre-wrap text-sm">{rev.notes}</p>}
+              <RevisionStages spec={rev.spec} />
               <RevisionSummary rev={rev} />
             </div>
             {mayReview ? (

@@ -7,6 +7,7 @@ import { ActionForm } from "@/components/sets/action-form";
 import { PendingRefresher } from "@/components/sets/pending-refresher";
 import { PromoteForm } from "@/components/sets/promote-form";
 import { ReviseForm } from "@/components/sets/revise-form";
+import { RevisionStages } from "@/components/sets/revision-stages";
 import { RevisionSummary } from "@/components/sets/revision-summary";
 import { StateBadge } from "@/components/sets/state-badge";
 import { db } from "@/db";
@@ -110,7 +111,8 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                   <span className="text-xs text-slate-500">{rev.author} · <span className="num">{utc(rev.createdAt)}</span></span>
                 </div>
                 {rev.notes && <p className="whitespace-pre-wrap text-sm">{rev.notes}</p>}
-                <RevisionSummary rev={rev} />
+                <RevisionStages spec={rev.spec} />
+              <RevisionSummary rev={rev} />
                 {revReviews.map((r) => (
                   <p key={r.id} className="text-sm">
                     <StateBadge state={r.decision} /> by {r.reviewer} <span className="num text-xs text-slate-500">{utc(r.at)}</span>: {r.comment}
