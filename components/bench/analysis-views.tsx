@@ -18,7 +18,7 @@ import {
   type TimeCurves,
 } from "@/lib/bench/analysis";
 import { STAGE_COLORS } from "@/lib/bench/colors";
-import { withUnit } from "@/lib/bench/format";
+import { levelDb, withUnit } from "@/lib/bench/format";
 import { stageSummary } from "@/lib/bench/spec-text";
 import { freqGrid, specStages, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
 import { PoleZeroMap } from "./pole-zero-map";
@@ -373,11 +373,10 @@ function StageHeadroomTable({ levels, format }: { levels: StageLevel[]; format: 
               <td className="py-1 font-sans">
                 {l.stage + 1}. {l.summary}
               </td>
-              <td>{withUnit(l.sinePeakDb, "dB")}</td>
-              <td className={l.mayOverflow ? "font-semibold text-red-700 dark:text-red-300" : ""}>
-                {l.mayOverflow ? "+" : ""}
-                {withUnit(l.worstCaseDb, "dB")}
-                {l.mayOverflow && <span className="ml-1 font-sans font-normal">can saturate</span>}
+              <td>{levelDb(l.sinePeakDb)}</td>
+              <td className={l.mayOverflow ? "font-semibold text-amber-700 dark:text-amber-300" : ""}>
+                {levelDb(l.worstCaseDb)}
+                {l.mayOverflow && <span className="ml-1 font-sans font-normal">above full scale: can saturate</span>}
               </td>
             </tr>
           ))}

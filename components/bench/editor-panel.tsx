@@ -57,7 +57,7 @@ export function EditorPanel({
             From the spectrum: {seedNote}
           </p>
         )}
-        <StageList key={candidate.id} spec={candidate.spec} onSpec={onSpec} designError={designError} resetKey={seedVersion} />
+        <StageList key={`stages-${candidate.id}`} spec={candidate.spec} onSpec={onSpec} designError={designError} resetKey={seedVersion} />
         <CautionsList cautions={cautions} />
         {save}
       </div>

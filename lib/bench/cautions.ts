@@ -1,4 +1,4 @@
-import { frequencyResponse, quantizeDesign, stability, toMs, type FilterDesign, type FilterSpec, type QuantFormat, type QuantizedDesign } from "@/lib/dsp";
+import { frequencyResponse, quantizeDesign, stability, toMs, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
 import { hz, withUnit } from "./format";
 import { notchBands, specFrequencies } from "./spec-text";
 
@@ -20,7 +20,7 @@ export const CAUTION_LIMITS = {
   nyquistFraction: 0.45,
 } as const;
 
-export type CautionKind = "poles" | "loop" | "quantization" | "headroom" | "nyquist" | "notch";
+export type CautionKind = "poles" | "loop" | "quantization" | "nyquist" | "notch";
 
 export interface Caution {
   kind: CautionKind;
@@ -81,9 +81,14 @@ function loopCaution(design: FilterDesign, crossoverHz: number | null | undefine
   };
 }
 
-function quantizationCaution(q: QuantizedDesign | string, format: QuantFormat): Caution | null {
+function quantizationCaution(design: FilterDesign, format: QuantFormat): Caution | null {
   const name = format.toUpperCase();
-  if (typeof q === "string") return { kind: "quantization", title: `Not representable in ${name}`, text: q };
+  let q;
+  try {
+    q = quantizeDesign(design, format);
+  } catch (err) {
+    return { kind: "quantization", title: `Not representable in ${name}`, text: err instanceof Error ? err.message : String(err) };
+  }
   if (!q.stable) {
     return {
       kind: "quantization",
@@ -97,27 +102,6 @@ function quantizationCaution(q: QuantizedDesign | string, format: QuantFormat): 
     title: `Response moves in ${name}`,
     text: `Rounded to the device's ${name} format, the magnitude response moves by up to ${withUnit(q.maxDeviationDb, "dB")} (more than ${CAUTION_LIMITS.quantizationDb} dB): the device would not run the filter shown here.`,
   };
-}
-
-/** A chain stage whose output the worst full-scale input can push past full scale (see lib/dsp/fixed/headroom.ts). */
-function headroomCaution(q: QuantizedDesign | string): Caution | null {
-  if (typeof q === "string") return null;
-  const tight = (q.headroom ?? []).filter((h) => h.worstCaseDb > 0);
-  if (tight.length === 0) return null;
-  const where = tight.map((h) => `stage ${(q.stages?.[h.part]?.stage ?? h.part) + 1} (${withUnit(h.worstCaseDb, "dB")})`).join(", ");
-  return {
-    kind: "headroom",
-    title: "Headroom is tight inside the chain",
-    text: `A full-scale sine stays within full scale at every stage, but the worst full-scale input can exceed it after ${where}: the device's ${q.format.toUpperCase()} arithmetic would clip or wrap there. Check the input's real range against the Fixed point view.`,
-  };
-}
-
-function quantized(design: FilterDesign, format: QuantFormat): QuantizedDesign | string {
-  try {
-    return quantizeDesign(design, format);
-  } catch (err) {
-    return err instanceof Error ? err.message : String(err);
-  }
 }
 
 function nyquistCaution(spec: FilterSpec): Caution | null {
@@ -145,11 +129,9 @@ function notchCaution(spec: FilterSpec): Caution | null {
 
 /** Every caution that applies to a candidate, most severe kinds first. */
 export function cautionsFor(input: CautionInput): Caution[] {
-  const q = quantized(input.design, input.deviceFormat);
   const found = [
     poleCaution(input.design),
-    quantizationCaution(q, input.deviceFormat),
-    headroomCaution(q),
+    quantizationCaution(input.design, input.deviceFormat),
     loopCaution(input.design, input.crossoverHz),
     nyquistCaution(input.spec),
     notchCaution(input.spec),

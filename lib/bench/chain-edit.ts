@@ -212,6 +212,9 @@ export function addHarmonicNotches(spec: FilterSpec, series: HarmonicSeries): Ch
   return edit(spec, stages, stages.length - added.length, note);
 }
 
+/** A refusal as a sentence: a plain first word capitalised; a field name (cutoffHz) or an abbreviation (sos) kept as it is. */
+const sentence = (line: string) => (/^[a-z]{4,}\s/.test(line) ? line.charAt(0).toUpperCase() + line.slice(1) : line);
+
 /** A chain's design error split into the lines that belong to one stage (by index in the spec) and the rest. */
 export interface ChainIssues {
   byStage: Map<number, string[]>;
@@ -221,23 +224,23 @@ export interface ChainIssues {
 /**
  * Splits a design error (lib/dsp lines "path: message") into lines per stage, in the engineer's terms:
  * a chain's "stages.N.field: …" and "stage N+1: …" lines go to stage N without the path; a single spec's
- * lines all belong to its one stage.
+ * lines all belong to its one stage, also without the path (each message names its field).
  */
 export function chainIssues(spec: FilterSpec, error: string | null): ChainIssues {
   const byStage = new Map<number, string[]>();
   const chain: string[] = [];
   if (!error) return { byStage, chain };
-  const put = (i: number, line: string) => byStage.set(i, [...(byStage.get(i) ?? []), line]);
+  const put = (i: number, line: string) => byStage.set(i, [...(byStage.get(i) ?? []), sentence(line)]);
   for (const line of error.split("\n").filter((l) => l.trim() !== "")) {
     if (spec.kind !== "chain") {
-      put(0, line);
+      put(0, line.replace(/^[^\s:]+: /, ""));
       continue;
     }
     const path = /^stages\.(\d+)(?:\.[^:]*)?: (.*)$/.exec(line);
     const run = /^(?:quantized )?stage (\d+): (.*)$/.exec(line);
     if (path) put(Number(path[1]), path[2]);
     else if (run) put(Number(run[1]) - 1, run[2]);
-    else chain.push(line.replace(/^stages: /, ""));
+    else chain.push(sentence(line.replace(/^stages: /, "")));
   }
   if (spec.kind === "chain" && byStage.size === 0 && chain.length > 0) return locateFailingStages(spec.stages, chain);
   return { byStage, chain };
@@ -249,7 +252,7 @@ function locateFailingStages(stages: ChainStage[], lines: string[]): ChainIssues
   stages.forEach((s, i) => {
     if (s.bypassed) return;
     const alone = tryDesign(stageSpecOf(s));
-    if (alone.error) byStage.set(i, alone.error.split("\n"));
+    if (alone.error) byStage.set(i, alone.error.split("\n").map(sentence));
   });
   return { byStage, chain: byStage.size > 0 ? [] : lines };
 }

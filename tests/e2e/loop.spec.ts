@@ -13,7 +13,7 @@ test("an engineer types a Butterworth low-pass and compares the loop with and wi
   await expect(loop.heading()).toBeVisible();
 
   await loop.typeIir({ family: "butterworth", response: "lowpass", order: 2, cutoffHz: 40 });
-  await expect(loop.filterStatus()).toContainText("Typed: butterworth lowpass · order 2 · 40 Hz");
+  await expect(loop.filterStatus()).toContainText("Typed: Butterworth LP 2 · 40 Hz");
 
   for (const which of ["without", "with"] as const) {
     const row = loop.marginsRow(which);

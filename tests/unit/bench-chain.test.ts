@@ -122,15 +122,15 @@ describe("refusals beside their stage", () => {
   it("put a stage's lines under that stage and the chain's own under the list", () => {
     const bad = chain(notch(50), { ...notch(150), sampleRateHz: 500 });
     const issues = chainIssues(bad, tryDesign(bad).error);
-    expect(issues.byStage.get(1)).toEqual(["stage 2 is designed for 500 Hz but the chain runs at 1000 Hz; every stage must use the chain's sample rate"]);
+    expect(issues.byStage.get(1)).toEqual(["Stage 2 is designed for 500 Hz but the chain runs at 1000 Hz; every stage must use the chain's sample rate"]);
     expect(issues.chain).toEqual([]);
     const off = chain({ ...notch(50), bypassed: true });
-    expect(chainIssues(off, tryDesign(off).error)).toEqual({ byStage: new Map(), chain: ["every stage is bypassed; at least one stage must run"] });
+    expect(chainIssues(off, tryDesign(off).error)).toEqual({ byStage: new Map(), chain: ["Every stage is bypassed; at least one stage must run"] });
   });
 
   it("give a single spec's lines to its one stage", () => {
     const bad = notch(600);
-    expect(chainIssues(bad, tryDesign(bad).error).byStage.get(0)).toEqual(["centerHz: centerHz must satisfy 0 < f < sampleRateHz/2 = 500 Hz (got 600)"]);
+    expect(chainIssues(bad, tryDesign(bad).error).byStage.get(0)).toEqual(["centerHz must satisfy 0 < f < sampleRateHz/2 = 500 Hz (got 600)"]);
   });
 });
 

@@ -31,8 +31,53 @@ export class BenchPage {
     return (await card.getAttribute("data-trace")) ?? "";
   }
 
-  async chooseKind(label: string): Promise<void> {
-    await this.editor.getByLabel("Kind of filter").selectOption({ label });
+  /** Picks the design kind of an open stage (1-based; a new candidate has stage 1 open). */
+  async chooseKind(label: string, stage = 1): Promise<void> {
+    await this.editor.getByLabel(`Kind of stage ${stage}`).selectOption({ label });
+  }
+
+  /** The candidate's stages in the editor, in running order. */
+  stages(): Locator {
+    return this.editor.getByRole("region", { name: "Stages" }).getByRole("listitem");
+  }
+
+  /** Adds a stage of a kind at the end of the chain being edited. */
+  async addStage(kindLabel: string): Promise<void> {
+    await this.editor.getByLabel("New stage").selectOption({ label: kindLabel });
+    await this.editor.getByRole("button", { name: "Add stage" }).click();
+  }
+
+  /** The live spectrum of the raw signal, at the top of the bench. */
+  liveSpectrum(): Locator {
+    return this.page.getByRole("region", { name: "Live spectrum" });
+  }
+
+  /** The analysis area's spectrum of every shown trace. */
+  shownSpectrum(): Locator {
+    return this.page.getByRole("region", { name: "Spectrum of the shown traces" });
+  }
+
+  /** What a spectrum panel lists now: each peak's frequency and every shown trace's level there in dB. */
+  async peaks(panel: Locator): Promise<{ hz: number; levels: Record<string, number | null> }[]> {
+    return panel
+      .getByTestId("spectrum-peaks")
+      .locator("li")
+      .evaluateAll((els) => els.map((e) => ({ hz: Number(e.getAttribute("data-hz")), levels: JSON.parse(e.getAttribute("data-levels") ?? "{}") as Record<string, number | null> })));
+  }
+
+  /** Holds a spectrum panel (its peaks stop moving) once it lists a peak near each frequency, within 1 Hz. */
+  async holdWithPeaksNear(panel: Locator, freqsHz: number[]): Promise<void> {
+    const near = (listed: { hz: number }[]) => freqsHz.every((f) => listed.some((p) => Math.abs(p.hz - f) <= 1));
+    await expect.poll(async () => near(await this.peaks(panel)), { timeout: 20_000, message: `peaks near ${freqsHz.join(", ")} Hz` }).toBe(true);
+    await panel.getByRole("button", { name: "Hold" }).click();
+    expect(near(await this.peaks(panel)), "the held spectrum still shows the peaks").toBe(true);
+  }
+
+  /** Clicks "Notch" on a held panel's peak within 1 Hz of freqHz. */
+  async notchPeakNear(panel: Locator, freqHz: number): Promise<void> {
+    const peak = (await this.peaks(panel)).find((p) => Math.abs(p.hz - freqHz) <= 1);
+    expect(peak, `a peak near ${freqHz} Hz`).toBeDefined();
+    await panel.locator(`li[data-hz="${peak?.hz}"]`).getByRole("button", { name: /^Notch at/ }).click();
   }
 
   async setNumber(label: string, value: number): Promise<void> {

@@ -15,7 +15,7 @@ export class LoopCheckPage {
   /** Types a classic IIR filter into the form (source "Type a filter"). */
   async typeIir(opts: { family: string; response: string; order: number; cutoffHz: number }): Promise<void> {
     await this.page.getByRole("radio", { name: "Type a filter" }).click();
-    await this.page.getByLabel("Design", { exact: true }).selectOption("iir");
+    await this.page.getByLabel("Kind of stage 1", { exact: true }).selectOption("iir");
     await this.page.getByLabel("Family", { exact: true }).selectOption(opts.family);
     await this.page.getByLabel("Response", { exact: true }).selectOption(opts.response);
     await this.page.getByLabel("Order", { exact: true }).fill(String(opts.order));
