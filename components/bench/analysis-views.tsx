@@ -11,6 +11,7 @@ import {
   sPlaneRoots,
   stageCurves,
   stageLevels,
+  stageName,
   timeCurves,
   type ResponseCurves,
   type StageCurves,
@@ -19,8 +20,7 @@ import {
 } from "@/lib/bench/analysis";
 import { STAGE_COLORS } from "@/lib/bench/colors";
 import { levelDb, withUnit } from "@/lib/bench/format";
-import { stageSummary } from "@/lib/bench/spec-text";
-import { freqGrid, specStages, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import { freqGrid, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
 import { PoleZeroMap } from "./pole-zero-map";
 
 /** One filter shown in the analysis views: a candidate or the production filter. */
@@ -214,7 +214,7 @@ export function PolesView({ items }: { items: AnalysisItem[] }) {
     color: STAGE_COLORS[k % STAGE_COLORS.length],
     zeros: s.zeros,
     poles: s.poles,
-    summary: chain?.spec ? stageSummary(specStages(chain.spec)[s.stage]) : "",
+    summary: stageName(chain?.spec ?? null, s.stage),
   }));
   return (
     <div className="grid gap-4 sm:grid-cols-2">

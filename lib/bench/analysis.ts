@@ -47,6 +47,12 @@ export interface ResponseCurves {
 
 const toDeg = (rad: number[]) => rad.map((r) => (r * 180) / Math.PI);
 
+/** The summary line of stage i (index in the spec) of a spec, or "stage i+1" when the spec is not at hand. */
+export function stageName(spec: FilterSpec | null, i: number): string {
+  const stage = spec ? specStages(spec)[i] : undefined;
+  return stage ? stageSummary(stage) : `stage ${i + 1}`;
+}
+
 /** One running stage of a chain on its own: its index in the spec, its summary line and its digital response. */
 export interface StageCurves {
   stage: number;
@@ -60,11 +66,7 @@ export interface StageCurves {
  */
 export function stageCurves(spec: FilterSpec | null, design: FilterDesign, freqsHz: number[]): StageCurves[] {
   if (!design.stages || design.stages.length < 2) return [];
-  const specs = spec ? specStages(spec) : [];
-  return design.stages.map((s) => {
-    const stageSpec = specs[s.stage];
-    return { stage: s.stage, summary: stageSpec ? stageSummary(stageSpec) : `stage ${s.stage + 1}`, curves: responseCurves(null, s, freqsHz) };
-  });
+  return design.stages.map((s) => ({ stage: s.stage, summary: stageName(spec, s.stage), curves: responseCurves(null, s, freqsHz) }));
 }
 
 /** Digital response (and the analog one where a spec has it) on a frequency grid in Hz. */
@@ -152,10 +154,8 @@ export interface StageLevel extends StageHeadroom {
 export function stageLevels(spec: FilterSpec | null, design: FilterDesign, format: QuantFormat): StageLevel[] {
   if (!design.stages) return [];
   const q = quantizeDesign(design, format);
-  const specs = spec ? specStages(spec) : [];
   return (q.headroom ?? []).map((h) => {
     const stage = q.stages?.[h.part]?.stage ?? h.part;
-    const stageSpec = specs[stage];
-    return { ...h, stage, summary: stageSpec ? stageSummary(stageSpec) : `stage ${stage + 1}`, mayOverflow: h.worstCaseDb > 0 };
+    return { ...h, stage, summary: stageName(spec, stage), mayOverflow: h.worstCaseDb > 0 };
   });
 }

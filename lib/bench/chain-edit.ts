@@ -198,8 +198,9 @@ export function addHarmonicNotches(spec: FilterSpec, series: HarmonicSeries): Ch
   }
   // Harmonics past the stage limit: the ones a stage already notches are skipped, the rest cut.
   for (const s of stages) {
-    const n = s.kind === "biquad" && s.shape === "notch" ? Math.round(s.centerHz / f0) : 0;
-    if (n >= k && n <= total && notchAt(stages, harmonic(n)) >= 0 && !skipped.includes(harmonic(n))) skipped.push(harmonic(n));
+    if (s.kind !== "biquad" || s.shape !== "notch") continue;
+    const n = Math.round(s.centerHz / f0);
+    if (n >= k && n <= total && s.centerHz === harmonic(n) && !skipped.includes(s.centerHz)) skipped.push(s.centerHz);
   }
   const cut = total - added.length - skipped.length;
   const notes = [

@@ -101,6 +101,15 @@ describe("harmonic series of notches", () => {
     expect(e.note).toBe("Skipped 50 Hz: already notched. Added 6 of 8 notches: a chain holds at most 8 stages, so 2 harmonics were left out.");
   });
 
+  it("counts harmonics past a full chain as skipped when notched and as left out otherwise", () => {
+    const full = chain(butter4, ...[50, 100, 150, 200, 250, 300, 350].map((f) => notch(f)));
+    const e = addHarmonicNotches(full, { fundamentalHz: 50, count: null, q: 30 });
+    expect(e.spec).toBe(full);
+    expect(e.note).toBe(
+      "Skipped 50 Hz, 100 Hz, 150 Hz, 200 Hz, 250 Hz, 300 Hz, 350 Hz: already notched. Added 0 of 2 notches: a chain holds at most 8 stages, so 2 harmonics were left out.",
+    );
+  });
+
   it("says how many harmonics fit below Nyquist when more were asked for", () => {
     const e = addHarmonicNotches(notch(150), { fundamentalHz: 150, count: 5, q: 30 });
     expect(centres(e.spec)).toEqual([150, 300, 450]);
