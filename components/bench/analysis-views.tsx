@@ -309,7 +309,9 @@ export function FixedView({ items, freqs, deviceFormat }: { items: AnalysisItem[
   const result = useMemo(() => {
     if (!item) return null;
     const float = safe(() => responseCurves(null, item.design, freqs));
-    return { float, formats: fixedPreview(item.design, freqs), levels: safe(() => stageLevels(item.spec, item.design, deviceFormat)) };
+    const formats = fixedPreview(item.design, freqs);
+    const onDevice = formats.find((f) => f.format === deviceFormat)?.quantized;
+    return { float, formats, levels: onDevice ? stageLevels(item.spec, onDevice) : [] };
   }, [item, freqs, deviceFormat]);
   if (!item || !result) return null;
   const series: ChartSeries[] = [{ label: "float64", color: "#e2e8f0", unit: "dB", width: 2 }];
@@ -344,7 +346,7 @@ export function FixedView({ items, freqs, deviceFormat }: { items: AnalysisItem[
           ))}
         </tbody>
       </table>
-      {result.levels && result.levels.length > 0 && <StageHeadroomTable levels={result.levels} format={deviceFormat} />}
+      {result.levels.length > 0 && <StageHeadroomTable levels={result.levels} format={deviceFormat} />}
     </div>
   );
 }

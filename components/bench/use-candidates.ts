@@ -30,18 +30,36 @@ export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onA
   const [seedResult, setSeedResult] = useState<{ id: string; note: string | null } | null>(null);
   const nextId = useRef(1);
 
-  const designs = useMemo(() => new Map<string, Designed>(candidates.map((c) => [c.id, tryDesign(c.spec)])), [candidates]);
+  // Designs and cautions are kept per spec, so editing one candidate does not redo the others (a long
+  // chain's quantization takes a few hundred ms).
+  const designCache = useRef(new Map<string, Designed>());
+  const cautionCache = useRef(new Map<string, Caution[]>());
+  const designs = useMemo(() => {
+    const next = new Map<string, Designed>();
+    const out = new Map(candidates.map((c) => [c.id, reuse(designCache.current, next, JSON.stringify(c.spec), () => tryDesign(c.spec))]));
+    designCache.current = next;
+    return out;
+  }, [candidates]);
   const cautions = useMemo(() => {
+    const next = new Map<string, Caution[]>();
     const out = new Map<string, Caution[]>();
     for (const c of candidates) {
-      const d = designs.get(c.id);
-      if (!d?.design) continue;
-      try {
-        out.set(c.id, cautionsFor({ spec: c.spec, design: d.design, deviceFormat, crossoverHz }));
-      } catch {
-        out.set(c.id, []);
-      }
+      const design = designs.get(c.id)?.design;
+      if (!design) continue;
+      const key = `${JSON.stringify(c.spec)}|${deviceFormat}|${crossoverHz}`;
+      out.set(
+        c.id,
+        reuse(cautionCache.current, next, key, () => {
+          try {
+            return cautionsFor({ spec: c.spec, design, deviceFormat, crossoverHz });
+          } catch (err) {
+            console.error(`The cautions of ${c.id} could not be worked out`, err);
+            return [];
+          }
+        }),
+      );
     }
+    cautionCache.current = next;
     return out;
   }, [candidates, designs, deviceFormat, crossoverHz]);
 
@@ -78,3 +96,10 @@ export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onA
 }
 
 export type CandidateList = ReturnType<typeof useCandidates>;
+
+/** The value under `key` from the last round, or computed now; either way kept in `next` for the next round. */
+function reuse<T>(last: Map<string, T>, next: Map<string, T>, key: string, compute: () => T): T {
+  const value = last.get(key) ?? compute();
+  next.set(key, value);
+  return value;
+}

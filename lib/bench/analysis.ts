@@ -112,6 +112,8 @@ export const FIXED_FORMATS: QuantFormat[] = ["f32", "q31", "q15"];
 
 export interface FixedPreview {
   format: QuantFormat;
+  /** The design quantized to this format, or null when it cannot be. */
+  quantized: QuantizedDesign | null;
   magnitudeDb: number[] | null;
   stable: boolean | null;
   maxDeviationDb: number | null;
@@ -130,9 +132,9 @@ export function fixedPreview(design: FilterDesign, freqsHz: number[]): FixedPrev
   return FIXED_FORMATS.map((format) => {
     try {
       const q = quantizeDesign(design, format);
-      return { format, magnitudeDb: frequencyResponse(runnable(q), freqsHz).magnitudeDb, stable: q.stable, maxDeviationDb: q.maxDeviationDb, error: null };
+      return { format, quantized: q, magnitudeDb: frequencyResponse(runnable(q), freqsHz).magnitudeDb, stable: q.stable, maxDeviationDb: q.maxDeviationDb, error: null };
     } catch (err) {
-      return { format, magnitudeDb: null, stable: null, maxDeviationDb: null, error: err instanceof Error ? err.message : String(err) };
+      return { format, quantized: null, magnitudeDb: null, stable: null, maxDeviationDb: null, error: err instanceof Error ? err.message : String(err) };
     }
   });
 }
@@ -147,13 +149,10 @@ export interface StageLevel extends StageHeadroom {
 }
 
 /**
- * Headroom at every running stage's output of a chain quantized to `format` (quantizeDesign's L∞
- * scaling; see lib/dsp/fixed/headroom.ts for the two bounds); empty for a single design. Throws
- * when the design cannot be quantized in that format.
+ * Headroom at every running stage's output of a quantized chain (quantizeDesign's L∞ scaling; see
+ * lib/dsp/fixed/headroom.ts for the two bounds), each stage named from its spec; empty for a single design.
  */
-export function stageLevels(spec: FilterSpec | null, design: FilterDesign, format: QuantFormat): StageLevel[] {
-  if (!design.stages) return [];
-  const q = quantizeDesign(design, format);
+export function stageLevels(spec: FilterSpec | null, q: QuantizedDesign): StageLevel[] {
   return (q.headroom ?? []).map((h) => {
     const stage = q.stages?.[h.part]?.stage ?? h.part;
     return { ...h, stage, summary: stageName(spec, stage), mayOverflow: h.worstCaseDb > 0 };

@@ -59,6 +59,8 @@ test("an engineer builds a notch, notch, low-pass chain from the live spectrum, 
 });
 
 test("an engineer adds a harmonic series up to Nyquist, is told where the stage limit cut it, reorders by keyboard and bypasses a stage", async ({ page }) => {
+  // Every edit of an 8-stage chain redoes its designs, cautions (quantization) and views in the browser.
+  test.setTimeout(120_000);
   await new SignInPage(page).signInAs("engineer");
   const bench = new BenchPage(page);
   await bench.open(CHANNEL);

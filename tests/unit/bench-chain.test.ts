@@ -17,7 +17,7 @@ import {
 } from "@/lib/bench/chain-edit";
 import { candidateFigures } from "@/lib/bench/figures";
 import { specSummary } from "@/lib/bench/spec-text";
-import { designFilter, specStages, type ChainSpec, type FilterSpec, type StageSpec } from "@/lib/dsp";
+import { designFilter, quantizeDesign, specStages, type ChainSpec, type FilterSpec, type StageSpec } from "@/lib/dsp";
 
 const fs = 1000;
 const notch = (centerHz: number, q = 30): StageSpec => ({ kind: "biquad", shape: "notch", centerHz, q, sampleRateHz: fs });
@@ -164,7 +164,7 @@ describe("a chain in the comparison table, cautions and fixed-point view", () =>
 
   it("gives the headroom of each running stage by its index in the spec", () => {
     const withBypass = chain({ ...notch(50), bypassed: true }, notch(150), butter4);
-    const levels = stageLevels(withBypass, designFilter(withBypass), "q15");
+    const levels = stageLevels(withBypass, quantizeDesign(designFilter(withBypass), "q15"));
     expect(levels.map((l) => [l.stage, l.summary])).toEqual([
       [1, "Notch biquad · 150 Hz, Q 30"],
       [2, "Butterworth LP 4 · 100 Hz"],
@@ -174,6 +174,6 @@ describe("a chain in the comparison table, cautions and fixed-point view", () =>
       expect(l.sinePeakDb).toBeLessThanOrEqual(1e-9);
       expect(l.mayOverflow).toBe(l.worstCaseDb > 0);
     }
-    expect(stageLevels(butter4, designFilter(butter4), "q15")).toEqual([]);
+    expect(stageLevels(butter4, quantizeDesign(designFilter(butter4), "q15"))).toEqual([]);
   });
 });
