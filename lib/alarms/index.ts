@@ -1,0 +1,4 @@
+export * from "./rule";
+export * from "./limit-state";
+export * from "./tracker";
+export * from "./replay";

@@ -1,0 +1,72 @@
+import type { AlarmLimits, LimitSide } from "./rule";
+
+/**
+ * One trace's progress against a rule's limits. `normal`: inside the limits (armed). `pending`:
+ * beyond a limit since `since`, not yet for the minimum duration. `raised`: the alarm is up since
+ * `since`. `peak` is the most extreme value beyond the limit since the excursion began.
+ */
+export interface LimitState {
+  phase: "normal" | "pending" | "raised";
+  side: LimitSide | null;
+  since: number;
+  peak: number;
+}
+
+export type LimitTransition =
+  | { kind: "raise"; side: LimitSide; at: number; peak: number }
+  | { kind: "clear"; side: LimitSide; at: number; peak: number };
+
+export function restingState(): LimitState {
+  return { phase: "normal", side: null, since: 0, peak: 0 };
+}
+
+const beyond = (l: AlarmLimits, side: LimitSide, v: number): boolean => (side === "high" ? l.high !== null && v > l.high : l.low !== null && v < l.low);
+
+/** Back inside the limit by the deadband (hysteresis): the condition that clears a raised alarm. */
+const clearOf = (l: AlarmLimits, side: LimitSide, v: number): boolean =>
+  side === "high" ? l.high === null || v < l.high - l.deadband : l.low === null || v > l.low + l.deadband;
+
+const further = (side: LimitSide, v: number, peak: number): number => (side === "high" ? Math.max(v, peak) : Math.min(v, peak));
+
+/**
+ * Advances the state by one sample (value v at time t, ms) and returns the transition it caused,
+ * if any. An on-delay with a hysteresis band, the usual alarm logic (ISA-18.2 speaks of alarm
+ * on-delay and deadband — from memory): a pending excursion that comes back inside the limit
+ * before minDurationMs starts over; a raised alarm clears only past the deadband and then re-arms.
+ */
+export function stepLimit(s: LimitState, l: AlarmLimits, t: number, v: number): LimitTransition | null {
+  if (s.phase === "raised" && s.side) {
+    s.peak = further(s.side, v, s.peak);
+    if (!clearOf(l, s.side, v)) return null;
+    const cleared: LimitTransition = { kind: "clear", side: s.side, at: t, peak: s.peak };
+    // Armed again; a value already past the other limit starts its excursion on the next sample.
+    s.phase = "normal";
+    s.side = null;
+    return cleared;
+  }
+  if (s.phase === "pending" && s.side) {
+    if (beyond(l, s.side, v)) {
+      s.peak = further(s.side, v, s.peak);
+      return t - s.since >= l.minDurationMs ? raise(s, s.side, t) : null;
+    }
+    s.phase = "normal";
+    s.side = null;
+  }
+  return beginExcursion(s, l, t, v);
+}
+
+function beginExcursion(s: LimitState, l: AlarmLimits, t: number, v: number): LimitTransition | null {
+  const side: LimitSide | null = beyond(l, "high", v) ? "high" : beyond(l, "low", v) ? "low" : null;
+  if (!side) return null;
+  s.phase = "pending";
+  s.side = side;
+  s.since = t;
+  s.peak = v;
+  return l.minDurationMs <= 0 ? raise(s, side, t) : null;
+}
+
+function raise(s: LimitState, side: LimitSide, t: number): LimitTransition {
+  s.phase = "raised";
+  s.since = t;
+  return { kind: "raise", side, at: t, peak: s.peak };
+}
