@@ -1,5 +1,6 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
 import type { Role } from "@/lib/auth/roles";
+import type { AlarmKind, AlarmSeverity, AlarmSignal, AlarmState, LimitSide } from "@/lib/protocol";
 import type { DeploymentState, RevisionState } from "@/lib/workflow/states";
 
 type CreatedAt = ColumnType<Date, Date | string | undefined, never>;
@@ -186,6 +187,54 @@ export interface RecordingsTable {
   created_at: CreatedAt;
 }
 
+export interface AlarmRulesTable {
+  id: Generated<number>;
+  channel_id: ColumnType<number, number, never>;
+  name: string;
+  signal: AlarmSignal;
+  high: number | null;
+  low: number | null;
+  deadband: number;
+  min_duration_ms: number;
+  severity: AlarmSeverity;
+  enabled: Generated<boolean>;
+  created_by: ColumnType<number, number, never>;
+  created_at: CreatedAt;
+  updated_at: ColumnType<Date, Date | string | undefined, Date | string>;
+  deleted_at: ColumnType<Date | null, never, Date | string | null>;
+}
+
+/** Written by the sidecar (id is its uuid for the event); only the acknowledgement columns are set by people. */
+export interface AlarmEventsTable {
+  id: string;
+  rule_id: number;
+  channel_id: number;
+  kind: AlarmKind;
+  severity: AlarmSeverity;
+  signal: AlarmSignal;
+  side: LimitSide;
+  limit_value: number;
+  state: AlarmState;
+  raised_at: Date | string;
+  cleared_at: Date | string | null;
+  peak: number;
+  revision_id: number | null;
+  acknowledged_by: ColumnType<number | null, never, number>;
+  acknowledged_at: ColumnType<Date | null, never, Date | string>;
+  ack_comment: ColumnType<string | null, never, string>;
+  stored_at: CreatedAt;
+}
+
+export interface AnnotationsTable {
+  id: Generated<number>;
+  channel_id: ColumnType<number, number, never>;
+  at: ColumnType<Date, Date | string, never>;
+  end_at: ColumnType<Date | null, Date | string | null | undefined, never>;
+  text: ColumnType<string, string, never>;
+  created_by: ColumnType<number, number, never>;
+  created_at: CreatedAt;
+}
+
 export interface Database {
   users: UsersTable;
   rigs: RigsTable;
@@ -202,6 +251,9 @@ export interface Database {
   mailbox: MailboxTable;
   api_tokens: ApiTokensTable;
   recordings: RecordingsTable;
+  alarm_rules: AlarmRulesTable;
+  alarm_events: AlarmEventsTable;
+  annotations: AnnotationsTable;
 }
 
 export type User = Selectable<UsersTable>;

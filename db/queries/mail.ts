@@ -22,6 +22,12 @@ export async function leadAddresses(db: Conn): Promise<string[]> {
   return rows.map((r) => r.email);
 }
 
+/** E-mail addresses of every enabled account (critical alarms go to the whole lab). */
+export async function labAddresses(db: Conn): Promise<string[]> {
+  const rows = await db.selectFrom("users").select("email").where("disabled", "=", false).execute();
+  return rows.map((r) => r.email);
+}
+
 export async function userAddress(db: Conn, id: number): Promise<string[]> {
   const row = await db.selectFrom("users").select(["email", "disabled"]).where("id", "=", id).executeTakeFirst();
   return row && !row.disabled ? [row.email] : [];

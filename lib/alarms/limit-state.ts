@@ -1,4 +1,5 @@
-import type { AlarmLimits, LimitSide } from "./rule";
+import type { LimitSide } from "@/lib/protocol";
+import type { AlarmLimits } from "./rule";
 
 /**
  * One trace's progress against a rule's limits. `normal`: inside the limits (armed). `pending`:

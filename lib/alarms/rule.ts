@@ -1,13 +1,4 @@
-/** How loud an alarm is; critical ones are also mailed. */
-export const ALARM_SEVERITIES = ["advisory", "warning", "critical"] as const;
-export type AlarmSeverity = (typeof ALARM_SEVERITIES)[number];
-
-/** Which trace a rule watches: the production filter's output, or the raw samples. */
-export const ALARM_SIGNALS = ["filtered", "raw"] as const;
-export type AlarmSignal = (typeof ALARM_SIGNALS)[number];
-
-/** Which limit an excursion crossed. */
-export type LimitSide = "high" | "low";
+import type { AlarmSeverity, AlarmSignal } from "@/lib/protocol";
 
 /**
  * The limits of a rule, in the channel's unit. An excursion starts when the value goes above

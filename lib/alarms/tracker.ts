@@ -1,9 +1,6 @@
 import { restingState, stepLimit, type LimitState, type LimitTransition } from "./limit-state";
-import type { AlarmRule, LimitSide } from "./rule";
-
-/** `limit`: the rule's own trace crossed a limit. `masked`: the raw signal crossed a limit the filtered signal did not. */
-export const ALARM_KINDS = ["limit", "masked"] as const;
-export type AlarmKind = (typeof ALARM_KINDS)[number];
+import type { AlarmKind, LimitSide } from "@/lib/protocol";
+import type { AlarmRule } from "./rule";
 
 /** A change of one rule's alarm: raised or cleared at `at` (ms), with the peak beyond the limit so far. */
 export interface AlarmTransition {

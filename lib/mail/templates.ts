@@ -1,3 +1,6 @@
+import { trim } from "@/lib/format/units";
+import type { AlarmEventView } from "@/lib/protocol";
+
 /** The subject and plain-text body of one notification; recipients are chosen by the caller. */
 export interface MailMessage {
   kind: MailKind;
@@ -5,7 +8,7 @@ export interface MailMessage {
   body: string;
 }
 
-export type MailKind = "review_requested" | "approved" | "rejected" | "promoted" | "failed" | "rolled_back";
+export type MailKind = "review_requested" | "approved" | "rejected" | "promoted" | "failed" | "rolled_back" | "alarm";
 
 /** What every message names: the set, its revision and where to open it. */
 export interface RevisionRef {
@@ -62,5 +65,19 @@ export function deploymentMail(d: DeploymentRef, outcome: "promoted" | "failed" 
     kind: outcome,
     subject: `${what.head}: ${title(d)}${d.target === d.channel ? "" : ` → ${d.target}`}`,
     body: `Revision ${d.revision} of "${d.setName}" ${what.line}` + (detail ? `\n\n${detail}` : "") + footer(d),
+  };
+}
+
+/** A critical alarm, as it was raised. */
+export function alarmMail(e: AlarmEventView): MailMessage {
+  const signal = e.signal === "filtered" ? "production-filtered signal" : "raw signal";
+  return {
+    kind: "alarm",
+    subject: `Critical alarm: ${e.ruleName} on ${e.channel}`,
+    body:
+      `The ${signal} of ${e.channel} went ${e.side === "high" ? "above its high" : "below its low"} limit of ${trim(e.limit, 6)} ${e.unit} ` +
+      `at ${e.raisedAt.replace("T", " ").replace(/\.\d+Z$/, " UTC")} (${trim(e.peak, 5)} ${e.unit} when raised).` +
+      `\n\nOpen the Alarms page to acknowledge it: /alarms` +
+      `\n\n— Tapwright (an engineering aid; this message makes no safety claim. Follow the machine's safety documentation.)\n`,
   };
 }

@@ -5,3 +5,4 @@ export * from "./samples";
 export * from "./topics";
 export * from "./ws";
 export * from "./overview";
+export * from "./alarms";

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { filterSpecSchema } from "@/lib/dsp";
+import { alarmMessageSchema } from "./alarms";
 import { FAULT_KINDS } from "./faults";
 import { channelPathSchema } from "./topics";
 
@@ -104,6 +105,7 @@ export const serverMessageSchema = z.discriminatedUnion("type", [
       ),
     })
     .strict(),
+  alarmMessageSchema,
 ]);
 export type ServerMessage = z.infer<typeof serverMessageSchema>;
 export type CandidateMetrics = Extract<ServerMessage, { type: "metrics" }>["candidates"][string];
