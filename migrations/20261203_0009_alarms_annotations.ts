@@ -51,7 +51,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .execute();
   await db.schema.createIndex("alarm_events_channel_time").on("alarm_events").columns(["channel_id", "raised_at"]).execute();
   await db.schema.createIndex("alarm_events_time").on("alarm_events").column("raised_at").execute();
-  await sql`create index alarm_events_open on alarm_events (raised_at) where state = 'raised' or acknowledged_at is null`.execute(db);
+  await sql`create index alarm_events_open on alarm_events (raised_at) where state = 'raised' or (kind = 'limit' and acknowledged_at is null)`.execute(db);
 
   await db.schema
     .createTable("annotations")

@@ -2,6 +2,7 @@ import { readFileSync } from "node:fs";
 import { createDb } from "@/db/client";
 import { sessionOptions } from "@/lib/auth/session-config";
 import { appUrl, env } from "@/lib/env";
+import { startAlarms, type AlarmService } from "./alarms/service";
 import { consoleLogger, systemClock } from "./clock";
 import { startDeploymentWorker, type DeploymentWorker } from "./deploy/worker";
 import { smtpTransport, startOutboxSender, type OutboxSender } from "./mail/outbox-sender";
@@ -16,6 +17,7 @@ const ttl = sessionOptions(e.SESSION_SECRET, e.COOKIE_SECURE === "1").ttl ?? 60 
 let sidecar: Sidecar | undefined;
 let deployments: DeploymentWorker | undefined;
 let outbox: OutboxSender | undefined;
+let alarms: AlarmService | undefined;
 let stopping = false;
 
 async function shutdown(signal: string): Promise<void> {
@@ -26,6 +28,7 @@ async function shutdown(signal: string): Promise<void> {
   force.unref();
   try {
     await outbox?.stop();
+    await alarms?.stop();
     await deployments?.stop();
     await sidecar?.close();
     await db.destroy();
@@ -87,6 +90,9 @@ deployments = await startDeploymentWorker({
   logger: consoleLogger,
   ackTimeoutMs: e.DEPLOY_ACK_TIMEOUT_MS,
 });
+
+// Alarms: rules run on every sample after the production filter; events are stored (buffered through a database outage) and pushed.
+alarms = await startAlarms({ db, databaseUrl: e.DATABASE_URL, pipeline: sidecar.pipeline, hub: sidecar.hub, clock: systemClock, logger: consoleLogger });
 
 // Mail: notifications written to the outbox in the same transaction as their event are delivered with retries.
 outbox = startOutboxSender({

@@ -179,7 +179,11 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
       ),
     };
   }
-  const server: Server = createHttpServer({ health, overview, upgrade: (req, socket, head) => void ws.handleUpgrade(req, socket, head) });
+  const recent = (path: string) => {
+    const info = pipeline.channel(path);
+    return info ? { sampleRateHz: info.sampleRateHz, values: pipeline.recent(path, Number.MAX_SAFE_INTEGER) } : null;
+  };
+  const server: Server = createHttpServer({ health, overview, recent, upgrade: (req, socket, head) => void ws.handleUpgrade(req, socket, head) });
   const httpPort = await listen(server, opts.http.port, opts.http.host);
   if (opts.timers !== false) hub.start();
 

@@ -34,7 +34,7 @@ export interface AlarmEventFilter {
   rig?: string;
   severity?: AlarmSeverity;
   kind?: AlarmKind;
-  /** `open`: raised, or cleared and not yet acknowledged. */
+  /** `open`: raised, or a limit alarm cleared and not yet acknowledged. */
   state?: AlarmState | "open";
   /** Raised at or after / before, epoch ms. */
   from?: number;
@@ -92,7 +92,7 @@ export async function listAlarmEvents(db: Conn, f: AlarmEventFilter): Promise<Al
   if (f.rig !== undefined) q = q.where("r.key", "=", f.rig);
   if (f.severity !== undefined) q = q.where("e.severity", "=", f.severity);
   if (f.kind !== undefined) q = q.where("e.kind", "=", f.kind);
-  if (f.state === "open") q = q.where((eb) => eb.or([eb("e.state", "=", "raised"), eb("e.acknowledged_at", "is", null)]));
+  if (f.state === "open") q = q.where((eb) => eb.or([eb("e.state", "=", "raised"), eb.and([eb("e.kind", "=", "limit"), eb("e.acknowledged_at", "is", null)])]));
   else if (f.state !== undefined) q = q.where("e.state", "=", f.state);
   if (f.from !== undefined) q = q.where("e.raised_at", ">=", new Date(f.from));
   if (f.to !== undefined) q = q.where("e.raised_at", "<", new Date(f.to));

@@ -4,21 +4,27 @@ import type { AlarmLimits } from "./rule";
 /**
  * One trace's progress against a rule's limits. `normal`: inside the limits (armed). `pending`:
  * beyond a limit since `since`, not yet for the minimum duration. `raised`: the alarm is up since
- * `since`. `peak` is the most extreme value beyond the limit since the excursion began.
+ * `since`. `limit` is the value of the limit crossed; `peak` the most extreme value beyond it since
+ * the excursion began.
  */
 export interface LimitState {
   phase: "normal" | "pending" | "raised";
   side: LimitSide | null;
+  limit: number;
   since: number;
   peak: number;
 }
 
-export type LimitTransition =
-  | { kind: "raise"; side: LimitSide; at: number; peak: number }
-  | { kind: "clear"; side: LimitSide; at: number; peak: number };
+export interface LimitTransition {
+  kind: "raise" | "clear";
+  side: LimitSide;
+  limit: number;
+  at: number;
+  peak: number;
+}
 
 export function restingState(): LimitState {
-  return { phase: "normal", side: null, since: 0, peak: 0 };
+  return { phase: "normal", side: null, limit: 0, since: 0, peak: 0 };
 }
 
 const beyond = (l: AlarmLimits, side: LimitSide, v: number): boolean => (side === "high" ? l.high !== null && v > l.high : l.low !== null && v < l.low);
@@ -39,7 +45,7 @@ export function stepLimit(s: LimitState, l: AlarmLimits, t: number, v: number): 
   if (s.phase === "raised" && s.side) {
     s.peak = further(s.side, v, s.peak);
     if (!clearOf(l, s.side, v)) return null;
-    const cleared: LimitTransition = { kind: "clear", side: s.side, at: t, peak: s.peak };
+    const cleared: LimitTransition = { kind: "clear", side: s.side, limit: s.limit, at: t, peak: s.peak };
     // Armed again; a value already past the other limit starts its excursion on the next sample.
     s.phase = "normal";
     s.side = null;
@@ -57,8 +63,14 @@ export function stepLimit(s: LimitState, l: AlarmLimits, t: number, v: number): 
 }
 
 function beginExcursion(s: LimitState, l: AlarmLimits, t: number, v: number): LimitTransition | null {
-  const side: LimitSide | null = beyond(l, "high", v) ? "high" : beyond(l, "low", v) ? "low" : null;
-  if (!side) return null;
+  let side: LimitSide;
+  if (l.high !== null && v > l.high) {
+    side = "high";
+    s.limit = l.high;
+  } else if (l.low !== null && v < l.low) {
+    side = "low";
+    s.limit = l.low;
+  } else return null;
   s.phase = "pending";
   s.side = side;
   s.since = t;
@@ -69,5 +81,5 @@ function beginExcursion(s: LimitState, l: AlarmLimits, t: number, v: number): Li
 function raise(s: LimitState, side: LimitSide, t: number): LimitTransition {
   s.phase = "raised";
   s.since = t;
-  return { kind: "raise", side, at: t, peak: s.peak };
+  return { kind: "raise", side, limit: s.limit, at: t, peak: s.peak };
 }

@@ -2,12 +2,13 @@ import { restingState, stepLimit, type LimitState, type LimitTransition } from "
 import type { AlarmKind, LimitSide } from "@/lib/protocol";
 import type { AlarmRule } from "./rule";
 
-/** A change of one rule's alarm: raised or cleared at `at` (ms), with the peak beyond the limit so far. */
+/** A change of one rule's alarm: raised or cleared at `at` (ms), with the limit crossed and the peak beyond it so far. */
 export interface AlarmTransition {
   ruleId: number;
   kind: AlarmKind;
   change: "raise" | "clear";
   side: LimitSide;
+  limit: number;
   at: number;
   peak: number;
 }
@@ -22,6 +23,7 @@ export const MASK_GRACE_MS = 1000;
 /** A raw excursion of a filtered rule being watched for whether the filtered signal follows it. */
 interface MaskWatch {
   side: LimitSide;
+  limit: number;
   start: number;
   /** The raw peak beyond the limit. */
   peak: number;
@@ -79,7 +81,7 @@ export function trackBlock(tr: RuleTracker, block: SampleBlock, emit: Emit): voi
 function watchRaw(tr: RuleTracker, raw: LimitTransition | null, t: number, emit: Emit): void {
   if (raw?.kind === "raise") {
     if (tr.watch && !tr.watch.reported) decide(tr, tr.watch, t, emit, true);
-    tr.watch = { side: raw.side, start: raw.at, peak: raw.peak, filteredSeen: false, rawClearedAt: null, reported: false };
+    tr.watch = { side: raw.side, limit: raw.limit, start: raw.at, peak: raw.peak, filteredSeen: false, rawClearedAt: null, reported: false };
   }
   const w = tr.watch;
   if (!w) return;
@@ -112,12 +114,12 @@ function decide(tr: RuleTracker, w: MaskWatch, t: number, emit: Emit, final: boo
 }
 
 function masked(tr: RuleTracker, w: MaskWatch, change: "raise" | "clear", at: number): AlarmTransition {
-  return { ruleId: tr.rule.id, kind: "masked", change, side: w.side, at, peak: w.peak };
+  return { ruleId: tr.rule.id, kind: "masked", change, side: w.side, limit: w.limit, at, peak: w.peak };
 }
 
 /** Ends whatever the tracker holds raised at time t (the rule was changed, disabled or removed). */
 export function closeTracker(tr: RuleTracker, t: number, emit: Emit): void {
-  if (tr.main.phase === "raised" && tr.main.side) emit({ ruleId: tr.rule.id, kind: "limit", change: "clear", side: tr.main.side, at: t, peak: tr.main.peak });
+  if (tr.main.phase === "raised" && tr.main.side) emit(transition(tr.rule.id, "limit", { kind: "clear", side: tr.main.side, limit: tr.main.limit, at: t, peak: tr.main.peak }));
   if (tr.watch?.reported) emit(masked(tr, tr.watch, "clear", t));
   tr.main = restingState();
   tr.shadow = restingState();
@@ -128,13 +130,14 @@ export function closeTracker(tr: RuleTracker, t: number, emit: Emit): void {
  * Picks up an alarm that was raised before a restart: the tracker continues it (and clears it when
  * the signal is back inside) instead of raising it a second time.
  */
-export function resumeRaised(tr: RuleTracker, kind: AlarmKind, side: LimitSide, since: number, peak: number): void {
+export function resumeRaised(tr: RuleTracker, a: { kind: AlarmKind; side: LimitSide; limit: number; since: number; peak: number }): void {
+  const { kind, side, limit, since, peak } = a;
   if (kind === "limit") {
-    tr.main = { phase: "raised", side, since, peak };
+    tr.main = { phase: "raised", side, limit, since, peak };
     return;
   }
-  tr.shadow = { phase: "raised", side, since, peak };
-  tr.watch = { side, start: since, peak, filteredSeen: false, rawClearedAt: null, reported: true };
+  tr.shadow = { phase: "raised", side, limit, since, peak };
+  tr.watch = { side, limit, start: since, peak, filteredSeen: false, rawClearedAt: null, reported: true };
 }
 
 /** Whether a change of rule needs a fresh evaluation (anything that decides when it raises or clears). */
@@ -143,5 +146,5 @@ export function limitsChanged(a: AlarmRule, b: AlarmRule): boolean {
 }
 
 function transition(ruleId: number, kind: AlarmKind, t: LimitTransition): AlarmTransition {
-  return { ruleId, kind, change: t.kind, side: t.side, at: t.at, peak: t.peak };
+  return { ruleId, kind, change: t.kind, side: t.side, limit: t.limit, at: t.at, peak: t.peak };
 }

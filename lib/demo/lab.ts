@@ -77,9 +77,33 @@ export const DEMO_RIGS: DemoRig[] = [
           { key: "ambient-temp", name: "Ambient temperature", unit: "°C", sampleRateHz: 100, range: [-20, 60], capacity: { maxSections: 8, maxFirTaps: 64 } },
         ],
       },
+      {
+        key: "supply-node",
+        name: "Supply node",
+        coefficientFormat: "f32",
+        channels: [{ key: "supply-pressure", name: "Supply pressure", unit: "bar", sampleRateHz: 1000, range: [0, 400] }],
+      },
     ],
   },
 ];
+
+/**
+ * The demo's alarm rules, seeded once per channel: the supply pressure's high limit, which the demo
+ * rig's occasional excursion crosses on the filtered signal too, and its short pressure spikes cross
+ * only on raw once a notch + low-pass chain filters the channel.
+ */
+export const DEMO_ALARM_RULES = [
+  {
+    channel: "hydraulic-press/supply-node/supply-pressure",
+    name: "Supply pressure high",
+    signal: "filtered",
+    high: 240,
+    low: null,
+    deadband: 8,
+    minDurationMs: 0,
+    severity: "warning",
+  },
+] as const;
 
 export const DEMO_ACCOUNTS = [
   { email: "operator@tapwright.test", displayName: "Demo Operator", role: "operator" },

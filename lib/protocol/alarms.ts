@@ -25,7 +25,7 @@ const isoTime = z.iso.datetime({ offset: true });
 /**
  * One alarm as the API lists it and the WebSocket pushes it (version 1). Times are ISO 8601;
  * `peak` and `limit` are in the channel's `unit`; `revisionId` is the production filter that ran
- * when it was raised (null without one). An event stays open until it is cleared and acknowledged.
+ * when it was raised (null without one).
  */
 export const alarmEventSchema = z
   .object({
@@ -55,5 +55,9 @@ export type AlarmEventView = z.infer<typeof alarmEventSchema>;
 export const alarmMessageSchema = z.object({ type: z.literal("alarm"), v: z.literal(1), event: alarmEventSchema }).strict();
 export type AlarmMessage = z.infer<typeof alarmMessageSchema>;
 
-/** Whether an alarm still asks for attention: raised, or cleared but not yet acknowledged. */
-export const isOpenAlarm = (e: Pick<AlarmEventView, "state" | "acknowledgedAt">): boolean => e.state === "raised" || e.acknowledgedAt === null;
+/**
+ * Whether an alarm still asks for attention: raised, or a limit alarm cleared but not yet
+ * acknowledged. A cleared `masked` event is a finding about the filter, kept in the history.
+ */
+export const isOpenAlarm = (e: Pick<AlarmEventView, "state" | "kind" | "acknowledgedAt">): boolean =>
+  e.state === "raised" || (e.kind === "limit" && e.acknowledgedAt === null);

@@ -16,6 +16,10 @@ export interface Recipe {
   /** Level changes at random times (mean interval), followed with a first-order lag. */
   steps?: { levels: number[]; meanIntervalSeconds: number; lagSeconds: number };
   spikes?: { perSecond: number; amplitude: number };
+  /** Occasional excursions at random times (mean interval): a raised-cosine rise to `amplitude`, a hold, and the same fall. */
+  excursions?: { amplitude: number; meanIntervalSeconds: number; riseSeconds: number; holdSeconds: number };
+  /** Short rectangular pulses of `amplitude`, `widthMs` long, at random times (mean interval): a pressure spike. */
+  pulses?: { amplitude: number; widthMs: number; meanIntervalSeconds: number };
   /** Quantisation step of the sensor (e.g. an encoder). */
   quantum?: number;
   /** Probability that a batch is lost before it reaches the broker. */
@@ -76,6 +80,19 @@ export const RECIPES: Record<string, Recipe> = {
     hum: [35, 0, 9],
     noise: 6,
     drift: { amplitude: 120, periodSeconds: 300 },
+    dropProbability: 0.001,
+  },
+  // Pump ripple at 12 Hz and mains pickup; every couple of minutes an over-pressure excursion of 55 bar that
+  // a 240 bar limit catches on any filtered trace, and about twice a minute a 3 ms spike of 80 bar that a
+  // 12 Hz notch followed by a 25 Hz low-pass flattens to about 14 bar: the case of a filter hiding a fault.
+  "hydraulic-press/supply-node/supply-pressure": {
+    offset: 200,
+    hum: [3],
+    tones: [{ hz: 12, amplitude: 8 }],
+    noise: 1.2,
+    drift: { amplitude: 4, periodSeconds: 600 },
+    excursions: { amplitude: 55, meanIntervalSeconds: 120, riseSeconds: 0.8, holdSeconds: 3 },
+    pulses: { amplitude: 80, widthMs: 3, meanIntervalSeconds: 30 },
     dropProbability: 0.001,
   },
   "hydraulic-press/env-node/ambient-temp": {

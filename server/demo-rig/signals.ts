@@ -32,6 +32,8 @@ export function createSignalSource(recipe: Recipe, sampleRateHz: number, seed: n
   const stepChance = recipe.steps ? dt / recipe.steps.meanIntervalSeconds : 0;
   const lagAlpha = recipe.steps ? 1 - Math.exp(-dt / recipe.steps.lagSeconds) : 1;
   const spikeChance = recipe.spikes ? recipe.spikes.perSecond * dt : 0;
+  const excursion = recipe.excursions ? excursionShape(recipe.excursions, uniform, dt) : null;
+  const pulse = recipe.pulses ? pulseShape(recipe.pulses, uniform, dt) : null;
 
   function sample(): number {
     const t = n++ * dt;
@@ -45,6 +47,8 @@ export function createSignalSource(recipe: Recipe, sampleRateHz: number, seed: n
       v += level;
     }
     if (recipe.spikes && uniform() < spikeChance) v += recipe.spikes.amplitude * (uniform() < 0.5 ? -1 : 1);
+    if (excursion) v += excursion();
+    if (pulse) v += pulse();
     return v;
   }
 
@@ -61,5 +65,40 @@ export function createSignalSource(recipe: Recipe, sampleRateHz: number, seed: n
       return out;
     },
     dropNext: () => uniform() < recipe.dropProbability,
+  };
+}
+
+/**
+ * An excursion's offset sample by sample: idle until a random start (chance dt / mean interval per
+ * sample), then a raised-cosine rise, a hold at the amplitude and a raised-cosine fall.
+ */
+function excursionShape(e: NonNullable<Recipe["excursions"]>, uniform: () => number, dt: number): () => number {
+  const chance = dt / e.meanIntervalSeconds;
+  const total = 2 * e.riseSeconds + e.holdSeconds;
+  let age: number | null = null;
+  return () => {
+    if (age === null) {
+      if (uniform() >= chance) return 0;
+      age = 0;
+    }
+    const t = age;
+    age += dt;
+    if (age >= total) age = null;
+    if (t < e.riseSeconds) return e.amplitude * 0.5 * (1 - Math.cos((Math.PI * t) / e.riseSeconds));
+    if (t < e.riseSeconds + e.holdSeconds) return e.amplitude;
+    return e.amplitude * 0.5 * (1 + Math.cos((Math.PI * (t - e.riseSeconds - e.holdSeconds)) / e.riseSeconds));
+  };
+}
+
+/** A pulse's offset sample by sample: `amplitude` for widthMs from a random start (chance dt / mean interval per sample). */
+function pulseShape(p: NonNullable<Recipe["pulses"]>, uniform: () => number, dt: number): () => number {
+  const chance = dt / p.meanIntervalSeconds;
+  const width = Math.max(1, Math.round(p.widthMs / 1000 / dt));
+  let left = 0;
+  return () => {
+    if (left === 0 && uniform() < chance) left = width;
+    if (left === 0) return 0;
+    left--;
+    return p.amplitude;
   };
 }

@@ -62,7 +62,13 @@ export interface Pipeline extends BatchSink {
   lastSampleAt(path: string): number | null;
   /** The channel's raw envelope over about the last 30 s (60 buckets of about 500 ms), or null. */
   spark(path: string): Spark | null;
+  /** The channel's newest raw samples held (at most n), oldest first. */
+  recent(path: string, n: number): Float64Array;
+  /** Calls fn with every accepted batch after filtering, with the production output beside it (null without one; valid only during the call). */
+  onSamples(fn: SamplesListener): void;
 }
+
+export type SamplesListener = (path: string, batch: SampleBatch, production: Float64Array | null) => void;
 
 export const candidateKey = (owner: string, id: string): string => `${owner}/${id}`;
 
@@ -92,6 +98,7 @@ export function createPipeline(deps: {
   const historySeconds = deps.historySeconds ?? 60;
   const settleSeconds = deps.settleSeconds ?? 1;
   const bank = createFilterBank();
+  const listeners: SamplesListener[] = [];
   const live = new Map<string, LiveChannel>(
     deps.channels.map((info) => [
       info.path,
@@ -136,7 +143,10 @@ export function createPipeline(deps: {
     ch.lastSampleAt = now();
     const block = blockFor(ch, batch);
     for (let i = 0; i < batch.values.length; i++) block.raw.push(batch.values[i]);
-    if (!ch.production && ch.candidates.size === 0) return;
+    if (!ch.production && ch.candidates.size === 0) {
+      for (const fn of listeners) fn(path, batch, null);
+      return;
+    }
     const outputs = bank.process(path, batch.values);
     for (const [key, y] of outputs) {
       let trace = block.traces.get(key);
@@ -150,6 +160,7 @@ export function createPipeline(deps: {
         deps.onFiltered?.(path, batch, y);
       }
     }
+    for (const fn of listeners) fn(path, batch, outputs.get(PRODUCTION) ?? null);
   }
 
   /**
@@ -238,5 +249,7 @@ export function createPipeline(deps: {
     paths: () => [...live.keys()],
     lastSampleAt: (path) => channelOf(path).lastSampleAt,
     spark: (path) => channelOf(path).spark.read(),
+    recent: (path, n) => channelOf(path).raw.latest(n),
+    onSamples: (fn) => void listeners.push(fn),
   };
 }

@@ -65,6 +65,8 @@ export interface Hub {
   /** Sends metrics for the channels in one slice (channel index mod slices); no arguments: all of them. */
   metricsTick(slice?: number, slices?: number): void;
   statusTick(): void;
+  /** Sends one message to every open connection (lab-wide news such as alarms), stringified once. */
+  broadcast(message: ServerMessage): void;
   /**
    * Checks every open connection's session against its account (one query): a missing or disabled
    * account or a bumped session version closes the socket with SESSION_ENDED; a changed role
@@ -300,6 +302,10 @@ export function createHub(opts: HubOptions): Hub {
         for (const [path, sub] of state.subs) live.add(viewFor(state, path, sub));
       }
       for (const [key, view] of views) if (!live.has(view)) views.delete(key);
+    },
+    broadcast(message) {
+      const text = JSON.stringify(message);
+      for (const state of clients.values()) state.conn.send(text);
     },
     recheckSessions() {
       recheck ??= recheckOnce()

@@ -166,7 +166,7 @@ describe("rule changes and restarts", () => {
 
   it("resumeRaised continues an alarm raised before a restart instead of raising it again", () => {
     const tr = createTracker(rule());
-    resumeRaised(tr, "limit", "high", 0, 14);
+    resumeRaised(tr, { kind: "limit", side: "high", limit: 10, since: 0, peak: 14 });
     const out: AlarmTransition[] = [];
     trackBlock(tr, { t0: 100, dtMs: 10, raw: [11, 12, 7], filtered: null }, (t) => out.push(t));
     expect(brief(out)).toEqual(["limit clear high @120 peak 14"]);

@@ -12,7 +12,7 @@ export const listEventsSchema = z
     rig: z.string().regex(KEY_PATTERN, "rig is a rig key (a-z, 0-9, -)").optional(),
     severity: z.enum(ALARM_SEVERITIES).optional(),
     kind: z.enum(ALARM_KINDS).optional(),
-    /** `open`: raised, or cleared and not yet acknowledged. */
+    /** `open`: raised, or a limit alarm cleared and not yet acknowledged. */
     state: z.enum([...ALARM_STATES, "open"]).optional(),
     from: time.optional(),
     to: time.optional(),
