@@ -33,7 +33,8 @@ const beyond = (l: AlarmLimits, side: LimitSide, v: number): boolean => (side ==
 const clearOf = (l: AlarmLimits, side: LimitSide, v: number): boolean =>
   side === "high" ? l.high === null || v < l.high - l.deadband : l.low === null || v > l.low + l.deadband;
 
-const further = (side: LimitSide, v: number, peak: number): number => (side === "high" ? Math.max(v, peak) : Math.min(v, peak));
+/** The more extreme of two values beyond a limit on `side`. */
+export const further = (side: LimitSide, a: number, b: number): number => (side === "high" ? Math.max(a, b) : Math.min(a, b));
 
 /**
  * Advances the state by one sample (value v at time t, ms) and returns the transition it caused,

@@ -1,4 +1,4 @@
-import { restingState, stepLimit, type LimitState, type LimitTransition } from "./limit-state";
+import { further, restingState, stepLimit, type LimitState, type LimitTransition } from "./limit-state";
 import type { AlarmKind, LimitSide } from "@/lib/protocol";
 import type { AlarmRule } from "./rule";
 
@@ -14,9 +14,10 @@ export interface AlarmTransition {
 }
 
 /**
- * How long after the raw signal raises the filtered one may still raise and count as the same
- * excursion (ms): the filter's delay makes the filtered crossing come later. Longer than the group
- * delay of the low-pass filters the bench designs for alarm-bearing channels (tens of ms).
+ * How far apart a raw and a filtered raise may be and still count as one excursion (ms): the
+ * filter's delay makes the filtered crossing come later, and near the end of an excursion the raw
+ * signal may cross again on noise the filter removes. Longer than the group delay of the low-pass
+ * filters the bench designs for alarm-bearing channels (tens of ms).
  */
 export const MASK_GRACE_MS = 1000;
 
@@ -41,6 +42,8 @@ export interface RuleTracker {
   /** For filtered rules: the same limits on the raw signal. */
   shadow: LimitState;
   watch: MaskWatch | null;
+  /** When the rule's own trace was last seen raised on each side (ms). */
+  lastRaised: Record<LimitSide, number>;
 }
 
 /** Consecutive samples of a channel: raw, and the production filter's output beside it (null when there is none: the device sends raw). */
@@ -56,14 +59,15 @@ export interface SampleBlock {
 export type Emit = (t: AlarmTransition) => void;
 
 export function createTracker(rule: AlarmRule): RuleTracker {
-  return { rule, main: restingState(), shadow: restingState(), watch: null };
+  return { rule, main: restingState(), shadow: restingState(), watch: null, lastRaised: { high: -Infinity, low: -Infinity } };
 }
 
 /**
  * Runs one rule over a block, sample by sample, and emits every transition. For a filtered rule on
  * a channel with a production filter it also runs the limits on raw: when raw raises and the
- * filtered signal has not raised on the same side within MASK_GRACE_MS, a `masked` alarm is
- * raised (the filter hid the excursion), dated from the raw raise, and cleared when raw clears.
+ * filtered signal is not raised on the same side within MASK_GRACE_MS either way (before: the
+ * tail of an excursion it already caught; after: its delay), a `masked` alarm is raised (the filter
+ * hid the excursion), dated from the raw raise, and cleared when raw clears.
  */
 export function trackBlock(tr: RuleTracker, block: SampleBlock, emit: Emit): void {
   const { rule } = tr;
@@ -74,41 +78,47 @@ export function trackBlock(tr: RuleTracker, block: SampleBlock, emit: Emit): voi
     const value = rule.signal === "raw" || filtered === null ? raw[i] : filtered[i];
     const main = stepLimit(tr.main, rule, t, value);
     if (main) emit(transition(rule.id, "limit", main));
+    if (tr.main.phase === "raised" && tr.main.side) tr.lastRaised[tr.main.side] = t;
     if (shadowed) watchRaw(tr, stepLimit(tr.shadow, rule, t, raw[i]), t, emit);
   }
 }
 
 function watchRaw(tr: RuleTracker, raw: LimitTransition | null, t: number, emit: Emit): void {
   if (raw?.kind === "raise") {
-    if (tr.watch && !tr.watch.reported) decide(tr, tr.watch, t, emit, true);
-    tr.watch = { side: raw.side, limit: raw.limit, start: raw.at, peak: raw.peak, filteredSeen: false, rawClearedAt: null, reported: false };
+    if (tr.watch) {
+      // Raw crossed again before the check was settled: the same excursion, still being watched.
+      tr.watch.rawClearedAt = null;
+    } else {
+      const seen = raw.at - tr.lastRaised[raw.side] <= MASK_GRACE_MS;
+      tr.watch = { side: raw.side, limit: raw.limit, start: raw.at, peak: raw.peak, filteredSeen: seen, rawClearedAt: null, reported: false };
+    }
   }
   const w = tr.watch;
   if (!w) return;
   if (tr.main.phase === "raised" && tr.main.side === w.side) w.filteredSeen = true;
-  if (w.rawClearedAt === null && tr.shadow.phase === "raised") w.peak = tr.shadow.peak;
+  if (w.rawClearedAt === null && tr.shadow.phase === "raised" && tr.shadow.side === w.side) w.peak = further(w.side, tr.shadow.peak, w.peak);
   if (raw?.kind === "clear" && w.rawClearedAt === null) {
     w.rawClearedAt = raw.at;
-    w.peak = raw.peak;
+    w.peak = further(w.side, raw.peak, w.peak);
     if (w.reported) {
       emit(masked(tr, w, "clear", raw.at));
       tr.watch = null;
       return;
     }
   }
-  if (!w.reported && t - w.start >= MASK_GRACE_MS) decide(tr, w, t, emit, false);
+  if (!w.reported && t - w.start >= MASK_GRACE_MS) decide(tr, w, emit);
 }
 
-/** Settles a watch: masked when the filtered signal never raised on its side; `final` ends it whatever raw does next. */
-function decide(tr: RuleTracker, w: MaskWatch, t: number, emit: Emit, final: boolean): void {
+/** Settles a watch at the end of the grace time: masked when the filtered signal never raised on its side. */
+function decide(tr: RuleTracker, w: MaskWatch, emit: Emit): void {
   if (w.filteredSeen) {
     tr.watch = null;
     return;
   }
   emit(masked(tr, w, "raise", w.start));
   w.reported = true;
-  if (w.rawClearedAt !== null || final) {
-    emit(masked(tr, w, "clear", w.rawClearedAt ?? t));
+  if (w.rawClearedAt !== null) {
+    emit(masked(tr, w, "clear", w.rawClearedAt));
     tr.watch = null;
   }
 }
@@ -124,6 +134,7 @@ export function closeTracker(tr: RuleTracker, t: number, emit: Emit): void {
   tr.main = restingState();
   tr.shadow = restingState();
   tr.watch = null;
+  tr.lastRaised = { high: -Infinity, low: -Infinity };
 }
 
 /**

@@ -1,4 +1,5 @@
 import type { AlarmEventRecord } from "@/db/queries/alarm-events";
+import { isDatabaseDown } from "@/lib/errors";
 import type { Clock, Logger, Timer } from "../clock";
 
 export interface EventStoreStats {
@@ -6,6 +7,8 @@ export interface EventStoreStats {
   buffered: number;
   /** Cleared events dropped unwritten because the buffer was full (open ones are never dropped). */
   dropped: number;
+  /** Events the database refused on their own (not an outage), logged and dropped. */
+  rejected: number;
   written: number;
 }
 
@@ -27,7 +30,9 @@ export const MAX_BUFFERED_EVENTS = 10_000;
  * database is down they wait (one entry per event, its newest state) and are retried every retryMs,
  * in the order they were raised. The buffer is bounded: past maxBuffered the oldest cleared events
  * are dropped (counted and logged); events still raised are never dropped (there are at most two
- * per rule, so they are bounded by the rules).
+ * per rule, so they are bounded by the rules). A batch refused for any other reason than an outage is
+ * written event by event, and an event the database refuses on its own is logged and dropped so it
+ * cannot hold up the others.
  */
 export function createEventStore(deps: {
   write: (records: AlarmEventRecord[]) => Promise<void>;
@@ -40,10 +45,11 @@ export function createEventStore(deps: {
   const max = deps.maxBuffered ?? MAX_BUFFERED_EVENTS;
   const batchSize = deps.batchSize ?? 500;
   const pending = new Map<string, AlarmEventRecord>();
-  const counts = { dropped: 0, written: 0 };
+  const counts = { dropped: 0, rejected: 0, written: 0 };
   let writing: Promise<boolean> | null = null;
+  /** One write queued behind the running one, shared by every flush asked for meanwhile. */
+  let follow: Promise<boolean> | null = null;
   let failingSince: number | null = null;
-  let again = false;
 
   function makeRoom(): void {
     for (const [id, r] of pending) {
@@ -61,6 +67,10 @@ export function createEventStore(deps: {
       try {
         await deps.write(batch);
       } catch (err) {
+        if (!isDatabaseDown(err)) {
+          if (await writeSingly(batch)) continue;
+          return false;
+        }
         if (failingSince === null) {
           failingSince = deps.clock.now();
           deps.logger.warn(`alarm events not written, keeping ${pending.size} in memory and retrying: ${err instanceof Error ? err.message : String(err)}`);
@@ -78,17 +88,32 @@ export function createEventStore(deps: {
     return true;
   }
 
+  /** Writes a refused batch one event at a time; false when the database went down meanwhile. */
+  async function writeSingly(batch: AlarmEventRecord[]): Promise<boolean> {
+    for (const r of batch) {
+      try {
+        await deps.write([r]);
+        counts.written++;
+      } catch (err) {
+        if (isDatabaseDown(err)) return false;
+        counts.rejected++;
+        deps.logger.warn(`alarm event ${r.id} (rule ${r.ruleId}) refused by the database and dropped: ${err instanceof Error ? err.message : String(err)}`);
+      }
+      if (pending.get(r.id) === r) pending.delete(r.id);
+    }
+    return true;
+  }
+
   function flush(): Promise<boolean> {
     if (writing) {
-      again = true;
-      return writing;
+      follow ??= writing.then(() => {
+        follow = null;
+        return flush();
+      });
+      return follow;
     }
     writing = writeOnce().finally(() => {
       writing = null;
-      if (again) {
-        again = false;
-        void flush();
-      }
     });
     return writing;
   }
@@ -104,10 +129,9 @@ export function createEventStore(deps: {
       if (failingSince === null) void flush();
     },
     flush,
-    stats: () => ({ buffered: pending.size, dropped: counts.dropped, written: counts.written }),
+    stats: () => ({ buffered: pending.size, ...counts }),
     async close() {
       deps.clock.clearInterval(timer);
-      await writing;
       if (pending.size > 0 && !(await flush())) deps.logger.warn(`${pending.size} alarm events were not written before shutdown`);
     },
   };

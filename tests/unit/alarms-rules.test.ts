@@ -145,12 +145,19 @@ describe("the filter hides a fault (raw against filtered)", () => {
     expect(replayRules([filteredRule, { ...filteredRule, id: 2, signal: "raw" }], block).filter((t) => t.ruleId === 2 && t.change === "raise")).toHaveLength(3);
   });
 
-  it("decides a pending masked check at once when raw raises again inside the grace time", () => {
-    const raw = samples(20, 5);
+  it("treats raw crossings inside the grace time as one excursion, reported once from the first raise to the last clear", () => {
+    const raw = samples(MASK_GRACE_MS / 10 + 20, 5);
     raw[2] = 30;
-    raw[6] = 30;
-    const out = run(rule({ signal: "filtered", deadband: 0 }), raw, samples(20, 5));
-    expect(brief(out)).toEqual(["masked raise high @20 peak 30", "masked clear high @30 peak 30"]);
+    raw[6] = 35;
+    const out = run(rule({ signal: "filtered", deadband: 0 }), raw, samples(raw.length, 5));
+    expect(brief(out)).toEqual(["masked raise high @20 peak 35", "masked clear high @70 peak 35"]);
+  });
+
+  it("is not fooled by raw flapping on the way up while the slower filtered signal follows", () => {
+    // Raw crosses, dips back, crosses again; the filtered signal raises 150 ms after the first crossing.
+    const raw = [5, 12, 5, 12, 12, 12, 12, 12, 12, 12, 12, 12, 12, 12, 12, 12, 12, ...samples(110, 5)];
+    const filtered = [...samples(16, 5), 11, 11, ...samples(110, 5)];
+    expect(run(filteredRule, raw, filtered).map((t) => t.kind)).toEqual(["limit", "limit"]);
   });
 });
 
@@ -186,5 +193,16 @@ describe("limitProblems", () => {
     expect(limitProblems({ ...base, low: 9.5 }).map((p) => p.path)).toEqual(["deadband"]);
     expect(limitProblems({ ...base, deadband: -1 }).map((p) => p.path)).toEqual(["deadband"]);
     expect(limitProblems({ ...base, minDurationMs: 1.5 }).map((p) => p.path)).toEqual(["minDurationMs"]);
+  });
+});
+
+describe("one excursion, two traces", () => {
+  it("does not call a raw re-crossing masked while the filtered signal has just been raised on the same side", () => {
+    const r = rule({ signal: "filtered", deadband: 1 });
+    // Filtered raised 0–200 ms and cleared; raw crosses again on noise 300 ms later: the same excursion's tail.
+    const raw = [...Array<number>(21).fill(12), 5, 5, 5, 5, 5, 5, 5, 5, 5, 11, 5, ...Array<number>(150).fill(5)];
+    const filtered = [...Array<number>(21).fill(11), ...Array<number>(160).fill(5)];
+    const kinds = run(r, raw, filtered).map((t) => `${t.kind} ${t.change}`);
+    expect(kinds).toEqual(["limit raise", "limit clear"]);
   });
 });
