@@ -42,7 +42,7 @@ export async function startAlarms(deps: {
     clock,
     logger,
   });
-  deps.pipeline.onSamples((path, batch, production) => engine.evaluate(path, batch, production));
+  const unsubscribe = deps.pipeline.onSamples((path, batch, production) => engine.evaluate(path, batch, production));
   const warn = (what: string) => (err: unknown) => logger.warn(`alarms: ${what}: ${err instanceof Error ? err.message : String(err)}`);
   const reload = () => void engine.reload().catch(warn("rules not reloaded"));
   const listeners: Listener[] = [
@@ -60,6 +60,7 @@ export async function startAlarms(deps: {
     engine,
     store,
     async stop() {
+      unsubscribe();
       await Promise.all(listeners.map((l) => l.close()));
       await store.close();
     },

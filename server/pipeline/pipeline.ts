@@ -64,8 +64,8 @@ export interface Pipeline extends BatchSink {
   spark(path: string): Spark | null;
   /** The channel's newest raw samples held (at most n), oldest first. */
   recent(path: string, n: number): Float64Array;
-  /** Calls fn with every accepted batch after filtering, with the production output beside it (null without one; valid only during the call). */
-  onSamples(fn: SamplesListener): void;
+  /** Calls fn with every accepted batch after filtering, with the production output beside it (null without one; valid only during the call); returns the unsubscribe. */
+  onSamples(fn: SamplesListener): () => void;
 }
 
 export type SamplesListener = (path: string, batch: SampleBatch, production: Float64Array | null) => void;
@@ -250,6 +250,12 @@ export function createPipeline(deps: {
     lastSampleAt: (path) => channelOf(path).lastSampleAt,
     spark: (path) => channelOf(path).spark.read(),
     recent: (path, n) => channelOf(path).raw.latest(n),
-    onSamples: (fn) => void listeners.push(fn),
+    onSamples(fn) {
+      listeners.push(fn);
+      return () => {
+        const i = listeners.indexOf(fn);
+        if (i >= 0) listeners.splice(i, 1);
+      };
+    },
   };
 }
