@@ -1,6 +1,7 @@
 import type { MqttClient } from "mqtt";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "@/db/client";
+import { DEMO_RIGS } from "@/lib/demo/lab";
 import { designFilter } from "@/lib/dsp";
 import { liveOverviewSchema } from "@/lib/protocol";
 import { encodeBinarySamples, samplesTopic, statusTopic } from "@/lib/protocol";
@@ -52,7 +53,7 @@ describe("GET /overview on the sidecar", () => {
   it("knows nothing before any device speaks: online, samples, production and spark are null", async () => {
     const body = await overview();
     expect(body.mqtt).toBe("connected");
-    expect(Object.keys(body.channels)).toHaveLength(8);
+    expect(Object.keys(body.channels)).toHaveLength(DEMO_RIGS.flatMap((r) => r.devices.flatMap((d) => d.channels)).length);
     expect(body.channels[STRAIN]).toEqual({ online: null, lastSampleAt: null, productionRevisionId: null, spark: null, faults: {} });
   });
 
