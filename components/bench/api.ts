@@ -19,7 +19,7 @@ const PLAIN: Record<number, string> = {
   503: "The server is not reachable right now. Try again shortly.",
 };
 
-async function request<T>(url: string, init?: RequestInit): Promise<T> {
+export async function request<T>(url: string, init?: RequestInit): Promise<T> {
   let res: Response;
   try {
     res = await fetch(url, { ...init, headers: { "content-type": "application/json", ...init?.headers }, credentials: "same-origin" });

@@ -3,6 +3,7 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import { UPlotChart, type ChartSeries } from "@/components/charts/uplot-chart";
 import { liveSource } from "@/components/charts/sources";
+import { useTraceMarks } from "@/components/annotations/trace-marks";
 import { Swatch } from "@/components/ui/swatch";
 import { withUnit } from "@/lib/bench/format";
 import type { LiveStore } from "@/lib/bench/live-store";
@@ -113,6 +114,7 @@ export function LivePanel({
             paused={frozen}
             onZoom={setZoomed}
             onToggle={(i, show) => traces[i] && onToggle(traces[i].id, show)}
+            marks={useTraceMarks()}
           />
         </div>
         <LiveReadout store={store} traces={traces} unit={unit} />

@@ -29,10 +29,13 @@ export interface ChartAxis {
   floor?: number;
 }
 
-/** A labelled vertical marker (e.g. a spectral peak) drawn over the plot. */
+/** A labelled vertical marker (e.g. a spectral peak) drawn over the plot; with endX, a shaded span. */
 export interface ChartMark {
   x: number;
   label: string;
+  endX?: number;
+  /** "alarm" draws it in the alarm red. */
+  tone?: "alarm";
 }
 
 export interface UPlotChartProps {
@@ -203,16 +206,23 @@ export function UPlotChart(props: UPlotChartProps) {
           ctx.save();
           ctx.font = `${11 * dpr}px var(--font-mono), monospace`;
           ctx.textAlign = "center";
+          const right = u.bbox.left + u.bbox.width;
           marks.forEach((m, i) => {
             const x = u.valToPos(m.x, "x", true);
-            if (x < u.bbox.left || x > u.bbox.left + u.bbox.width) return;
-            ctx.strokeStyle = "rgba(226, 232, 240, 0.35)";
+            if (m.endX !== undefined) {
+              const from = Math.max(u.bbox.left, x);
+              const to = Math.min(right, u.valToPos(m.endX, "x", true));
+              ctx.fillStyle = m.tone === "alarm" ? "rgba(220, 63, 63, 0.12)" : "rgba(226, 232, 240, 0.08)";
+              if (to > from) ctx.fillRect(from, u.bbox.top, to - from, u.bbox.height);
+            }
+            if (x < u.bbox.left || x > right) return;
+            ctx.strokeStyle = m.tone === "alarm" ? "rgba(220, 63, 63, 0.8)" : "rgba(226, 232, 240, 0.35)";
             ctx.setLineDash([3 * dpr, 3 * dpr]);
             ctx.beginPath();
             ctx.moveTo(x, u.bbox.top);
             ctx.lineTo(x, u.bbox.top + u.bbox.height);
             ctx.stroke();
-            ctx.fillStyle = "#e2e8f0";
+            ctx.fillStyle = m.tone === "alarm" ? "#f87171" : "#e2e8f0";
             ctx.fillText(m.label, x, u.bbox.top + (12 + (i % 2) * 13) * dpr);
           });
           ctx.restore();

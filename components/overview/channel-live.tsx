@@ -15,7 +15,7 @@ export interface KnownRevision {
 
 /**
  * The live part of one channel card: device state in words and a dot, last-sample age, production
- * revision, the last 30 s as a sparkline, fault counts, and the (not yet configured) alarm slot.
+ * revision, the last 30 s as a sparkline and fault counts (the alarm line is its own component).
  * Red only for a device offline and for faults.
  */
 export function ChannelLive({ path, unit, revisions }: { path: string; unit: string; revisions: Record<string, KnownRevision> }) {
@@ -56,9 +56,6 @@ export function ChannelLive({ path, unit, revisions }: { path: string; unit: str
           faults: {faults}
         </p>
       )}
-      <p className="text-slate-400" data-testid="alarm-state">
-        alarms: none configured
-      </p>
     </div>
   );
 }

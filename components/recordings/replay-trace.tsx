@@ -4,6 +4,7 @@ import { useMemo, useState } from "react";
 import type uPlot from "uplot";
 import type { ChartSource } from "@/components/charts/sources";
 import { UPlotChart } from "@/components/charts/uplot-chart";
+import { useTraceMarks } from "@/components/annotations/trace-marks";
 import { TraceToggles } from "@/components/bench/trace-toggles";
 import { decimateMinMax } from "@/lib/bench/decimate";
 import type { ColumnView } from "@/lib/bench/ring-buffer";
@@ -86,6 +87,7 @@ export function ReplayTraceChart({ traces, sampleRateHz, unit, onToggle }: { tra
             axes={[{ scale: "y", label: unit }]}
             height={320}
             onToggle={(i, show) => traces[i] && onToggle?.(traces[i].id, show)}
+            marks={useTraceMarks()}
           />
         </div>
       </div>

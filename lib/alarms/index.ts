@@ -2,3 +2,8 @@ export * from "./rule";
 export * from "./limit-state";
 export * from "./tracker";
 export * from "./replay";
+export * from "./view";
+export * from "./describe";
+export * from "./marks";
+export * from "./local-time";
+export * from "./check";

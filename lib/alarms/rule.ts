@@ -27,11 +27,16 @@ export const MAX_MIN_DURATION_MS = 3_600_000;
 /** What is wrong with a set of limits, as `{path, message}` pairs; empty when they can be evaluated. */
 export function limitProblems(l: AlarmLimits): { path: string; message: string }[] {
   const problems: { path: string; message: string }[] = [];
+  for (const side of ["high", "low"] as const) {
+    const v = l[side];
+    if (v !== null && !Number.isFinite(v)) problems.push({ path: side, message: `The ${side} limit must be a number.` });
+  }
+  if (problems.length) return problems;
   if (l.high === null && l.low === null) problems.push({ path: "high", message: "Give a high limit, a low limit or both." });
   if (l.high !== null && l.low !== null && !(l.low < l.high)) {
     problems.push({ path: "low", message: `The low limit (${l.low}) must be below the high limit (${l.high}).` });
   }
-  if (!(l.deadband >= 0)) problems.push({ path: "deadband", message: "The deadband must be 0 or more." });
+  if (!(Number.isFinite(l.deadband) && l.deadband >= 0)) problems.push({ path: "deadband", message: "The deadband must be 0 or more." });
   if (l.high !== null && l.low !== null && l.deadband >= l.high - l.low) {
     problems.push({
       path: "deadband",

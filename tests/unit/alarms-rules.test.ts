@@ -193,6 +193,8 @@ describe("limitProblems", () => {
     expect(limitProblems({ ...base, low: 9.5 }).map((p) => p.path)).toEqual(["deadband"]);
     expect(limitProblems({ ...base, deadband: -1 }).map((p) => p.path)).toEqual(["deadband"]);
     expect(limitProblems({ ...base, minDurationMs: 1.5 }).map((p) => p.path)).toEqual(["minDurationMs"]);
+    expect(limitProblems({ ...base, high: Number.NaN }).map((p) => p.path)).toEqual(["high"]);
+    expect(limitProblems({ ...base, deadband: Number.POSITIVE_INFINITY }).map((p) => p.path)).toEqual(["deadband"]);
   });
 });
 

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/app/_lib/auth";
+import { BenchAlarms } from "@/components/alarms/bench-alarms";
 import { Bench } from "@/components/bench/bench";
 import { db } from "@/db";
 import { findChannelByPath } from "@/db/queries/channels";
@@ -41,12 +42,14 @@ export default async function ChannelBenchPage({ params }: Params) {
         )}
         {!canEdit && <p className="text-sm text-slate-500">You are watching as an operator: the live traces and the production filter are shown; trying filters needs the engineer role.</p>}
       </div>
+      <BenchAlarms channel={{ path: channel.path, name: channel.name }} viewer={{ id: user.id, role: user.role }} port={env().SIDECAR_PORT} wsPath={WS_PATH}>
       <Bench
         channel={{ path: channel.path, name: channel.name, unit: channel.unit, sampleRateHz: channel.sampleRateHz, coefficientFormat: channel.coefficientFormat }}
         canEdit={canEdit}
         sidecarPort={env().SIDECAR_PORT}
         wsPath={WS_PATH}
       />
+      </BenchAlarms>
     </div>
   );
 }

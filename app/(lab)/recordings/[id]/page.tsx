@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/app/_lib/auth";
+import { RecordingNotes } from "@/components/annotations/recording-notes";
 import { DeleteRecordingButton } from "@/components/recordings/delete-button";
 import { RecordingReplay } from "@/components/recordings/replay";
 import { db } from "@/db";
@@ -50,10 +51,12 @@ export default async function RecordingPage({ params }: Params) {
         {recording.notes && <> · {recording.notes}</>}
       </p>
       {!canEdit && <p className="text-sm text-slate-500">You are viewing as an operator: the recorded trace and its spectrum are shown; replaying candidate filters needs the engineer role.</p>}
-      <RecordingReplay
-        recording={{ id: recording.id, channelPath: channel.path, channelName: channel.name, unit: channel.unit, sampleRateHz: recording.sampleRateHz, coefficientFormat: channel.coefficientFormat }}
-        canEdit={canEdit}
-      />
+      <RecordingNotes channel={{ path: channel.path, name: channel.name }} startedAt={recording.startedAt?.toISOString() ?? null} durationMs={(recording.sampleCount * 1000) / recording.sampleRateHz} viewer={{ id: user.id, role: user.role }}>
+        <RecordingReplay
+          recording={{ id: recording.id, channelPath: channel.path, channelName: channel.name, unit: channel.unit, sampleRateHz: recording.sampleRateHz, coefficientFormat: channel.coefficientFormat }}
+          canEdit={canEdit}
+        />
+      </RecordingNotes>
     </div>
   );
 }

@@ -18,6 +18,7 @@ import { findSet } from "@/db/queries/sets";
 import { roleAtLeast } from "@/lib/auth/roles";
 import { decide } from "@/lib/workflow";
 import { promoteAction, retireAction, reviseAction, rollbackAction, transitionAction } from "./actions";
+import { HiddenExcursions } from "./hidden-excursions";
 import { RevisionDiff } from "./revision-diff";
 
 export const metadata: Metadata = { title: "Coefficient set" };
@@ -137,6 +138,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                     </ActionForm>
                   </div>
                 )}
+                {(rev.state === "in_review" || rev.state === "approved") && !retired && <HiddenExcursions channelPath={set.channel} spec={rev.spec} />}
                 {can("promote", rev) && rev.analysis.deployable.ok && (
                   <PromoteForm
                     action={promoteAction}

@@ -1,0 +1,95 @@
+"use client";
+
+import { useQueryClient } from "@tanstack/react-query";
+import { useState } from "react";
+import { ApiError } from "@/components/bench/api";
+import { fromLocalInput, toLocalInput } from "@/lib/alarms/local-time";
+import { createAnnotation } from "./api";
+
+/**
+ * Marks a moment or a span of a channel with a short note. `channels` offers a choice; with one
+ * channel it is fixed. `defaultAt` (epoch ms) is where the time starts; "Now" sets it to now.
+ */
+export function AnnotationForm({ channels, defaultAt }: { channels: { path: string; name: string }[]; defaultAt?: number }) {
+  const client = useQueryClient();
+  const [channel, setChannel] = useState(channels[0]?.path ?? "");
+  const [at, setAt] = useState(() => toLocalInput(defaultAt ?? Date.now()));
+  const [endAt, setEndAt] = useState("");
+  const [span, setSpan] = useState(false);
+  const [text, setText] = useState("");
+  const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
+  const [busy, setBusy] = useState(false);
+
+  async function submit(e: React.FormEvent) {
+    e.preventDefault();
+    const from = fromLocalInput(at);
+    const to = span ? fromLocalInput(endAt) : null;
+    if (from === null || (span && to === null)) return setMessage({ ok: false, text: "Give the time as date and time." });
+    if (to !== null && to <= from) return setMessage({ ok: false, text: "The span must end after it starts." });
+    setBusy(true);
+    setMessage(null);
+    try {
+      await createAnnotation({ channel, at: new Date(from).toISOString(), endAt: to === null ? null : new Date(to).toISOString(), text });
+      setText("");
+      setMessage({ ok: true, text: "Annotation saved." });
+      await client.invalidateQueries({ queryKey: ["annotations"] });
+    } catch (err) {
+      setMessage({ ok: false, text: err instanceof ApiError ? err.message : "The annotation could not be saved." });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  return (
+    <form onSubmit={submit} aria-label="Add an annotation" className="flex flex-wrap items-end gap-2">
+      {channels.length > 1 && (
+        <label className="text-sm">
+          <span className="label">Channel</span>
+          <select className="field w-auto py-1" value={channel} onChange={(e) => setChannel(e.target.value)}>
+            {channels.map((c) => (
+              <option key={c.path} value={c.path}>
+                {c.name} ({c.path})
+              </option>
+            ))}
+          </select>
+        </label>
+      )}
+      <label className="text-sm">
+        <span className="label">{span ? "From" : "At"}</span>
+        <input aria-label={span ? "From" : "At"} type="datetime-local" step={1} className="field num w-auto py-1" value={at} onChange={(e) => setAt(e.target.value)} required />
+      </label>
+      <button type="button" className="btn-quiet py-1" onClick={() => setAt(toLocalInput(Date.now()))}>
+        Now
+      </button>
+      <label className="flex items-center gap-1.5 self-center text-sm">
+        <input type="checkbox" checked={span} onChange={(e) => setSpan(e.target.checked)} /> a span
+      </label>
+      {span && (
+        <label className="text-sm">
+          <span className="label">To</span>
+          <input aria-label="To" type="datetime-local" step={1} className="field num w-auto py-1" value={endAt} onChange={(e) => setEndAt(e.target.value)} required />
+        </label>
+      )}
+      <label className="min-w-56 flex-1 text-sm">
+        <span className="label">Note</span>
+        <input
+          aria-label="Annotation text"
+          className="field py-1"
+          maxLength={500}
+          required
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+          placeholder="A test step, a valve change, a sensor swap…"
+        />
+      </label>
+      <button className="btn-primary" disabled={busy || text.trim() === "" || channel === ""}>
+        Add annotation
+      </button>
+      {message && (
+        <p role={message.ok ? "status" : "alert"} className={`w-full text-xs ${message.ok ? "text-brand-600" : "text-fault"}`}>
+          {message.text}
+        </p>
+      )}
+    </form>
+  );
+}
