@@ -18,6 +18,8 @@ interface BenchChannelRef {
 
 /** How many of the channel's newest annotations and alarms the bench shows and marks. */
 const RECENT = 50;
+/** Open alarms listed in the strip; the rest are on the Alarms page. */
+const SHOWN = 5;
 
 /**
  * Alarms and annotations around the bench: the live traces inside get the channel's annotations and
@@ -26,6 +28,7 @@ const RECENT = 50;
 export function BenchAlarms({ channel, viewer, port, wsPath, children }: { channel: BenchChannelRef; viewer: Viewer; port: number; wsPath: string; children: ReactNode }) {
   return (
     <AlarmFeed port={port} wsPath={wsPath}>
+      <OpenAlarmsLine path={channel.path} />
       <ChannelMarks path={channel.path}>{children}</ChannelMarks>
       <BenchStrip channel={channel} viewer={viewer} />
     </AlarmFeed>
@@ -43,6 +46,22 @@ function ChannelMarks({ path, children }: { path: string; children: ReactNode })
   return <TraceMarks marks={traceMarks(notes.data ?? [], alarms.events, 0, Date.now())}>{children}</TraceMarks>;
 }
 
+/** One red line above the traces while something is open on the channel, pointing to the strip below. */
+function OpenAlarmsLine({ path }: { path: string }) {
+  const open = useAlarmEvents({ channel: path, state: "open" });
+  if (open.events.length === 0) return null;
+  const raised = open.events.filter((e) => e.state === "raised").length;
+  return (
+    <p role="status" className="text-sm font-medium text-fault" data-testid="bench-open-alarms">
+      <span aria-hidden className="mr-1.5 inline-block size-2 rounded-full bg-fault align-middle" />
+      {raised > 0 ? `${raised} raised` : "nothing raised"} · {open.events.length - raised} cleared and waiting for an acknowledgement ·{" "}
+      <a href="#bench-alarms" className="underline">
+        see the alarms below
+      </a>
+    </p>
+  );
+}
+
 function BenchStrip({ channel, viewer }: { channel: BenchChannelRef; viewer: Viewer }) {
   const open = useAlarmEvents({ channel: channel.path, state: "open" });
   const recent = useAlarmEvents({ channel: channel.path }, RECENT);
@@ -50,7 +69,7 @@ function BenchStrip({ channel, viewer }: { channel: BenchChannelRef; viewer: Vie
   const openIds = new Set(open.events.map((e) => e.id));
   const past = recent.events.filter((e) => !openIds.has(e.id)).slice(0, 8);
   return (
-    <section aria-label="Alarms and annotations" className="card grid gap-4 p-3 lg:grid-cols-2">
+    <section id="bench-alarms" aria-label="Alarms and annotations" className="card grid gap-4 p-3 lg:grid-cols-2">
       <div className="min-w-0 space-y-2">
         <div className="flex items-baseline gap-2">
           <h2 className="font-medium">Alarms on this channel</h2>
@@ -58,7 +77,8 @@ function BenchStrip({ channel, viewer }: { channel: BenchChannelRef; viewer: Vie
             all of this channel&apos;s alarms and rules
           </Link>
         </div>
-        <EventList label="Open alarms on this channel" events={open.events} empty="Nothing raised or waiting for an acknowledgement." showChannel={false} />
+        <EventList label="Open alarms on this channel" events={open.events.slice(0, SHOWN)} empty="Nothing raised or waiting for an acknowledgement." showChannel={false} />
+        {open.events.length > SHOWN && <p className="text-xs text-slate-500">and {open.events.length - SHOWN} more on the Alarms page.</p>}
         {past.length > 0 && (
           <details>
             <summary className="cursor-pointer text-xs text-slate-500">Recent ({past.length}), including where the filter hid an excursion</summary>

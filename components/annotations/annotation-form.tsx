@@ -1,19 +1,26 @@
 "use client";
 
 import { useQueryClient } from "@tanstack/react-query";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import { ApiError } from "@/components/bench/api";
 import { fromLocalInput, toLocalInput } from "@/lib/alarms/local-time";
 import { createAnnotation } from "./api";
 
 /**
  * Marks a moment or a span of a channel with a short note. `channels` offers a choice; with one
- * channel it is fixed. `defaultAt` (epoch ms) is where the time starts; "Now" sets it to now.
+ * channel it is fixed. Without `defaultAt` (epoch ms) the time follows the clock until it is edited
+ * ("Now" makes it follow again), so a note written on the live bench lands at the moment it is saved.
  */
 export function AnnotationForm({ channels, defaultAt }: { channels: { path: string; name: string }[]; defaultAt?: number }) {
   const client = useQueryClient();
   const [channel, setChannel] = useState(channels[0]?.path ?? "");
   const [at, setAt] = useState(() => toLocalInput(defaultAt ?? Date.now()));
+  const [following, setFollowing] = useState(defaultAt === undefined);
+  useEffect(() => {
+    if (!following) return;
+    const id = setInterval(() => setAt(toLocalInput(Date.now())), 1000);
+    return () => clearInterval(id);
+  }, [following]);
   const [endAt, setEndAt] = useState("");
   const [span, setSpan] = useState(false);
   const [text, setText] = useState("");
@@ -22,7 +29,7 @@ export function AnnotationForm({ channels, defaultAt }: { channels: { path: stri
 
   async function submit(e: React.FormEvent) {
     e.preventDefault();
-    const from = fromLocalInput(at);
+    const from = following ? Date.now() : fromLocalInput(at);
     const to = span ? fromLocalInput(endAt) : null;
     if (from === null || (span && to === null)) return setMessage({ ok: false, text: "Give the time as date and time." });
     if (to !== null && to <= from) return setMessage({ ok: false, text: "The span must end after it starts." });
@@ -42,6 +49,18 @@ export function AnnotationForm({ channels, defaultAt }: { channels: { path: stri
 
   return (
     <form onSubmit={submit} aria-label="Add an annotation" className="flex flex-wrap items-end gap-2">
+      <label className="w-full text-sm">
+        <span className="label">Note</span>
+        <input
+          aria-label="Annotation text"
+          className="field py-1"
+          maxLength={500}
+          required
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+          placeholder="A test step, a valve change, a sensor swap…"
+        />
+      </label>
       {channels.length > 1 && (
         <label className="text-sm">
           <span className="label">Channel</span>
@@ -56,9 +75,23 @@ export function AnnotationForm({ channels, defaultAt }: { channels: { path: stri
       )}
       <label className="text-sm">
         <span className="label">{span ? "From" : "At"}</span>
-        <input aria-label={span ? "From" : "At"} type="datetime-local" step={1} className="field num w-auto py-1" value={at} onChange={(e) => setAt(e.target.value)} required />
+        <input
+          aria-label={span ? "From" : "At"}
+          type="datetime-local"
+          step={1}
+          className="field num w-auto py-1"
+          value={at}
+          onChange={(e) => {
+            setFollowing(false);
+            setAt(e.target.value);
+          }}
+          required
+        />
       </label>
-      <button type="button" className="btn-quiet py-1" onClick={() => setAt(toLocalInput(Date.now()))}>
+      <button type="button" className="btn-quiet py-1" aria-pressed={following} onClick={() => {
+          setFollowing(true);
+          setAt(toLocalInput(Date.now()));
+        }}>
         Now
       </button>
       <label className="flex items-center gap-1.5 self-center text-sm">
@@ -70,18 +103,6 @@ export function AnnotationForm({ channels, defaultAt }: { channels: { path: stri
           <input aria-label="To" type="datetime-local" step={1} className="field num w-auto py-1" value={endAt} onChange={(e) => setEndAt(e.target.value)} required />
         </label>
       )}
-      <label className="min-w-56 flex-1 text-sm">
-        <span className="label">Note</span>
-        <input
-          aria-label="Annotation text"
-          className="field py-1"
-          maxLength={500}
-          required
-          value={text}
-          onChange={(e) => setText(e.target.value)}
-          placeholder="A test step, a valve change, a sensor swap…"
-        />
-      </label>
       <button className="btn-primary" disabled={busy || text.trim() === "" || channel === ""}>
         Add annotation
       </button>

@@ -19,6 +19,6 @@ export function durationText(ms: number): string {
 export function eventSummary(e: AlarmEventView): string {
   const peak = `${trim(e.peak, 5)} ${e.unit}`;
   if (e.kind === "masked") return `Raw went ${limitText(e)} (peak ${peak}); the filtered signal stayed inside: the filter hid it.`;
-  const trace = e.signal === "filtered" ? "Filtered signal" : "Raw signal";
+  const trace = e.signal === "raw" ? "Raw signal" : e.revisionId === null ? "Signal (no production filter, so raw)" : "Filtered signal";
   return `${trace} ${e.state === "raised" ? "is" : "went"} ${limitText(e)}, peak ${peak}.`;
 }

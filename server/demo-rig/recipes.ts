@@ -83,7 +83,7 @@ export const RECIPES: Record<string, Recipe> = {
     dropProbability: 0.001,
   },
   // Pump ripple at 12 Hz and mains pickup; every couple of minutes an over-pressure excursion of 55 bar that
-  // a 240 bar limit catches on any filtered trace, and about twice a minute a 3 ms spike of 80 bar that a
+  // a 240 bar limit catches on any filtered trace, and more than once a minute a 3 ms spike of 80 bar that a
   // 12 Hz notch followed by a 25 Hz low-pass flattens to about 14 bar: the case of a filter hiding a fault.
   "hydraulic-press/supply-node/supply-pressure": {
     offset: 200,
@@ -92,7 +92,7 @@ export const RECIPES: Record<string, Recipe> = {
     noise: 1.2,
     drift: { amplitude: 4, periodSeconds: 600 },
     excursions: { amplitude: 55, meanIntervalSeconds: 120, riseSeconds: 0.8, holdSeconds: 3 },
-    pulses: { amplitude: 80, widthMs: 3, meanIntervalSeconds: 30 },
+    pulses: { amplitude: 80, widthMs: 3, meanIntervalSeconds: 45 },
     dropProbability: 0.001,
   },
   "hydraulic-press/env-node/ambient-temp": {

@@ -1,24 +1,7 @@
-import { expect, test, type Locator, type Page } from "@playwright/test";
-import { DEMO_RIGS } from "@/lib/demo/lab";
+import { expect, test } from "@playwright/test";
+import { DEMO_ALARM_RULES, DEMO_RIGS } from "@/lib/demo/lab";
+import { OverviewPage } from "./pages/overview-page";
 import { SignInPage } from "./pages/sign-in-page";
-
-/** The overview as an operator reads it: one card per channel with its live part. */
-class OverviewPage {
-  constructor(private readonly page: Page) {}
-
-  async open(): Promise<void> {
-    await this.page.goto("/");
-    await expect(this.page.getByRole("heading", { name: "Overview" })).toBeVisible();
-  }
-
-  card(path: string): Locator {
-    return this.page.locator(`li[data-channel="${path}"]`);
-  }
-
-  async paths(): Promise<string[]> {
-    return this.page.locator("li[data-channel]").evaluateAll((cards) => cards.map((c) => c.getAttribute("data-channel") ?? ""));
-  }
-}
 
 const DEMO_PATHS = DEMO_RIGS.flatMap((rig) => rig.devices.flatMap((d) => d.channels.map((c) => `${rig.key}/${d.key}/${c.key}`)));
 
@@ -32,7 +15,8 @@ test("an operator sees every demo channel online, with a recent sample and a spa
     await expect(card.getByTestId("device-state")).toHaveText("online", { timeout: 10_000 });
     await expect(card.getByTestId("sparkline")).toBeVisible();
     await expect(card.getByTestId("sample-age")).toHaveText(/^\d+\.\d s ago$/);
-    await expect(card.getByTestId("alarm-state")).toHaveText("alarms: none configured");
+    if (DEMO_ALARM_RULES.some((r) => r.channel === path)) await expect(overview.alarmLine(path)).not.toHaveAttribute("data-alarm", "none");
+    else await expect(overview.alarmLine(path)).toHaveText("alarms: none configured");
   }
 });
 
