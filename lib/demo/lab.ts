@@ -90,7 +90,8 @@ export const DEMO_RIGS: DemoRig[] = [
 /**
  * The demo's alarm rules, seeded once per channel: the supply pressure's high limit, which the demo
  * rig's occasional excursion crosses on the filtered signal too, and its short pressure spikes cross
- * only on raw once a notch + low-pass chain filters the channel.
+ * only on raw once a notch + low-pass chain filters the channel. The 20 bar deadband is more than
+ * the pump ripple's swing, so the raw signal does not raise and clear on every ripple near the limit.
  */
 export const DEMO_ALARM_RULES = [
   {
@@ -99,7 +100,7 @@ export const DEMO_ALARM_RULES = [
     signal: "filtered",
     high: 240,
     low: null,
-    deadband: 8,
+    deadband: 20,
     minDurationMs: 0,
     severity: "warning",
   },

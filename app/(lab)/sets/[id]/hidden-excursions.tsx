@@ -76,7 +76,7 @@ async function HiddenExcursionsCheck({ channelPath, spec }: { channelPath: strin
           {sources.map((s) => (
             <li key={s.label} data-masked={s.candidate.masked}>
               Over {s.label}: this revision would have hidden <span className={`num font-medium ${s.candidate.masked ? "text-fault" : ""}`}>{s.candidate.masked}</span>{" "}
-              {s.candidate.masked === 1 ? "excursion" : "excursions"} past {rules.map((r) => `“${r.name}”`).join(", ")} and raised {s.candidate.caught}
+              {s.candidate.masked === 1 ? "excursion" : "excursions"} past {rules.map((r) => `“${r.name}”`).join(", ")} and raised {s.candidate.caught} {s.candidate.caught === 1 ? "alarm" : "alarms"}
               {s.production && <> (the production filter: {s.production.masked} hidden, {s.production.caught} raised)</>}.
             </li>
           ))}
