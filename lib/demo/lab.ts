@@ -81,7 +81,7 @@ export const DEMO_RIGS: DemoRig[] = [
         key: "supply-node",
         name: "Supply node",
         coefficientFormat: "f32",
-        channels: [{ key: "supply-pressure", name: "Supply pressure", unit: "bar", sampleRateHz: 1000, range: [0, 400] }],
+        channels: [{ key: "supply-pressure", name: "Supply pressure", unit: "bar", sampleRateHz: 1000, range: [0, 400], capacity: { maxSections: 8, maxFirTaps: 128 } }],
       },
     ],
   },
