@@ -4,7 +4,7 @@ import { useQuery } from "@tanstack/react-query";
 import { createContext, useCallback, useContext, useEffect, useMemo, useState, type ReactNode } from "react";
 import { mergeEvents, type EventFilter } from "@/lib/alarms/view";
 import { reconnectDelayMs } from "@/lib/bench/backoff";
-import { serverMessageSchema, SESSION_ENDED, type AlarmEventView } from "@/lib/protocol";
+import { parseServerMessage, SESSION_ENDED, type AlarmEventView } from "@/lib/protocol";
 import { fetchAlarmEvents } from "./api";
 
 /** How the pushed alarms reach this page. */
@@ -58,15 +58,8 @@ export function AlarmFeed({ port, wsPath, children }: { port: number; wsPath: st
         setLink("live");
       };
       ws.onmessage = (ev) => {
-        if (typeof ev.data !== "string") return;
-        let json: unknown;
-        try {
-          json = JSON.parse(ev.data);
-        } catch {
-          return; // not a message of ours
-        }
-        const parsed = serverMessageSchema.safeParse(json);
-        if (parsed.success && parsed.data.type === "alarm") remember(parsed.data.event);
+        const message = typeof ev.data === "string" ? parseServerMessage(ev.data) : null;
+        if (message?.type === "alarm") remember(message.event);
       };
       ws.onclose = (ev) => {
         if (closed) return;

@@ -6,6 +6,7 @@ import { limitProblems } from "@/lib/alarms";
 import { ALARM_SEVERITIES, ALARM_SIGNALS } from "@/lib/protocol";
 import type { AlarmRuleRow, RuleFields } from "./api";
 import type { ChannelOption } from "./alarms-board";
+import { ChannelSelect } from "./channel-select";
 
 type Draft = Record<"name" | "high" | "low" | "deadband" | "minDurationMs", string> & Pick<RuleFields, "signal" | "severity" | "enabled"> & { channel: string };
 
@@ -85,16 +86,7 @@ export function RuleForm({
           <span className="num">{rule.channel}</span>
         </p>
       ) : (
-        <label className="text-sm sm:col-span-2">
-          <span className="label">Channel</span>
-          <select className="field py-1" value={d.channel} onChange={(e) => set({ channel: e.target.value })}>
-            {channels.map((c) => (
-              <option key={c.path} value={c.path}>
-                {c.name} ({c.path})
-              </option>
-            ))}
-          </select>
-        </label>
+        <ChannelSelect channels={channels} value={d.channel} onChange={(channel) => set({ channel })} className="sm:col-span-2" />
       )}
       {input("name", "Name", { maxLength: 80, required: true })}
       <label className="text-sm">

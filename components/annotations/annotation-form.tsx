@@ -4,6 +4,7 @@ import { useQueryClient } from "@tanstack/react-query";
 import { useEffect, useState } from "react";
 import { ApiError } from "@/components/bench/api";
 import { fromLocalInput, toLocalInput } from "@/lib/alarms/local-time";
+import { ChannelSelect } from "@/components/alarms/channel-select";
 import { createAnnotation } from "./api";
 
 /**
@@ -62,16 +63,7 @@ export function AnnotationForm({ channels, defaultAt }: { channels: { path: stri
         />
       </label>
       {channels.length > 1 && (
-        <label className="text-sm">
-          <span className="label">Channel</span>
-          <select className="field w-auto py-1" value={channel} onChange={(e) => setChannel(e.target.value)}>
-            {channels.map((c) => (
-              <option key={c.path} value={c.path}>
-                {c.name} ({c.path})
-              </option>
-            ))}
-          </select>
-        </label>
+        <ChannelSelect channels={channels} value={channel} onChange={setChannel} />
       )}
       <label className="text-sm">
         <span className="label">{span ? "From" : "At"}</span>

@@ -3,7 +3,7 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import { reconnectDelayMs } from "@/lib/bench/backoff";
 import { HISTORY_SECONDS, LiveStore } from "@/lib/bench/live-store";
-import { serverMessageSchema, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
+import { parseServerMessage, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
 
 export type LinkState = "connecting" | "live" | "reconnecting" | "signed-out";
 
@@ -101,15 +101,8 @@ export function useLiveChannel(opts: Options): LiveChannel {
         onOpenRef.current(send);
       };
       ws.onmessage = (ev) => {
-        if (typeof ev.data !== "string") return;
-        let json: unknown;
-        try {
-          json = JSON.parse(ev.data);
-        } catch {
-          return;
-        }
-        const parsed = serverMessageSchema.safeParse(json);
-        if (parsed.success) handle(parsed.data);
+        const message = typeof ev.data === "string" ? parseServerMessage(ev.data) : null;
+        if (message) handle(message);
       };
       ws.onclose = (ev) => {
         if (socketRef.current === ws) socketRef.current = null;

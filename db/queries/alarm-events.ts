@@ -42,6 +42,22 @@ export interface AlarmEventFilter {
   limit: number;
 }
 
+/** The columns of an event as the sidecar holds it. */
+const RECORD_COLUMNS = [
+  "e.id",
+  "e.rule_id as ruleId",
+  "e.kind",
+  "e.severity",
+  "e.signal",
+  "e.side",
+  "e.limit_value as limit",
+  "e.state",
+  "e.raised_at as raisedAt",
+  "e.cleared_at as clearedAt",
+  "e.peak",
+  "e.revision_id as revisionId",
+] as const;
+
 function eventQuery(db: Conn) {
   return db
     .selectFrom("alarm_events as e")
@@ -51,21 +67,10 @@ function eventQuery(db: Conn) {
     .innerJoin("rigs as r", "r.id", "d.rig_id")
     .leftJoin("users as u", "u.id", "e.acknowledged_by")
     .select([
-      "e.id",
-      "e.rule_id as ruleId",
+      ...RECORD_COLUMNS,
       "a.name as ruleName",
       channelPathSql("r", "d", "c").as("channel"),
       "c.unit",
-      "e.kind",
-      "e.severity",
-      "e.signal",
-      "e.side",
-      "e.limit_value as limit",
-      "e.state",
-      "e.raised_at as raisedAt",
-      "e.cleared_at as clearedAt",
-      "e.peak",
-      "e.revision_id as revisionId",
       "e.acknowledged_at as acknowledgedAt",
       "u.display_name as acknowledgedBy",
       "e.ack_comment as comment",
@@ -149,28 +154,16 @@ export async function storeAlarmEvents(db: Db, records: readonly AlarmEventRecor
 }
 
 /** Raised events (limit and masked) of enabled rules, for the sidecar to carry on after a restart. */
-export function listRaisedRecords(db: Conn): Promise<AlarmEventRecord[]> {
-  return db
+export async function listRaisedRecords(db: Conn): Promise<AlarmEventRecord[]> {
+  const rows = await db
     .selectFrom("alarm_events as e")
     .innerJoin("alarm_rules as a", "a.id", "e.rule_id")
     .where("e.state", "=", "raised")
     .where("a.enabled", "=", true)
     .where("a.deleted_at", "is", null)
-    .select([
-      "e.id",
-      "e.rule_id as ruleId",
-      "e.kind",
-      "e.severity",
-      "e.signal",
-      "e.side",
-      "e.limit_value as limit",
-      "e.state",
-      sql<number>`(extract(epoch from e.raised_at) * 1000)::float8`.as("raisedAt"),
-      sql<number | null>`(extract(epoch from e.cleared_at) * 1000)::float8`.as("clearedAt"),
-      "e.peak",
-      "e.revision_id as revisionId",
-    ])
+    .select(RECORD_COLUMNS)
     .execute();
+  return rows.map((r) => ({ ...r, raisedAt: new Date(r.raisedAt).getTime(), clearedAt: r.clearedAt === null ? null : new Date(r.clearedAt).getTime() }));
 }
 
 /** Acknowledges an event with a comment and its audit entry; undefined when it was acknowledged already. */

@@ -108,6 +108,18 @@ export const serverMessageSchema = z.discriminatedUnion("type", [
   alarmMessageSchema,
 ]);
 export type ServerMessage = z.infer<typeof serverMessageSchema>;
+
+/** A server message from a WebSocket text frame, or null when it is not JSON or not a message of this protocol. */
+export function parseServerMessage(text: string): ServerMessage | null {
+  let json: unknown;
+  try {
+    json = JSON.parse(text);
+  } catch {
+    return null; // not JSON: not ours
+  }
+  const parsed = serverMessageSchema.safeParse(json);
+  return parsed.success ? parsed.data : null;
+}
 export type CandidateMetrics = Extract<ServerMessage, { type: "metrics" }>["candidates"][string];
 
 /** The sidecar's WebSocket path. */

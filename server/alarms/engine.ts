@@ -7,10 +7,22 @@ import type { AlarmEventView, AlarmKind, SampleBatch, ServerMessage } from "@/li
 import type { Clock, Logger } from "../clock";
 import type { EventStore } from "./event-store";
 
-/** An alarm the engine holds open: what is written, and what browsers are shown. */
+/** What browsers are shown of an event beyond what is written for it. */
+type About = Pick<AlarmEventView, "ruleName" | "channel" | "unit" | "acknowledgedAt" | "acknowledgedBy" | "comment">;
+
+const aboutOf = (v: AlarmEventView): About => ({
+  ruleName: v.ruleName,
+  channel: v.channel,
+  unit: v.unit,
+  acknowledgedAt: v.acknowledgedAt,
+  acknowledgedBy: v.acknowledgedBy,
+  comment: v.comment,
+});
+
+/** An alarm the engine holds open. */
 interface OpenAlarm {
   record: AlarmEventRecord;
-  view: AlarmEventView;
+  about: About;
 }
 
 /** A rule as loaded, with its tracker on the live stream. */
@@ -60,54 +72,36 @@ export async function createAlarmEngine(deps: AlarmEngineDeps): Promise<AlarmEng
     const key = keyOf(t.ruleId, t.kind);
     if (t.change === "raise") {
       const revision = t.kind === "masked" || rule.signal === "filtered" ? deps.productionRevision(path) : null;
-      const record: AlarmEventRecord = {
-        id: randomUUID(),
-        ruleId: rule.id,
-        kind: t.kind,
-        severity: rule.severity,
-        signal: rule.signal,
-        side: t.side,
-        limit: t.limit,
-        state: "raised",
-        raisedAt: t.at,
-        clearedAt: null,
-        peak: t.peak,
-        revisionId: revision === null ? null : Number(revision),
+      const held: OpenAlarm = {
+        record: {
+          id: randomUUID(),
+          ruleId: rule.id,
+          kind: t.kind,
+          severity: rule.severity,
+          signal: rule.signal,
+          side: t.side,
+          limit: t.limit,
+          state: "raised",
+          raisedAt: t.at,
+          clearedAt: null,
+          peak: t.peak,
+          revisionId: revision === null ? null : Number(revision),
+        },
+        about: { ruleName: rule.name, channel: path, unit: rule.unit, acknowledgedAt: null, acknowledgedBy: null, comment: null },
       };
-      const view: AlarmEventView = {
-        id: record.id,
-        ruleId: rule.id,
-        ruleName: rule.name,
-        channel: path,
-        unit: rule.unit,
-        kind: t.kind,
-        severity: rule.severity,
-        signal: rule.signal,
-        side: t.side,
-        limit: t.limit,
-        state: "raised",
-        raisedAt: iso(t.at),
-        clearedAt: null,
-        peak: t.peak,
-        revisionId: record.revisionId,
-        acknowledgedAt: null,
-        acknowledgedBy: null,
-        comment: null,
-      };
-      open.set(key, { record, view });
-      publish(record, view);
+      open.set(key, held);
+      publish(held);
       return;
     }
     const held = open.get(key);
     if (!held) return;
     open.delete(key);
-    const record: AlarmEventRecord = { ...held.record, state: "cleared", clearedAt: t.at, peak: t.peak };
-    publish(record, { ...held.view, state: "cleared", clearedAt: iso(t.at), peak: t.peak });
+    publish({ ...held, record: { ...held.record, state: "cleared", clearedAt: t.at, peak: t.peak } });
   }
 
-  function publish(record: AlarmEventRecord, view: AlarmEventView): void {
+  function publish({ record, about }: OpenAlarm): void {
     deps.store.put(record);
-    deps.broadcast({ type: "alarm", v: 1, event: view });
+    deps.broadcast({ type: "alarm", v: 1, event: { ...record, ...about, raisedAt: iso(record.raisedAt), clearedAt: record.clearedAt === null ? null : iso(record.clearedAt) } });
   }
 
   function emitter(rule: AlarmRuleView, path: string) {
@@ -146,7 +140,7 @@ export async function createAlarmEngine(deps: AlarmEngineDeps): Promise<AlarmEng
       const view = tracked && (await findAlarmEvent(deps.db, record.id));
       if (!tracked || !view) continue;
       resumeRaised(tracked.tr, { kind: record.kind, side: record.side, limit: record.limit, since: record.raisedAt, peak: record.peak });
-      open.set(keyOf(record.ruleId, record.kind), { record, view });
+      open.set(keyOf(record.ruleId, record.kind), { record, about: aboutOf(view) });
     }
   }
 
@@ -179,7 +173,7 @@ export async function createAlarmEngine(deps: AlarmEngineDeps): Promise<AlarmEng
     async announce(id) {
       const view = await findAlarmEvent(deps.db, id);
       if (!view) return;
-      for (const held of open.values()) if (held.view.id === id) held.view = { ...held.view, acknowledgedAt: view.acknowledgedAt, acknowledgedBy: view.acknowledgedBy, comment: view.comment };
+      for (const held of open.values()) if (held.record.id === id) held.about = aboutOf(view);
       deps.broadcast({ type: "alarm", v: 1, event: view });
     },
     ruleCount: count,

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createDb, type Db } from "@/db/client";
-import { listAlarmEvents } from "@/db/queries/alarm-events";
+import { acknowledgeAlarmEvent, listAlarmEvents } from "@/db/queries/alarm-events";
 import { findChannelByPath } from "@/db/queries/channels";
 import { createSet } from "@/db/queries/sets";
 import { findUserByEmail } from "@/db/queries/users";
@@ -142,7 +142,7 @@ describe.skipIf(!bin)("alarms on the demo rig's supply pressure, through a datab
     expect(logger.lines.some((l) => /alarm events written again after/.test(l))).toBe(true);
   }, 180_000);
 
-  it("carries a raised alarm on across a restart of the alarm service instead of raising it twice", async () => {
+  it("carries a raised alarm on across a restart of the alarm service instead of raising it twice, and keeps its acknowledgement", async () => {
     const before = new Set(pushed().keys());
     const open = () => limitEvents().find((e) => !before.has(e.id) && e.state === "raised");
     await runRig(900, () => open() !== undefined);
@@ -150,8 +150,14 @@ describe.skipIf(!bin)("alarms on the demo rig's supply pressure, through a datab
     await alarms.stop();
     alarms = await startAlarms({ db, databaseUrl: cluster.url, pipeline: sidecar.pipeline, hub: sidecar.hub, clock: systemClock, logger, retryMs: 100 });
     expect(logger.lines.at(-1)).toMatch(/1 alarms carried on/);
+    // An operator acknowledges it while it is still raised: every browser hears of it, and it stays acknowledged when it clears.
+    const operator = (await findUserByEmail(db, "operator@tapwright.test"))!;
+    await db.transaction().execute((trx) =>
+      acknowledgeAlarmEvent(trx, { id: operator.id, email: operator.email, name: operator.display_name, role: operator.role }, raised.id, "Pump relief checked."),
+    );
+    await until(() => pushed().get(raised.id)?.acknowledgedBy === "Demo Operator", 5000, "the acknowledgement pushed");
     await runRig(60, () => pushed().get(raised.id)?.state === "cleared");
-    expect(pushed().get(raised.id)?.state).toBe("cleared");
+    expect(pushed().get(raised.id)).toMatchObject({ state: "cleared", acknowledgedBy: "Demo Operator", comment: "Pump relief checked." });
     expect(limitEvents().filter((e) => !before.has(e.id))).toHaveLength(1);
   }, 180_000);
 });
