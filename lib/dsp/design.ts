@@ -9,7 +9,7 @@ import { designIir } from "./iir/design";
 import { chainDesign } from "./chain";
 import { activeStages, filterSpecSchema, type FilterSpec } from "./filter-spec";
 import type { StageSpec } from "./spec";
-import { designFromBa, designFromSos, designFromTaps } from "./transfer";
+import { designFromBa, designFromSos, designFromTaps, designPastedBa } from "./transfer";
 import type { FilterDesign } from "./types";
 
 /**
@@ -54,6 +54,6 @@ function designStage(spec: StageSpec): FilterDesign {
       return designFromBa(b, a, fs);
     }
     case "coefficients":
-      return spec.sos !== undefined ? designFromSos(spec.sos, fs) : designFromBa(spec.b ?? [], spec.a ?? [1], fs);
+      return spec.sos !== undefined ? designFromSos(spec.sos, fs) : designPastedBa(spec.b ?? [], spec.a ?? [1], fs);
   }
 }

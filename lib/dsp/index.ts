@@ -1,11 +1,22 @@
 /** Public contract of lib/dsp: design requests, designs, discretisation, paste parsing, analysis and running. */
-export type { Complex, FilterDesign, StageDesign } from "./types";
+export type { Complex, DirectForm, FilterDesign, StageDesign } from "./types";
 
 export * from "./spec";
 export * from "./filter-spec";
 export { designFilter } from "./design";
 export { chainDesign, designStages } from "./chain";
-export { designFromBa, designFromSos, designFromTaps } from "./transfer";
+export {
+  designDirectForm,
+  designFromBa,
+  designFromSos,
+  designFromTaps,
+  designPastedBa,
+  directFormSections,
+  MAX_DIRECT_FORM_ORDER,
+} from "./transfer";
+export { designSections, designZeros, sectionCount } from "./zeros";
+export { directFormDcGain } from "./dc-gain";
+export { accurateSum } from "./accurate-sum";
 
 export { iirSpecSchema, IIR_FAMILIES, IIR_RESPONSES, MAX_ORDER, type IirSpec, type IirFamily, type IirResponse } from "./iir/spec";
 export { designIir, analogPrototypeZpk } from "./iir/design";
