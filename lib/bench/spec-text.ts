@@ -46,6 +46,10 @@ export function stageSummary(spec: StageSpec): string {
       return `Exponential smoothing · ${hz(spec.cutoffHz)}`;
     case "analog":
       return `Analog H(s) order ${spec.den.length - 1} · ${METHOD[spec.method]}`;
+    case "notch":
+      return `${capital(spec.shape)} · ${hz(spec.centerHz)}, Q ${withUnit(spec.q, "")} (−3 dB width ${hz(spec.centerHz / spec.q)})`;
+    case "comb":
+      return `Comb ${spec.shape} · ${hz(spec.fundamentalHz)} and harmonics, Q ${withUnit(spec.q, "")}`;
     case "coefficients":
       return spec.sos ? `Pasted SOS · ${spec.sos.length} sections` : `Pasted b/a · ${spec.b?.length ?? 0}/${spec.a?.length ?? 1} coefficients`;
   }

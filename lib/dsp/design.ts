@@ -1,4 +1,5 @@
 import { rbjBiquad } from "./biquad";
+import { combDesign } from "./comb";
 import { discretize } from "./discretize/discretize";
 import { emaTransferFunction } from "./ema";
 import { firstDifferenceTaps } from "./fir/differentiator";
@@ -6,6 +7,7 @@ import { movingAverage } from "./fir/movingAverage";
 import { windowedSinc } from "./fir/windowedSinc";
 import { kaiserBeta } from "./fir/windows";
 import { designIir } from "./iir/design";
+import { bandwidthNotchSection } from "./notch";
 import { chainDesign } from "./chain";
 import { activeStages, filterSpecSchema, type FilterSpec } from "./filter-spec";
 import type { StageSpec } from "./spec";
@@ -53,6 +55,10 @@ function designStage(spec: StageSpec): FilterDesign {
       const { b, a } = discretize(spec, fs, spec.method, { prewarpHz: spec.prewarpHz });
       return designFromBa(b, a, fs);
     }
+    case "notch":
+      return designFromSos([bandwidthNotchSection(spec.shape, spec.centerHz, spec.q, fs)], fs);
+    case "comb":
+      return { sampleRateHz: fs, ...combDesign(spec.shape, spec.fundamentalHz, spec.q, fs) };
     case "coefficients":
       return spec.sos !== undefined ? designFromSos(spec.sos, fs) : designPastedBa(spec.b ?? [], spec.a ?? [1], fs);
   }

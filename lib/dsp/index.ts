@@ -30,6 +30,10 @@ export { zpk2sos } from "./iir/zpk2sos";
 export { bilinearZpk } from "./iir/bilinear";
 
 export { biquadShapes, gainShapes, rbjBiquad, type BiquadShape, type BiquadParams } from "./biquad";
+export { bandwidthNotchSection, notchShapes, type NotchShape } from "./notch";
+export { notchSpecSchema, NOTCH_LIMITS, type NotchSpec } from "./notch-spec";
+export { combDesign, combOrder, COMB_DIVISIBILITY_TOLERANCE } from "./comb";
+export { combSpecSchema, COMB_LIMITS, type CombSpec } from "./comb-spec";
 export { firResponses, windowedSinc, type FirResponse, type WindowedSincParams } from "./fir/windowedSinc";
 export { firWindows, firWindow, kaiserBeta, besselI0, type FirWindow } from "./fir/windows";
 export { movingAverage } from "./fir/movingAverage";
