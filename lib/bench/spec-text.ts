@@ -46,6 +46,10 @@ export function stageSummary(spec: StageSpec): string {
       return `Exponential smoothing · ${hz(spec.cutoffHz)}`;
     case "analog":
       return `Analog H(s) order ${spec.den.length - 1} · ${METHOD[spec.method]}`;
+    case "fir-equiripple":
+      return `Equiripple FIR ${spec.taps} taps · ${spec.desired.length} bands`;
+    case "fir-arbitrary":
+      return `Arbitrary FIR ${spec.taps} taps · ${capital(spec.window)} · ${spec.freqsHz.length} points`;
     case "notch":
       return `${capital(spec.shape)} · ${hz(spec.centerHz)}, Q ${withUnit(spec.q, "")} (−3 dB width ${hz(spec.centerHz / spec.q)})`;
     case "comb":

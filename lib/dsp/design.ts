@@ -2,8 +2,10 @@ import { rbjBiquad } from "./biquad";
 import { combDesign } from "./comb";
 import { discretize } from "./discretize/discretize";
 import { emaTransferFunction } from "./ema";
+import { arbitraryFirTaps } from "./fir/arbitrary";
 import { firstDifferenceTaps } from "./fir/differentiator";
 import { movingAverage } from "./fir/movingAverage";
+import { equirippleTaps } from "./fir/remez";
 import { windowedSinc } from "./fir/windowedSinc";
 import { kaiserBeta } from "./fir/windows";
 import { designIir } from "./iir/design";
@@ -55,6 +57,10 @@ function designStage(spec: StageSpec): FilterDesign {
       const { b, a } = discretize(spec, fs, spec.method, { prewarpHz: spec.prewarpHz });
       return designFromBa(b, a, fs);
     }
+    case "fir-equiripple":
+      return designFromTaps(equirippleTaps(spec), fs);
+    case "fir-arbitrary":
+      return designFromTaps(arbitraryFirTaps(spec), fs);
     case "notch":
       return designFromSos([bandwidthNotchSection(spec.shape, spec.centerHz, spec.q, fs)], fs);
     case "comb":

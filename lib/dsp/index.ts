@@ -37,6 +37,16 @@ export { combSpecSchema, COMB_LIMITS, type CombSpec } from "./comb-spec";
 export { firResponses, windowedSinc, type FirResponse, type WindowedSincParams } from "./fir/windowedSinc";
 export { firWindows, firWindow, kaiserBeta, besselI0, type FirWindow } from "./fir/windows";
 export { movingAverage } from "./fir/movingAverage";
+export { equirippleTaps, REMEZ_GRID_DENSITY, REMEZ_MAX_ITERATIONS, type EquirippleParams } from "./fir/remez";
+export { arbitraryFirTaps, type ArbitraryFirParams } from "./fir/arbitrary";
+export { estimateFirOrder, firOrderRequirementSchema, MIN_KAISER_RIPPLE_DB, type FirOrderRequirement } from "./fir/kaiser-order";
+export {
+  FIR_DESIGN_LIMITS,
+  firArbitrarySpecSchema,
+  firEquirippleSpecSchema,
+  type FirArbitrarySpec,
+  type FirEquirippleSpec,
+} from "./fir-design-spec";
 export { firstDifferenceTaps } from "./fir/differentiator";
 export { firZpk } from "./fir/zpk";
 export { emaAlpha, emaTransferFunction } from "./ema";

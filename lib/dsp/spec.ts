@@ -5,6 +5,7 @@ import { MAX_ANALOG_ORDER } from "./discretize/rational";
 import { firResponses } from "./fir/windowedSinc";
 import { firWindows, zeroEndedWindows } from "./fir/windows";
 import { COMB_LIMITS, combSpecSchema } from "./comb-spec";
+import { FIR_DESIGN_LIMITS, firArbitrarySpecSchema, firEquirippleSpecSchema } from "./fir-design-spec";
 import { checkCutoffs, iirSpecSchema } from "./iir/spec";
 import { NOTCH_LIMITS, notchSpecSchema } from "./notch-spec";
 import { checkBelowNyquist, checkInteger, coefficientList, finite, refuse, sampleRateHz } from "./spec-fields";
@@ -23,6 +24,7 @@ export const SPEC_LIMITS = {
   maxChainStages: 8,
   ...NOTCH_LIMITS,
   ...COMB_LIMITS,
+  ...FIR_DESIGN_LIMITS,
 } as const;
 
 /** A cookbook biquad; gainDb is required by peaking and the shelves and refused by the other shapes. */
@@ -188,6 +190,8 @@ export const stageSpecSchema = z.discriminatedUnion("kind", [
   coefficientsSpecSchema,
   notchSpecSchema,
   combSpecSchema,
+  firEquirippleSpecSchema,
+  firArbitrarySpecSchema,
 ]);
 
 export type StageSpec = z.infer<typeof stageSpecSchema>;
