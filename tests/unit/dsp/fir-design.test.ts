@@ -51,7 +51,9 @@ const amplitude = (h: number[], f: number) => h.reduce((s, v, n) => s + v * Math
 /**
  * Alternations of the weighted error E = W·(A − D) on the design's dense grid (16 points per cosine term in
  * each band, band edges included; McClellan, Parks & Rabiner 1973), where the design is minimax: local
- * extrema of E in each band (its ends included) within 1e-6 of max|E|, successive ones of one sign counted once.
+ * extrema of E in each band (its ends included) within 1e-6 of max|E| or 1e-9·max W·max(1, |D|) (A carries
+ * rounding of about 1e-10 of |D|, which matters when the ripple itself is that small), successive ones of
+ * one sign counted once.
  */
 function alternations(h: number[], edges: number[], desired: number[], weights: number[]): number {
   const points: number[] = [];
@@ -71,9 +73,10 @@ function alternations(h: number[], edges: number[], desired: number[], weights: 
     });
   }
   const peak = Math.max(...points.map(Math.abs));
+  const slack = Math.max(1e-6 * peak, 1e-9 * Math.max(...weights) * Math.max(1, ...desired.map(Math.abs)));
   let count = 0;
   let last = 0;
-  for (const v of points.filter((p) => Math.abs(p) >= (1 - 1e-6) * peak)) {
+  for (const v of points.filter((p) => Math.abs(p) >= peak - slack)) {
     if (Math.sign(v) !== last) count++;
     last = Math.sign(v);
   }
