@@ -52,7 +52,8 @@ export function partGroupDelayAt(form: RunPart, omegas: readonly number[]): numb
 /** The derivative-formula group delay of one polynomial in z⁻¹ (taps, or b or a) at each ω. */
 function polynomialDelays(c: number[], omegas: readonly number[]): number[] {
   const weighted = c.map((t, n) => n * t);
-  return omegas.map((w) => firGroupDelay(c, weighted, w));
+  const scale = c.reduce((s, t) => s + Math.abs(t), 0);
+  return omegas.map((w) => firGroupDelay(c, weighted, scale, w));
 }
 
 interface Factored {
@@ -87,11 +88,10 @@ function rootDelay(root: Complex, omega: number): number {
 /** Horner rounding bound factor: |Σ h[n]·z⁻ⁿ| below this × (N+1)·ε·Σ|h[n]| counts as an exact zero. */
 const ROUNDING_FACTOR = 8;
 
-/** τ(ω) for taps h[n], given n·h[n] as `weighted`. */
-function firGroupDelay(taps: readonly number[], weighted: readonly number[], omega: number): number {
+/** τ(ω) for taps h[n], given n·h[n] as `weighted` and Σ|h[n]| as `scale`. */
+function firGroupDelay(taps: readonly number[], weighted: readonly number[], scale: number, omega: number): number {
   const x: Complex = [Math.cos(omega), -Math.sin(omega)];
   const den = ascendingPolyAt(taps, x);
-  const scale = taps.reduce((s, t) => s + Math.abs(t), 0);
   if (cAbs(den) > roundingBound(taps.length, scale)) {
     return cDiv(ascendingPolyAt(weighted, x), den)[0];
   }
