@@ -13,7 +13,7 @@ import { bandwidthNotchSection } from "./notch";
 import { chainDesign } from "./chain";
 import { activeStages, filterSpecSchema, type FilterSpec } from "./filter-spec";
 import type { StageSpec } from "./spec";
-import { designFromBa, designFromSos, designFromTaps, designPastedBa } from "./transfer";
+import { designFromBa, designFromSos, designFromTaps, designTransferFunction } from "./transfer";
 import type { FilterDesign } from "./types";
 
 /**
@@ -55,7 +55,7 @@ function designStage(spec: StageSpec): FilterDesign {
     }
     case "analog": {
       const { b, a } = discretize(spec, fs, spec.method, { prewarpHz: spec.prewarpHz });
-      return designFromBa(b, a, fs);
+      return designTransferFunction(b, a, fs);
     }
     case "fir-equiripple":
       return designFromTaps(equirippleTaps(spec), fs);
@@ -66,6 +66,6 @@ function designStage(spec: StageSpec): FilterDesign {
     case "comb":
       return { sampleRateHz: fs, ...combDesign(spec.shape, spec.fundamentalHz, spec.q, fs) };
     case "coefficients":
-      return spec.sos !== undefined ? designFromSos(spec.sos, fs) : designPastedBa(spec.b ?? [], spec.a ?? [1], fs);
+      return spec.sos !== undefined ? designFromSos(spec.sos, fs) : designTransferFunction(spec.b ?? [], spec.a ?? [1], fs);
   }
 }

@@ -10,7 +10,7 @@ export {
   designFromBa,
   designFromSos,
   designFromTaps,
-  designPastedBa,
+  designTransferFunction,
   directFormSections,
   MAX_DIRECT_FORM_ORDER,
 } from "./transfer";

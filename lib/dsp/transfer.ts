@@ -28,11 +28,11 @@ export function originRoots(count: number): Complex[] {
 }
 
 /**
- * A pasted transfer function H(z) = Σ b_k z⁻ᵏ / Σ a_k z⁻ᵏ, exactly as given (an unstable a is kept):
- * an FIR (taps b/a[0]) when a is [1] or 1 followed by zeros; a direct form (designDirectForm) when a's
- * order is at most MAX_DIRECT_FORM_ORDER; otherwise sections (designFromBa).
+ * A transfer function H(z) = Σ b_k z⁻ᵏ / Σ a_k z⁻ᵏ (pasted, or an H(s) discretised), exactly as given
+ * (an unstable a is kept): an FIR (taps b/a[0]) when a is [1] or 1 followed by zeros; a direct form
+ * (designDirectForm) when a's order is at most MAX_DIRECT_FORM_ORDER; otherwise sections (designFromBa).
  */
-export function designPastedBa(b: number[], a: number[], sampleRateHz: number): FilterDesign {
+export function designTransferFunction(b: number[], a: number[], sampleRateHz: number): FilterDesign {
   const { bn, an } = normalise(b, a);
   if (an.slice(1).every((c) => c === 0)) return designFromTaps(bn, sampleRateHz);
   const order = an.length - 1 - [...an].reverse().findIndex((c) => c !== 0);

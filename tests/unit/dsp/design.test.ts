@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { designZeros } from "@/lib/dsp/zeros";
+import { designSections, designZeros } from "@/lib/dsp/zeros";
 import { frequencyResponse, stability } from "@/lib/dsp/analysis";
 import { cAbs, cDiv, cMul, cScale, cSub } from "@/lib/dsp/complex";
 import { polyMul } from "@/lib/dsp/poly";
@@ -46,7 +46,8 @@ describe("designFilter", () => {
     expect(designFilter({ kind: "differentiator", sampleRateHz: fs }).taps).toEqual([1000, -1000]);
     expect(designFilter({ kind: "ema", cutoffHz: 10, sampleRateHz: fs }).sos).toHaveLength(1);
     const analog = designFilter({ kind: "analog", num: [1], den: [1, 2, 2, 1].map((c, i) => c * 100 ** i), method: "zoh", sampleRateHz: fs });
-    expect(analog.sos).toHaveLength(2);
+    expect(analog.ba?.a).toHaveLength(4);
+    expect(designSections(analog)).toHaveLength(2);
     expect(analog.poles).toHaveLength(3);
     const iir = designFilter({ kind: "iir", family: "chebyshev1", response: "lowpass", order: 4, cutoffHz: 50, passbandRippleDb: 1, sampleRateHz: fs });
     expect(iir.sos).toHaveLength(2);
@@ -58,10 +59,11 @@ describe("designFilter", () => {
     stop.forEach((db) => expect(db).toBeLessThan(-40));
   });
 
-  it("analog ZOH through designFilter keeps the delay: a/(s+a) gives sos [0, b1, 0, 1, a1, 0]", () => {
+  it("analog ZOH through designFilter keeps the delay: a/(s+a) gives b = [0, b1], and sos [0, b1, 0, 1, a1, 0] for devices", () => {
     const a = 2 * Math.PI * 10;
     const d = designFilter({ kind: "analog", num: [a], den: [1, a], method: "zoh", sampleRateHz: 1000 });
-    const row = d.sos?.[0] ?? [];
+    expect(d.ba?.b[0]).toBe(0);
+    const row = designSections(d)[0] ?? [];
     expect(row[0]).toBe(0);
     expect(row[1]).toBeCloseTo(0.0608986, 7);
     expect(row[4]).toBeCloseTo(-0.9391014, 7);
