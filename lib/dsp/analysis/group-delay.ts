@@ -11,7 +11,7 @@ import { ascendingPolyAt } from "./evaluate";
  * a direct form b/a: that of b minus that of a (the phase of a quotient is the difference).
  * SOS: per section, numerator minus denominator, summed over sections. Each of the two quadratics is
  * written as z^{−d}·c·Π(1 − z_k·z⁻¹), and the same derivative formula applied to one factor gives the
- * closed form for a root z_k = r·e^{jθ} (Oppenheim & Schafer, DTSP §5.3):
+ * closed form for a root z_k = r·e^{jθ} (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.3):
  *   τ_k(ω) = r·((r − 1) + 2·sin²((ω−θ)/2)) / ((1 − r)² + 4r·sin²((ω−θ)/2)),
  * which is free of the cancellation the polynomial form suffers near a zero on the unit circle.
  *

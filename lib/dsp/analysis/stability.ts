@@ -35,7 +35,7 @@ function partPoleRadii(part: RunPart): number[] {
 /**
  * Stability triangle of one biquad denominator 1 + a1·z⁻¹ + a2·z⁻²: both poles lie strictly inside
  * the unit circle iff |a2| < 1 and |a1| < 1 + a2 (Jackson, Digital Filters and Signal Processing;
- * Oppenheim & Schafer ch. 6 — from memory).
+ * Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., ch. 6 — from memory).
  */
 export function sectionInStabilityTriangle(a1: number, a2: number): boolean {
   return Math.abs(a2) < 1 && Math.abs(a1) < 1 + a2;

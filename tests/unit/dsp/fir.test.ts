@@ -63,7 +63,7 @@ describe("windowed-sinc FIR against scipy.signal.firwin", () => {
 });
 
 describe("windowed-sinc formula checks", () => {
-  it("symmetric N-tap FIR has group delay (N − 1)/2 samples (field.md §2.5; Oppenheim & Schafer §5.7)", () => {
+  it("symmetric N-tap FIR has group delay (N − 1)/2 samples (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.7)", () => {
     for (const taps of [10, 31]) {
       const design = designFilter({ kind: "fir", response: "lowpass", window: "hamming", taps, cutoffHz: 100, sampleRateHz: 1000 });
       const { groupDelaySamples } = frequencyResponse(design, [1, 20, 50, 90]);
@@ -118,7 +118,7 @@ describe("windowed-sinc formula checks", () => {
 });
 
 describe("moving average", () => {
-  it("H(f) = sin(πfN/fs)/(N·sin(πf/fs)) in magnitude; first null at fs/N (S. W. Smith ch. 15; Oppenheim & Schafer §5.7)", () => {
+  it("H(f) = sin(πfN/fs)/(N·sin(πf/fs)) in magnitude; first null at fs/N (S. W. Smith ch. 15; Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.7)", () => {
     const fs = 1000;
     const n = 20;
     const design = designFilter({ kind: "moving-average", length: n, sampleRateHz: fs });
@@ -152,7 +152,7 @@ describe("moving average", () => {
 });
 
 describe("first-difference differentiator and EMA", () => {
-  it("taps [fs, −fs]; |H(f)| = 2·fs·sin(πf/fs), 0.9836 of the ideal 2πf at fs/10 (field.md §2.5)", () => {
+  it("taps [fs, −fs]; |H(f)| = 2·fs·sin(πf/fs), 0.9836 of the ideal 2πf at fs/10 (closed form of the first difference; common practice)", () => {
     const fs = 1000;
     expect(firstDifferenceTaps(fs)).toEqual([1000, -1000]);
     const design = designFilter({ kind: "differentiator", sampleRateHz: fs });
@@ -162,7 +162,7 @@ describe("first-difference differentiator and EMA", () => {
     expect(10 ** (db / 20) / (TWO_PI * 100)).toBeCloseTo(0.9836, 4);
   });
 
-  it("EMA α = 1 − e^{−2π·fc/fs}: fs = 1 kHz, fc = 10 Hz → α = 0.060899 and −3.009 dB at fc (field.md §2.5)", () => {
+  it("EMA α = 1 − e^{−2π·fc/fs}: fs = 1 kHz, fc = 10 Hz → α = 0.060899 and −3.009 dB at fc (common practice: the ZOH image of a first-order low-pass)", () => {
     expect(emaAlpha(10, 1000)).toBeCloseTo(0.060899, 6);
     const design = designFilter({ kind: "ema", cutoffHz: 10, sampleRateHz: 1000 });
     expect(design.sos).toHaveLength(1);
