@@ -3,7 +3,7 @@ import {
   cutoffPoints,
   designStages,
   frequencyResponse,
-  sectionCount,
+  directFormSectionCount,
   stability,
   stepMetrics,
   toMs,
@@ -51,7 +51,7 @@ export function candidateFigures(design: FilterDesign, opts: FigureOptions = {})
   const sum = (count: (p: (typeof parts)[number]) => number) => parts.reduce((n, p) => n + count(p), 0);
   return {
     order: sum((p) => (p.taps ? p.taps.length - 1 : p.poles.length)),
-    sections: parts.some((p) => p.sos || p.ba) ? sum((p) => p.sos?.length ?? (p.ba ? sectionCount(p) : 0)) : null,
+    sections: parts.some((p) => p.sos || p.ba) ? sum((p) => p.sos?.length ?? (p.ba ? directFormSectionCount(p.ba) : 0)) : null,
     taps: parts.some((p) => p.taps) ? sum((p) => p.taps?.length ?? 0) : null,
     cutoffHz: cutoffPoints(design),
     attenuationAtNoiseDb: inBand(opts.noiseLineHz) ? attenuationDb(design, [opts.noiseLineHz])[0] : null,

@@ -11,10 +11,11 @@ export {
   designFromSos,
   designFromTaps,
   designTransferFunction,
+  directFormSectionCount,
   directFormSections,
   MAX_DIRECT_FORM_ORDER,
 } from "./transfer";
-export { designSections, designZeros, sectionCount } from "./zeros";
+export { designZeros } from "./zeros";
 export { directFormDcGain } from "./dc-gain";
 export { accurateSum } from "./accurate-sum";
 

@@ -1,6 +1,6 @@
 import { zpk2sos } from "./iir/zpk2sos";
 import { finiteRoots } from "./poly-finite";
-import type { Complex, FilterDesign } from "./types";
+import type { Complex, DirectForm, FilterDesign } from "./types";
 
 /**
  * Highest denominator order a pasted b/a keeps in direct form. Up to this order a double-precision
@@ -59,6 +59,11 @@ export function designFromBa(b: number[], a: number[], sampleRateHz: number): Fi
   if (an.slice(1).every((c) => c === 0)) return designFromTaps(bn, sampleRateHz);
   const { zeros, poles, gain } = directFormZpk(bn, an);
   return { sampleRateHz, sos: sosWithDelay(zeros, poles, gain), zeros, poles, gain };
+}
+
+/** How many sections directFormSections gives: ⌈n/2⌉ for order n = max(len b, len a) − 1, at least 1. */
+export function directFormSectionCount(ba: DirectForm): number {
+  return Math.max(1, Math.ceil((Math.max(ba.b.length, ba.a.length) - 1) / 2));
 }
 
 /** A direct form b/a (a[0] = 1) as second-order sections: its roots paired by zpk2sos, a delay kept. */
