@@ -68,7 +68,10 @@ export function specFrequencies(spec: FilterSpec): number[] {
     case "fir":
       return typeof spec.cutoffHz === "number" ? [spec.cutoffHz] : [...spec.cutoffHz];
     case "biquad":
+    case "notch":
       return [spec.centerHz];
+    case "comb":
+      return [spec.fundamentalHz];
     case "ema":
       return [spec.cutoffHz];
     case "analog":
