@@ -28,7 +28,7 @@ export function useDesignZeros(designs: FilterDesign[]): ZerosState[] {
     }
     for (const design of designs) {
       if (design.zeros || found.has(design) || workers.has(design)) continue;
-      const worker = new Worker(new URL("./zeros-worker.ts", import.meta.url));
+      const worker = new Worker(new URL("./zeros-worker.ts", import.meta.url), { type: "module" });
       workers.set(design, worker);
       const settle = (answer: ZerosAnswer) => {
         found.set(design, answer);

@@ -33,8 +33,9 @@ export const combSpecSchema = z
     if (!(f0 > 0 && f0 < fs / 2)) return;
     const n = combOrder(f0, fs);
     if (n === null) {
-      const below = fs / Math.ceil(fs / f0);
-      const above = fs / Math.floor(fs / f0);
+      const shown = (f: number) => Number(f.toPrecision(6));
+      const below = shown(fs / Math.ceil(fs / f0));
+      const above = shown(fs / Math.floor(fs / f0));
       refuse(
         ctx,
         ["fundamentalHz"],

@@ -73,8 +73,9 @@ describe(`comb against scipy ${fixture.scipyVersion} iircomb`, () => {
     expect(parsed.success).toBe(false);
     const f0 = c.spec.fundamentalHz;
     const fs = c.spec.sampleRateHz;
+    const shown = (f: number) => Number(f.toPrecision(6));
     expect(parsed.error?.issues.map((i) => i.message).join("\n")).toContain(
-      `the nearest fundamentals that divide ${fs} Hz are ${fs / Math.ceil(fs / f0)} Hz and ${fs / Math.floor(fs / f0)} Hz`,
+      `the nearest fundamentals that divide ${fs} Hz are ${shown(fs / Math.ceil(fs / f0))} Hz and ${shown(fs / Math.floor(fs / f0))} Hz`,
     );
   });
 
