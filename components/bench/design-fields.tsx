@@ -1,6 +1,6 @@
 "use client";
 
-import { useState } from "react";
+import { useState, type ReactNode } from "react";
 import { useFormContext } from "react-hook-form";
 import { withUnit } from "@/lib/bench/format";
 import { combOrder, estimateFirOrder, firOrderRequirementSchema, firWindows, FIR_DESIGN_LIMITS, notchShapes, SPEC_LIMITS, type FilterSpec } from "@/lib/dsp";
@@ -19,23 +19,15 @@ export function DesignFields({ values }: { values: FilterSpec }) {
       return <KaiserOrderHelper response={values.response} />;
     case "notch":
       return (
-        <>
-          <SelectField name="shape" label="Shape" options={SHAPES} />
-          <NumberField name="centerHz" label="Centre" unit="Hz" />
-          <NumberField name="q" label="Q = centre / −3 dB width" />
-          <div />
+        <ShapeFrequencyQ frequency="centerHz" frequencyLabel="Centre" qLabel="Q = centre / −3 dB width">
           <BandwidthNote centerHz={values.centerHz} q={values.q} sampleRateHz={values.sampleRateHz} />
-        </>
+        </ShapeFrequencyQ>
       );
     case "comb":
       return (
-        <>
-          <SelectField name="shape" label="Shape" options={SHAPES} />
-          <NumberField name="fundamentalHz" label="Fundamental" unit="Hz" />
-          <NumberField name="q" label="Q of each notch or peak" />
-          <div />
+        <ShapeFrequencyQ frequency="fundamentalHz" frequencyLabel="Fundamental" qLabel="Q of each notch or peak">
           <CombNote fundamentalHz={values.fundamentalHz} sampleRateHz={values.sampleRateHz} shape={values.shape} />
-        </>
+        </ShapeFrequencyQ>
       );
     case "fir-equiripple":
       return (
@@ -75,6 +67,19 @@ export function DesignFields({ values }: { values: FilterSpec }) {
     default:
       return null;
   }
+}
+
+/** Shape, one frequency and q (the notch and the comb), then a note about them. */
+function ShapeFrequencyQ({ frequency, frequencyLabel, qLabel, children }: { frequency: string; frequencyLabel: string; qLabel: string; children: ReactNode }) {
+  return (
+    <>
+      <SelectField name="shape" label="Shape" options={SHAPES} />
+      <NumberField name={frequency} label={frequencyLabel} unit="Hz" />
+      <NumberField name="q" label={qLabel} />
+      <div />
+      {children}
+    </>
+  );
 }
 
 /** How the bandwidth Q differs from the cookbook biquad's Q, with both −3 dB widths for the values typed. */

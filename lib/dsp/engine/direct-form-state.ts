@@ -1,4 +1,5 @@
 import { directFormDcGain } from "../dc-gain";
+import { StateVector } from "./state-vector";
 
 /**
  * A transfer function b/a (a[0] = 1) run in direct form II transposed with the arithmetic of
@@ -6,32 +7,21 @@ import { directFormDcGain } from "../dc-gain";
  * z[k−1] = (z[k] + x·b[k]) − y·a[k] for k = 1…L−2 and z[L−2] = x·b[L−1] − y·a[L−1]), so results agree
  * with lfilter bit for bit on IEEE-754 doubles. L − 1 states, unitless.
  */
-export class DirectFormState {
+export class DirectFormState extends StateVector {
   private readonly b: Float64Array;
   private readonly a: Float64Array;
-  private readonly z: Float64Array;
-  private readonly unitStep: Float64Array | undefined;
 
-  /** `withStep` precomputes the steady state for a constant input (throws when Σa = 0). */
+  /** `withStep` precomputes the steady state for a constant input (lfilter_zi; throws when Σa = 0). */
   constructor(b: readonly number[], a: readonly number[], withStep: boolean) {
     const length = Math.max(b.length, a.length);
-    this.b = new Float64Array(length);
-    this.a = new Float64Array(length);
-    this.b.set(b);
-    this.a.set(a);
-    this.z = new Float64Array(length - 1);
-    this.unitStep = withStep ? unitStepState(this.b, this.a) : undefined;
-  }
-
-  clear(): void {
-    this.z.fill(0);
-  }
-
-  /** Steady state for a constant input v: lfilter_zi(b, a) · v (scipy.signal convention). */
-  settle(v: number): void {
-    const unit = this.unitStep;
-    if (!unit) throw new Error("settle needs the step steady state, built with withStep = true");
-    for (let i = 0; i < unit.length; i++) this.z[i] = unit[i] * v;
+    const padded = (c: readonly number[]) => {
+      const out = new Float64Array(length);
+      out.set(c);
+      return out;
+    };
+    super(length - 1, withStep ? () => unitStepState(padded(b), padded(a)) : undefined);
+    this.b = padded(b);
+    this.a = padded(a);
   }
 
   run(x: Float64Array, y: Float64Array, start: number, end: number): void {
