@@ -28,7 +28,15 @@ export function useDesignZeros(designs: FilterDesign[]): ZerosState[] {
     }
     for (const design of designs) {
       if (design.zeros || found.has(design) || workers.has(design)) continue;
-      const worker = new Worker(new URL("./zeros-worker.ts", import.meta.url), { type: "module" });
+      let worker: Worker;
+      try {
+        worker = new Worker(new URL("./zeros-worker.ts", import.meta.url), { type: "module" });
+      } catch (err) {
+        // A Content-Security-Policy without worker-src 'self' refuses it; the page says so instead of blocking.
+        found.set(design, { error: `the browser refused the worker that finds them (${err instanceof Error ? err.message : String(err)})` });
+        refresh();
+        continue;
+      }
       workers.set(design, worker);
       const settle = (answer: ZerosAnswer) => {
         found.set(design, answer);
