@@ -22,6 +22,7 @@ import { STAGE_COLORS } from "@/lib/bench/colors";
 import { levelDb, withUnit } from "@/lib/bench/format";
 import { freqGrid, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
 import { PoleZeroMap } from "./pole-zero-map";
+import { useDesignZeros, type ZerosState } from "./use-design-zeros";
 
 /** One filter shown in the analysis views: a candidate or the production filter. */
 export interface AnalysisItem {
@@ -208,17 +209,36 @@ export function PolesView({ items }: { items: AnalysisItem[] }) {
     [items],
   );
   const { chains, item: chain, setChosen } = useChosenChain(items);
-  const stages = chain?.design.stages ?? [];
-  const stageSets = stages.map((s, k) => ({
+  const designs = useMemo(() => items.map((it) => it.design), [items]);
+  const stageDesigns = useMemo(() => chain?.design.stages ?? [], [chain]);
+  const zeros = useDesignZeros(designs);
+  const stageZeros = useDesignZeros(stageDesigns);
+  const found = (z: ZerosState) => ("zeros" in z ? z.zeros : []);
+  const stageSets = stageDesigns.map((s, k) => ({
     name: `Stage ${s.stage + 1}`,
     color: STAGE_COLORS[k % STAGE_COLORS.length],
-    zeros: s.zeros,
+    zeros: found(stageZeros[k]),
     poles: s.poles,
     summary: stageName(chain?.spec ?? null, s.stage),
   }));
+  const pending = items.filter((_, i) => "pending" in zeros[i]).map((it) => it.name);
+  const failed = items.flatMap((it, i) => {
+    const z = zeros[i];
+    return "error" in z ? [`${it.name}: ${z.error}`] : [];
+  });
   return (
     <div className="grid gap-4 sm:grid-cols-2">
-      <PoleZeroMap plane="z" label="Pole-zero map in the z-plane" sets={items.map((it) => ({ name: it.name, color: it.color, zeros: it.design.zeros, poles: it.design.poles }))} />
+      <div>
+        <PoleZeroMap
+          plane="z"
+          label="Pole-zero map in the z-plane"
+          sets={items.map((it, i) => ({ name: it.name, color: it.color, zeros: found(zeros[i]), poles: it.design.poles }))}
+        />
+        {pending.length > 0 && <p className="mt-1 text-xs text-slate-500" role="status">Finding the zeros of {pending.join(", ")} (long FIR filters take a few seconds)…</p>}
+        {failed.map((f) => (
+          <p key={f} className="mt-1 text-xs text-red-700 dark:text-red-300">Zeros not shown for {f}</p>
+        ))}
+      </div>
       {analog.length > 0 ? (
         <PoleZeroMap plane="s" label="Pole-zero map of the analog prototypes in the s-plane" sets={analog} />
       ) : (

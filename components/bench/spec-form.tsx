@@ -15,6 +15,7 @@ import {
   stageSpecSchema,
   type StageSpec,
 } from "@/lib/dsp";
+import { DesignFields } from "./design-fields";
 import { ListField, NumberField, SelectField } from "./form-fields";
 
 const opts = (values: readonly string[], labels: Record<string, string> = {}) => values.map((v) => ({ value: v, label: labels[v] ?? v }));
@@ -132,6 +133,7 @@ export function SpecForm({ initial, onValid }: { initial: StageSpec; onValid: (s
             {values.method === "tustin-prewarp" && <NumberField name="prewarpHz" label="Prewarp at" unit="Hz" optional />}
           </>
         )}
+        <DesignFields values={values} />
         {values.kind === "coefficients" && <CoefficientFields hasSos={values.sos !== undefined} onMode={(sos) => {
           if (sos) {
             form.setValue("b", undefined);

@@ -3,7 +3,7 @@ import { withUnit } from "@/lib/bench/format";
 import type { PhaseCost } from "@/lib/dsp/loop";
 import type { LoopAnalysis } from "./analysis";
 
-/** Typical targets (Franklin, Powell & Emami-Naeini, Feedback Control of Dynamic Systems — from memory). */
+/** Typical targets (Franklin, Powell & Emami-Naeini, Feedback Control of Dynamic Systems, 6th ed. — from memory). */
 export const LOOP_TARGETS = { phaseMarginDeg: 45, gainMarginDb: 6 } as const;
 
 export interface LoopCaution {

@@ -3,6 +3,7 @@ import {
   cutoffPoints,
   designStages,
   frequencyResponse,
+  directFormSectionCount,
   stability,
   stepMetrics,
   toMs,
@@ -13,7 +14,7 @@ import {
 export interface CandidateFigures {
   /** Filter order: pole count for SOS designs, taps − 1 for FIR, their sum over a chain's running stages. */
   order: number;
-  /** Second-order sections (over every running stage), or null when no stage has any. */
+  /** Second-order sections over every running stage (a direct form counted as the sections a device runs it as), or null when no stage has any. */
   sections: number | null;
   /** FIR taps (over every running FIR stage), or null when no stage is FIR. */
   taps: number | null;
@@ -50,7 +51,7 @@ export function candidateFigures(design: FilterDesign, opts: FigureOptions = {})
   const sum = (count: (p: (typeof parts)[number]) => number) => parts.reduce((n, p) => n + count(p), 0);
   return {
     order: sum((p) => (p.taps ? p.taps.length - 1 : p.poles.length)),
-    sections: parts.some((p) => p.sos) ? sum((p) => p.sos?.length ?? 0) : null,
+    sections: parts.some((p) => p.sos || p.ba) ? sum((p) => p.sos?.length ?? (p.ba ? directFormSectionCount(p.ba) : 0)) : null,
     taps: parts.some((p) => p.taps) ? sum((p) => p.taps?.length ?? 0) : null,
     cutoffHz: cutoffPoints(design),
     attenuationAtNoiseDb: inBand(opts.noiseLineHz) ? attenuationDb(design, [opts.noiseLineHz])[0] : null,

@@ -1,6 +1,20 @@
 import type { DiscretizationMethod, IirFamily, StageSpec } from "@/lib/dsp";
+import { COMB_LIMITS } from "@/lib/dsp";
 
-export const SPEC_KINDS = ["iir", "biquad", "fir", "moving-average", "differentiator", "ema", "analog", "coefficients"] as const;
+export const SPEC_KINDS = [
+  "iir",
+  "biquad",
+  "fir",
+  "moving-average",
+  "differentiator",
+  "ema",
+  "analog",
+  "coefficients",
+  "notch",
+  "comb",
+  "fir-equiripple",
+  "fir-arbitrary",
+] as const;
 export type SpecKind = (typeof SPEC_KINDS)[number];
 
 export const KIND_LABELS: Record<SpecKind, string> = {
@@ -12,6 +26,10 @@ export const KIND_LABELS: Record<SpecKind, string> = {
   ema: "Exponential smoothing",
   analog: "Analog H(s)",
   coefficients: "Pasted coefficients",
+  notch: "Notch / peak (bandwidth Q)",
+  comb: "Comb (every harmonic)",
+  "fir-equiripple": "FIR (equiripple)",
+  "fir-arbitrary": "FIR (arbitrary magnitude)",
 };
 
 /** How each IIR family is named in the forms. */
@@ -58,5 +76,16 @@ export function defaultSpec(kind: SpecKind, fs: number): StageSpec {
     }
     case "coefficients":
       return { kind, b: [0.25, 0.5, 0.25], a: [1], sampleRateHz };
+    case "notch":
+      return { kind, shape: "notch", centerHz: fs > 120 ? 50 : near(fs, 0.2), q: 30, sampleRateHz };
+    case "comb": {
+      // The fundamental must divide fs: the whole number of samples nearest 50 Hz (at most the comb's limit).
+      const delay = Math.min(COMB_LIMITS.maxCombOrder, Math.max(3, Math.round(fs / 50)));
+      return { kind, shape: "notch", fundamentalHz: fs / delay, q: 30, sampleRateHz };
+    }
+    case "fir-equiripple":
+      return { kind, taps: 51, bandsHz: [0, near(fs, 0.1), near(fs, 0.15), fs / 2], desired: [1, 0], weights: [1, 1], sampleRateHz };
+    case "fir-arbitrary":
+      return { kind, taps: 101, freqsHz: [0, near(fs, 0.1), near(fs, 0.15), fs / 2], gains: [1, 1, 0, 0], window: "hamming", sampleRateHz };
   }
 }

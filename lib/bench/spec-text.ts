@@ -46,6 +46,14 @@ export function stageSummary(spec: StageSpec): string {
       return `Exponential smoothing · ${hz(spec.cutoffHz)}`;
     case "analog":
       return `Analog H(s) order ${spec.den.length - 1} · ${METHOD[spec.method]}`;
+    case "fir-equiripple":
+      return `Equiripple FIR ${spec.taps} taps · ${spec.desired.length} bands`;
+    case "fir-arbitrary":
+      return `Arbitrary FIR ${spec.taps} taps · ${capital(spec.window)} · ${spec.freqsHz.length} points`;
+    case "notch":
+      return `${capital(spec.shape)} · ${hz(spec.centerHz)}, Q ${withUnit(spec.q, "")} (−3 dB width ${hz(spec.centerHz / spec.q)})`;
+    case "comb":
+      return `Comb ${spec.shape} · ${hz(spec.fundamentalHz)} and harmonics, Q ${withUnit(spec.q, "")}`;
     case "coefficients":
       return spec.sos ? `Pasted SOS · ${spec.sos.length} sections` : `Pasted b/a · ${spec.b?.length ?? 0}/${spec.a?.length ?? 1} coefficients`;
   }
@@ -60,7 +68,10 @@ export function specFrequencies(spec: FilterSpec): number[] {
     case "fir":
       return typeof spec.cutoffHz === "number" ? [spec.cutoffHz] : [...spec.cutoffHz];
     case "biquad":
+    case "notch":
       return [spec.centerHz];
+    case "comb":
+      return [spec.fundamentalHz];
     case "ema":
       return [spec.cutoffHz];
     case "analog":

@@ -1,15 +1,19 @@
 import { rbjBiquad } from "./biquad";
+import { combDesign } from "./comb";
 import { discretize } from "./discretize/discretize";
 import { emaTransferFunction } from "./ema";
+import { arbitraryFirTaps } from "./fir/arbitrary";
 import { firstDifferenceTaps } from "./fir/differentiator";
 import { movingAverage } from "./fir/movingAverage";
+import { equirippleTaps } from "./fir/remez";
 import { windowedSinc } from "./fir/windowedSinc";
 import { kaiserBeta } from "./fir/windows";
 import { designIir } from "./iir/design";
+import { bandwidthNotchSection } from "./notch";
 import { chainDesign } from "./chain";
 import { activeStages, filterSpecSchema, type FilterSpec } from "./filter-spec";
 import type { StageSpec } from "./spec";
-import { designFromBa, designFromSos, designFromTaps } from "./transfer";
+import { designFromBa, designFromSos, designFromTaps, designTransferFunction } from "./transfer";
 import type { FilterDesign } from "./types";
 
 /**
@@ -51,9 +55,17 @@ function designStage(spec: StageSpec): FilterDesign {
     }
     case "analog": {
       const { b, a } = discretize(spec, fs, spec.method, { prewarpHz: spec.prewarpHz });
-      return designFromBa(b, a, fs);
+      return designTransferFunction(b, a, fs);
     }
+    case "fir-equiripple":
+      return designFromTaps(equirippleTaps(spec), fs);
+    case "fir-arbitrary":
+      return designFromTaps(arbitraryFirTaps(spec), fs);
+    case "notch":
+      return designFromSos([bandwidthNotchSection(spec.shape, spec.centerHz, spec.q, fs)], fs);
+    case "comb":
+      return { sampleRateHz: fs, ...combDesign(spec.shape, spec.fundamentalHz, spec.q, fs) };
     case "coefficients":
-      return spec.sos !== undefined ? designFromSos(spec.sos, fs) : designFromBa(spec.b ?? [], spec.a ?? [1], fs);
+      return spec.sos !== undefined ? designFromSos(spec.sos, fs) : designTransferFunction(spec.b ?? [], spec.a ?? [1], fs);
   }
 }

@@ -4,7 +4,11 @@ import { discretizationMethods } from "./discretize/discretize";
 import { MAX_ANALOG_ORDER } from "./discretize/rational";
 import { firResponses } from "./fir/windowedSinc";
 import { firWindows, zeroEndedWindows } from "./fir/windows";
+import { COMB_LIMITS, combSpecSchema } from "./comb-spec";
+import { FIR_DESIGN_LIMITS, firArbitrarySpecSchema, firEquirippleSpecSchema } from "./fir-design-spec";
 import { checkCutoffs, iirSpecSchema } from "./iir/spec";
+import { NOTCH_LIMITS, notchSpecSchema } from "./notch-spec";
+import { checkBelowNyquist, checkInteger, coefficientList, finite, refuse, sampleRateHz } from "./spec-fields";
 
 /** Limits of the design requests (product choices; each refusal message states the allowed range). */
 export const SPEC_LIMITS = {
@@ -18,35 +22,10 @@ export const SPEC_LIMITS = {
   maxPastedDenominator: 65,
   maxSosRows: 64,
   maxChainStages: 8,
+  ...NOTCH_LIMITS,
+  ...COMB_LIMITS,
+  ...FIR_DESIGN_LIMITS,
 } as const;
-
-const finite = (what: string) => z.number({ error: `${what} must be a finite number` });
-
-const sampleRateHz = finite("sampleRateHz").positive({ error: "sampleRateHz must be a finite number > 0 Hz" });
-
-const coefficientList = (what: string, max: number) =>
-  z
-    .array(finite(`every ${what} coefficient`), { error: `${what} must be a list of numbers` })
-    .min(1, { error: `${what} must have at least 1 coefficient` })
-    .max(max, { error: `${what} must have at most ${max} coefficients` });
-
-type Ctx = z.RefinementCtx;
-
-function refuse(ctx: Ctx, path: Array<string | number>, message: string): void {
-  ctx.addIssue({ code: "custom", path, message });
-}
-
-function checkBelowNyquist(ctx: Ctx, field: string, value: number, fs: number): void {
-  if (!(value > 0 && value < fs / 2)) {
-    refuse(ctx, [field], `${field} must satisfy 0 < f < sampleRateHz/2 = ${fs / 2} Hz (got ${value})`);
-  }
-}
-
-function checkInteger(ctx: Ctx, field: string, value: number, min: number, max: number): void {
-  if (!(Number.isInteger(value) && value >= min && value <= max)) {
-    refuse(ctx, [field], `${field} must be an integer from ${min} to ${max} (got ${value})`);
-  }
-}
 
 /** A cookbook biquad; gainDb is required by peaking and the shelves and refused by the other shapes. */
 export const biquadSpecSchema = z
@@ -209,6 +188,10 @@ export const stageSpecSchema = z.discriminatedUnion("kind", [
   emaSpecSchema,
   analogSpecSchema,
   coefficientsSpecSchema,
+  notchSpecSchema,
+  combSpecSchema,
+  firEquirippleSpecSchema,
+  firArbitrarySpecSchema,
 ]);
 
 export type StageSpec = z.infer<typeof stageSpecSchema>;

@@ -1,5 +1,5 @@
 /**
- * What each demo channel carries, in the channel's unit (see /work/shared/notes/product.md):
+ * What each demo channel carries, in the channel's unit (the invented demo lab of the README):
  * mains pickup at 50 Hz with harmonics, machine tones, a structural resonance (white noise through
  * a band-pass), broadband noise, slow drift, setpoint or load steps, spikes and dropped batches.
  */

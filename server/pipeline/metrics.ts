@@ -18,7 +18,7 @@ function fftOf(size: number): FFT {
  * Lag of y behind x in samples: the k in [0, maxLag] maximising the cross-correlation
  * Σ (x[n−k] − x̄)(y[n] − ȳ) divided by the overlap length n − k (unweighted cross-correlation peak;
  * Knapp & Carter 1976 describe the general estimator). All lags come from one zero-padded FFT
- * product, IFFT(conj(X)·Y), by the correlation theorem (Oppenheim & Schafer, Discrete-Time Signal Processing).
+ * product, IFFT(conj(X)·Y), by the correlation theorem (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed.).
  */
 export function crossCorrelationLag(x: Float64Array, y: Float64Array, maxLag: number): number {
   const n = Math.min(x.length, y.length);

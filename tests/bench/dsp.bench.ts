@@ -1,5 +1,6 @@
 /**
- * Throughput of the DSP engine against scipy.signal.sosfilt, and the CPU share of a live filter bank.
+ * Throughput of the DSP engine against scipy.signal.sosfilt, the CPU share of a live filter bank, and the
+ * time to design a long FIR and compute its response.
  * Run: npx tsx tests/bench/dsp.bench.ts   (needs /usr/bin/python3 with scipy; prints a final JSON line)
  *
  * 1. An 8th-order Butterworth lowpass (4 sections, designIir, 100 Hz at fs = 1 kHz) filters 10^7
@@ -18,12 +19,20 @@
  * 2. The live case: 64 channels × 4 candidate filters (4 sections each) at 2 kHz, fed in 40-sample
  *    blocks through createFilterBank; CPU share of one core = busy time / simulated real time.
  *    Target: < 5 %.
+ * 3. A long FIR as the bench shows it: designFilter of a 1023-tap Hamming low-pass, then
+ *    frequencyResponse (magnitude, phase, group delay) on the analysis views' 600-point log grid; best
+ *    of 5 after one warm-up. Target: < 100 ms (its zeros are not found: designZeros does that only for
+ *    the pole-zero view). Beside it, scipy firwin + freqz + group_delay at the same frequencies
+ *    (tests/bench/scipy_fir_response.py) in the same run.
  * Timings vary with machine load; no unit test asserts on them.
  */
 import { execFileSync } from "node:child_process";
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { freqGrid } from "../../lib/dsp/analysis/grid";
+import { frequencyResponse } from "../../lib/dsp/analysis/frequency-response";
+import { designFilter } from "../../lib/dsp/design";
 import { createFilterBank } from "../../lib/dsp/engine/filter-bank";
 import { filterSignal } from "../../lib/dsp/engine/filter-signal";
 import { designIir } from "../../lib/dsp/iir/design";
@@ -37,6 +46,7 @@ const BANK_RATE_HZ = 2000;
 const BLOCK = 40;
 const SIMULATED_SECONDS = 10;
 const CHILD_FLAG = "--filter-signal-only";
+const LONG_FIR = { taps: 1023, cutoffHz: 50, sampleRateHz: 1000, gridPoints: 600, targetMs: 100 };
 
 /** Seeded uniform noise in [−1, 1) from a 32-bit xorshift generator (Marsaglia 2003). */
 function noise(n: number, seed: number): Float64Array {
@@ -129,6 +139,23 @@ function bankShare() {
   return { seconds, cpuShare: seconds / SIMULATED_SECONDS };
 }
 
+/** Design and response of the long FIR, ours and scipy's, best of 5 each. */
+function longFir() {
+  const { taps, cutoffHz, sampleRateHz, gridPoints } = LONG_FIR;
+  const freqs = freqGrid(sampleRateHz, gridPoints, "log");
+  const run = () => {
+    const design = designFilter({ kind: "fir", response: "lowpass", window: "hamming", taps, cutoffHz, sampleRateHz });
+    return frequencyResponse(design, freqs).magnitudeDb.length;
+  };
+  const ours = bestOf(5, run);
+  const script = join(import.meta.dirname, "scipy_fir_response.py");
+  const stdout = execFileSync("/usr/bin/python3", [script, String(taps), String(cutoffHz), String(sampleRateHz), JSON.stringify(freqs)], {
+    encoding: "utf8",
+  });
+  const scipy = JSON.parse(stdout.trim().split("\n").pop() ?? "{}") as { seconds: number };
+  return { ms: ours.seconds * 1000, scipyMs: scipy.seconds * 1000 };
+}
+
 function main(): void {
   const design = lowpass(8, 100, 1000);
   if (process.argv.includes(CHILD_FLAG)) {
@@ -155,6 +182,11 @@ function main(): void {
     `filter bank: ${CHANNELS} channels × ${CANDIDATES} filters × ${BANK_RATE_HZ} Hz in ${BLOCK}-sample blocks: ` +
       `${(bank.cpuShare * 100).toFixed(2)} % of one core (target < 5 %)`,
   );
+  const fir = longFir();
+  console.log(
+    `long FIR: design + response of ${LONG_FIR.taps} taps on ${LONG_FIR.gridPoints} frequencies: ${fir.ms.toFixed(1)} ms ` +
+      `(target < ${LONG_FIR.targetMs} ms; scipy firwin + freqz + group_delay ${fir.scipyMs.toFixed(1)} ms, ratio ${(fir.scipyMs / fir.ms).toFixed(2)}×)`,
+  );
   console.log(
     JSON.stringify({
       samples: SAMPLES,
@@ -171,6 +203,9 @@ function main(): void {
       maxAbsDiff: t.maxAbsDiff,
       bankCpuShare: bank.cpuShare,
       bankCpuShareTarget: 0.05,
+      longFirMs: fir.ms,
+      longFirTargetMs: LONG_FIR.targetMs,
+      longFirScipyMs: fir.scipyMs,
       scipyVersion: t.scipyVersion,
     }),
   );

@@ -35,7 +35,7 @@ describe("POST /api/v1/sets", () => {
     expect(rev.state).toBe("draft");
     const analysis = rev.analysis as { stable: boolean; cutoffsHz: number[]; deployable: { ok: boolean } };
     expect(analysis.stable).toBe(true);
-    expect(analysis.cutoffsHz[0]).toBeCloseTo(100, 6); // −3.0103 dB at fc for Butterworth (field notes §2.1)
+    expect(analysis.cutoffsHz[0]).toBeCloseTo(100, 6); // a Butterworth is −3.0103 dB at fc: |H(jωc)|² = 1/2 (Butterworth 1930), kept by the prewarped bilinear map
     expect(analysis.deployable.ok).toBe(true);
     const audit = await lab.db.selectFrom("audit_log").select("action").where("entity_id", "=", String(body.setId)).execute();
     expect(audit.map((a) => a.action)).toContain("set.create");

@@ -31,15 +31,17 @@ describe("comparison table figures", () => {
     expect(f.stable).toBe(true);
   });
 
-  it("give the published low-frequency delay of a 2nd-order 100 Hz Butterworth at 1 kHz", () => {
-    // field notes §1.3: "a 2nd-order 100 Hz Butterworth at 1 kHz delays ≈ 2.2 samples at DC" [num].
+  it("give the low-frequency delay of a 2nd-order 100 Hz Butterworth at 1 kHz that its analog prototype predicts", () => {
+    // The analog prototype's DC group delay is Σ −Re(p_k)/|p_k|² = 1/(ωc·sin(π/2N)) = √2/ωc = 2.25 ms for N = 2 at
+    // 100 Hz (from the pole positions; common practice), 2.25 samples at 1 kHz; the bilinear design is close to it.
     const f = candidateFigures(designFilter(butter2));
     expect(f.delayDcSamples).toBeCloseTo(2.2, 1);
     expect(f.delayDcMs).toBeCloseTo(2.2, 1);
   });
 
   it("count taps and the (N−1)/2 delay of a symmetric FIR", () => {
-    // field notes §1.3: symmetric N-tap FIR delays (N−1)/2 samples.
+    // A symmetric N-tap FIR has generalized linear phase, delay (N−1)/2 samples (Oppenheim & Schafer,
+    // Discrete-Time Signal Processing, 3rd ed., §5.7).
     const f = candidateFigures(designFilter(fir), { delayAtHz: 30 });
     expect(f.taps).toBe(101);
     expect(f.sections).toBeNull();

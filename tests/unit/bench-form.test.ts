@@ -24,6 +24,16 @@ describe("candidate editor validation (filterSpecSchema through zodResolver)", (
     }
   });
 
+  it("starts the notch, comb and FIR design kinds from valid specs at every demo sample rate", () => {
+    for (const fs of [100, 500, 1000, 2000, 5000, 44100]) {
+      for (const kind of ["notch", "comb", "fir-equiripple", "fir-arbitrary"] as const) {
+        const spec = defaultSpec(kind, fs);
+        expect(filterSpecSchema.safeParse(spec).success, `${kind} at ${fs} Hz`).toBe(true);
+        expect(() => designFilter(spec), `${kind} at ${fs} Hz`).not.toThrow();
+      }
+    }
+  });
+
   it("puts a cutoff at or above Nyquist beside the cutoff field, with the allowed range", async () => {
     expect(await messageFor(filterSpecSchema, { ...iir, cutoffHz: 600 }, "cutoffHz")).toBe("cutoffHz must satisfy 0 < f < sampleRateHz/2 = 500 Hz (got 600)");
   });

@@ -44,9 +44,9 @@ describe("revision content", () => {
     expect(c.quantized?.format).toBe("q15");
     expect(c.quantized?.integers).toHaveLength(2);
     expect(c.analysis.stable).toBe(true);
-    // A Butterworth low-pass is 3.0103 dB down at its cutoff by definition (|H|² = 1/2; common practice).
-    expect(c.analysis.cutoffsHz[0]).toBeCloseTo(100, 6);
-    // Analog Butterworth N = 4: DC group delay Σ 1/sin((2k−1)π/8) / ωc = 2.6131/ωc s (from memory); the digital design is close at fc = fs/10.
+    expect(c.analysis.cutoffsHz[0]).toBeCloseTo(100, 6); // −3.0103 dB at fc: |H(jωc)|² = 1/2 (Butterworth 1930)
+    // Analog Butterworth N=4 DC delay 1/(ωc·sin(π/8)) = 2.6131/ωc s (from the pole positions, Σ −Re(p_k)/|p_k|²;
+    // common practice); the digital design is close to it at fc = fs/10.
     expect(c.analysis.groupDelayDcMs).toBeGreaterThan(((2.6131 / (2 * Math.PI * 100)) * 1000) * 0.9);
     expect(c.analysis.step.overshootPercent).toBeGreaterThan(5);
     expect(c.analysis.deployable).toEqual({ ok: true });
@@ -60,7 +60,7 @@ describe("revision content", () => {
     expect(c.analysis.deployable).toMatchObject({ ok: false, reason: expect.stringMatching(/unstable/) });
   });
 
-  it("marks a design whose Q15 numerator rounds to zero as not deployable (butter(2, 1 Hz, fs = 1 kHz): b0 ≈ 9.8e-6 < 2^-16, from memory)", () => {
+  it("marks a design whose Q15 numerator rounds to zero as not deployable (scipy butter(2, 1 Hz, fs = 1 kHz): b0 = 9.8e-6, below half a Q15 step 2^−16)", () => {
     const c = buildRevisionContent({ ...butter, order: 2, cutoffHz: 1 }, "q15");
     expect(c.analysis.stable).toBe(true);
     expect(c.analysis.deployable).toMatchObject({ ok: false, reason: expect.stringMatching(/all-zero numerator/) });

@@ -14,7 +14,7 @@ describe("revision diff", () => {
     expect(diffSpecs(a, a)).toEqual([]);
   });
 
-  it("plots on a log grid from fs/10⁴ to fs/2 where a Butterworth low-pass is −3.0103 dB at fc (field notes §2.1)", () => {
+  it("plots on a log grid from fs/10⁴ to fs/2 where a Butterworth low-pass is −3.0103 dB at fc (Butterworth 1930)", () => {
     const freqs = plotFrequencies(1000, 5);
     expect(freqs[0]).toBeCloseTo(0.1, 12);
     expect(freqs[4]).toBeCloseTo(500, 9);

@@ -1,5 +1,5 @@
 import type { StoredCoefficients } from "@/lib/coefficients";
-import { designFilter, quantizeDesign, zpk2sos, type FilterSpec } from "@/lib/dsp";
+import { designFilter, designZeros, quantizeDesign, zpk2sos, type FilterSpec } from "@/lib/dsp";
 
 /** The frame-strain fix from issue 10: notches at 50 Hz and 150 Hz, then a 4th-order Butterworth low-pass at 200 Hz (1 kHz). */
 export const humChain: FilterSpec = {
@@ -29,6 +29,6 @@ export const firLowpass255: Extract<FilterSpec, { kind: "fir" }> = {
  */
 export function legacyFirRevision(): StoredCoefficients {
   const design = designFilter({ ...firLowpass255, taps: 31 });
-  const sections = { ...design, taps: undefined, sos: zpk2sos(design.zeros, design.poles, design.gain) };
+  const sections = { ...design, taps: undefined, sos: zpk2sos(designZeros(design), design.poles, design.gain) };
   return { design, format: "q15", quantized: quantizeDesign(sections, "q15") };
 }

@@ -17,7 +17,7 @@ export function ascendingPolyAt(c: readonly number[], x: Complex): Complex {
 
 /**
  * H(e^{jω}) of a run form at ω rad/sample (dimensionless complex gain): the product over its parts
- * (a cascade multiplies, Oppenheim & Schafer DTSP §6.3) of each part's response.
+ * (a cascade multiplies, Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §6.3) of each part's response.
  */
 export function transferAt(form: RunForm, omega: number): Complex {
   let h: Complex = [1, 0];
@@ -27,11 +27,12 @@ export function transferAt(form: RunForm, omega: number): Complex {
 
 /**
  * H(e^{jω}) of one part: the product over sections of (b0 + b1·z⁻¹ + b2·z⁻²)/(1 + a1·z⁻¹ + a2·z⁻²),
- * or Σ h[n]·z⁻ⁿ for taps (Oppenheim & Schafer §5.1).
+ * Σ h[n]·z⁻ⁿ for taps, or Σ b_k z⁻ᵏ / Σ a_k z⁻ᵏ for a direct form (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.1).
  */
 export function partTransferAt(form: RunPart, omega: number): Complex {
   const x: Complex = [Math.cos(omega), -Math.sin(omega)];
   if (form.kind === "taps") return ascendingPolyAt(form.taps, x);
+  if (form.kind === "ba") return cDiv(ascendingPolyAt(form.b, x), ascendingPolyAt(form.a, x));
   const x2: Complex = cMul(x, x);
   let h: Complex = [1, 0];
   for (const [b0, b1, b2, , a1, a2] of form.sos) {

@@ -1,4 +1,5 @@
 import { cAbs } from "../complex";
+import { directFormDcGain } from "../dc-gain";
 import type { FilterDesign } from "../types";
 import { radPerSample, runForm, type RunForm } from "./design-form";
 import { transferAt } from "./evaluate";
@@ -6,8 +7,8 @@ import { linearGrid, logGrid } from "./grid";
 import { magnitudeToDb } from "./units";
 
 /**
- * DC gain H(z = 1) (dimensionless, signed): Π (b0+b1+b2)/(1+a1+a2) over sections times Σ taps of
- * each FIR part (a chain multiplies its stages).
+ * DC gain H(z = 1) (dimensionless, signed): Π (b0+b1+b2)/(1+a1+a2) over sections, Σ taps of each FIR
+ * part and Σb/Σa of each direct form (a chain multiplies its stages).
  * Throws when a pole sits at z = 1 (an integrator), where the DC gain is unbounded.
  */
 export function dcGain(design: FilterDesign): number {
@@ -16,12 +17,18 @@ export function dcGain(design: FilterDesign): number {
   return g;
 }
 
-/** dcGain, or null when a pole sits at z = 1 (1 + a1 + a2 = 0 in some section). */
+/** dcGain, or null when a pole sits at z = 1 (1 + a1 + a2 = 0 in some section, or Σa = 0). */
 export function dcGainOrNull(design: FilterDesign): number | null {
   let g = 1;
   for (const part of runForm(design)) {
     if (part.kind === "taps") {
       g *= part.taps.reduce((s, t) => s + t, 0);
+      continue;
+    }
+    if (part.kind === "ba") {
+      const gain = directFormDcGain(part.b, part.a);
+      if (gain === null) return null;
+      g *= gain;
       continue;
     }
     for (const [b0, b1, b2, , a1, a2] of part.sos) {

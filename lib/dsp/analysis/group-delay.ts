@@ -7,10 +7,11 @@ import { ascendingPolyAt } from "./evaluate";
 /**
  * Group delay −dφ/dω in samples, computed analytically (never by differentiating unwrapped phase).
  *
- * FIR taps: scipy.signal.group_delay's derivative formula τ(ω) = Re(Σ n·h[n]·z⁻ⁿ / Σ h[n]·z⁻ⁿ) at z = e^{jω}.
+ * FIR taps: scipy.signal.group_delay's derivative formula τ(ω) = Re(Σ n·h[n]·z⁻ⁿ / Σ h[n]·z⁻ⁿ) at z = e^{jω};
+ * a direct form b/a: that of b minus that of a (the phase of a quotient is the difference).
  * SOS: per section, numerator minus denominator, summed over sections. Each of the two quadratics is
  * written as z^{−d}·c·Π(1 − z_k·z⁻¹), and the same derivative formula applied to one factor gives the
- * closed form for a root z_k = r·e^{jθ} (Oppenheim & Schafer, DTSP §5.3):
+ * closed form for a root z_k = r·e^{jθ} (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.3):
  *   τ_k(ω) = r·((r − 1) + 2·sin²((ω−θ)/2)) / ((1 − r)² + 4r·sin²((ω−θ)/2)),
  * which is free of the cancellation the polynomial form suffers near a zero on the unit circle.
  *
@@ -35,9 +36,10 @@ export function groupDelayAt(form: RunForm, omegas: readonly number[]): number[]
 
 /** Group delay in samples of one part at each ω in rad/sample. */
 export function partGroupDelayAt(form: RunPart, omegas: readonly number[]): number[] {
-  if (form.kind === "taps") {
-    const weighted = form.taps.map((t, n) => n * t);
-    return omegas.map((w) => firGroupDelay(form.taps, weighted, w));
+  if (form.kind === "taps") return polynomialDelays(form.taps, omegas);
+  if (form.kind === "ba") {
+    const den = polynomialDelays(form.a, omegas);
+    return polynomialDelays(form.b, omegas).map((tau, i) => tau - den[i]);
   }
   const sections = form.sos.map((row) => ({ num: factor(row.slice(0, 3)), den: factor(row.slice(3, 6)) }));
   return omegas.map((w) => {
@@ -45,6 +47,13 @@ export function partGroupDelayAt(form: RunPart, omegas: readonly number[]): numb
     for (const { num, den } of sections) tau += factorDelay(num, w) - factorDelay(den, w);
     return tau;
   });
+}
+
+/** The derivative-formula group delay of one polynomial in z⁻¹ (taps, or b or a) at each ω. */
+function polynomialDelays(c: number[], omegas: readonly number[]): number[] {
+  const weighted = c.map((t, n) => n * t);
+  const scale = c.reduce((s, t) => s + Math.abs(t), 0);
+  return omegas.map((w) => firGroupDelay(c, weighted, scale, w));
 }
 
 interface Factored {
@@ -79,11 +88,10 @@ function rootDelay(root: Complex, omega: number): number {
 /** Horner rounding bound factor: |Σ h[n]·z⁻ⁿ| below this × (N+1)·ε·Σ|h[n]| counts as an exact zero. */
 const ROUNDING_FACTOR = 8;
 
-/** τ(ω) for taps h[n], given n·h[n] as `weighted`. */
-function firGroupDelay(taps: readonly number[], weighted: readonly number[], omega: number): number {
+/** τ(ω) for taps h[n], given n·h[n] as `weighted` and Σ|h[n]| as `scale`. */
+function firGroupDelay(taps: readonly number[], weighted: readonly number[], scale: number, omega: number): number {
   const x: Complex = [Math.cos(omega), -Math.sin(omega)];
   const den = ascendingPolyAt(taps, x);
-  const scale = taps.reduce((s, t) => s + Math.abs(t), 0);
   if (cAbs(den) > roundingBound(taps.length, scale)) {
     return cDiv(ascendingPolyAt(weighted, x), den)[0];
   }

@@ -1,7 +1,7 @@
 import { cAbs } from "../complex";
 import { polyRoots } from "../poly";
 import type { FilterDesign } from "../types";
-import { formSections, runForm, type RunForm } from "./design-form";
+import { runForm, type RunForm, type RunPart } from "./design-form";
 
 export interface Stability {
   /** True iff every pole lies strictly inside the unit circle (BIBO stability; FIR designs always; a chain iff every stage). */
@@ -12,7 +12,8 @@ export interface Stability {
 
 /**
  * Stability of the coefficients that actually run: poles are the roots of each SOS denominator
- * z² + a1·z + a2 (not design.poles), stable iff all |p| < 1 (Oppenheim & Schafer, DTSP §5.2).
+ * z² + a1·z + a2 and of each direct form's a (not design.poles), stable iff all |p| < 1
+ * (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.2).
  */
 export function stability(design: FilterDesign): Stability {
   return formStability(runForm(design));
@@ -20,15 +21,21 @@ export function stability(design: FilterDesign): Stability {
 
 /** stability of an already checked run form. */
 export function formStability(form: RunForm): Stability {
-  const sections = formSections(form);
-  const maxPoleRadius = Math.max(...sections.flatMap((row) => polyRoots([1, row[4], row[5]]).map(cAbs)), 0);
+  const maxPoleRadius = Math.max(...form.flatMap(partPoleRadii), 0);
   return { stable: maxPoleRadius < 1, maxPoleRadius };
+}
+
+/** |p| of every pole of one running part (none for FIR taps). */
+function partPoleRadii(part: RunPart): number[] {
+  if (part.kind === "taps") return [];
+  if (part.kind === "ba") return polyRoots(part.a).map(cAbs);
+  return part.sos.flatMap((row) => polyRoots([1, row[4], row[5]]).map(cAbs));
 }
 
 /**
  * Stability triangle of one biquad denominator 1 + a1·z⁻¹ + a2·z⁻²: both poles lie strictly inside
  * the unit circle iff |a2| < 1 and |a1| < 1 + a2 (Jackson, Digital Filters and Signal Processing;
- * Oppenheim & Schafer ch. 6 — from memory).
+ * Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., ch. 6 — from memory).
  */
 export function sectionInStabilityTriangle(a1: number, a2: number): boolean {
   return Math.abs(a2) < 1 && Math.abs(a1) < 1 + a2;

@@ -67,7 +67,7 @@ export function discretize(
 
 /**
  * The period T' = (2/ω₀)·tan(ω₀T/2) in s that makes Tustin's 2/T' equal ω₀/tan(ω₀T/2), the
- * prewarped constant (Franklin, Powell & Workman §6.3.1).
+ * prewarped constant (Franklin, Powell & Workman, Digital Control of Dynamic Systems, 3rd ed., §6.3.1).
  */
 function prewarpedPeriod(prewarpHz: number | undefined, sampleRateHz: number): number {
   const nyquist = sampleRateHz / 2;

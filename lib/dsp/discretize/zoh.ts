@@ -4,7 +4,7 @@ import { scaledCompanion } from "./companion";
 /**
  * Zero-order-hold (step-invariant) equivalent of H(s) = num(s)/den(s) (equal length n + 1,
  * den[0] ≠ 0) for sample period T in s; returns b, a as coefficients of z⁰ … z⁻ⁿ with a[0] = 1.
- * Method (Franklin, Powell & Workman, Digital Control of Dynamic Systems §6.3.2; the
+ * Method (Franklin, Powell & Workman, Digital Control of Dynamic Systems, 3rd ed., §6.3.2; the
  * scipy.signal.cont2discrete 'zoh' realisation up to a diagonal state scaling): controllable
  * canonical state space (scipy tf2ss layout) scaled by scaledCompanion; Φ and Γ from one matrix
  * exponential of [[A·T, B·T], [0, 0]] (Van Loan 1978, IEEE TAC 23(3)); denominator det(zI − Φ),

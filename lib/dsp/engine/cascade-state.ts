@@ -1,4 +1,6 @@
 import type { RunForm } from "../analysis/design-form";
+import { directFormDcGain } from "../dc-gain";
+import { DirectFormState } from "./direct-form-state";
 import { FirState } from "./fir-state";
 import { packSos, packTaps } from "./sos-coefficients";
 import { SosState } from "./sos-state";
@@ -33,11 +35,11 @@ export class CascadeState implements FilterState {
       if (part.kind === "sos" && last?.kind === "sos") merged[merged.length - 1] = { kind: "sos", sos: [...last.sos, ...part.sos] };
       else merged.push(part);
     }
-    this.parts = merged.map((part) =>
-      part.kind === "sos"
-        ? { state: new SosState(packSos(part.sos), withStep), dcGain: sosDcGain(part.sos) }
-        : { state: new FirState(packTaps(part.taps)), dcGain: part.taps.reduce((s, t) => s + t, 0) },
-    );
+    this.parts = merged.map((part): Part => {
+      if (part.kind === "sos") return { state: new SosState(packSos(part.sos), withStep), dcGain: sosDcGain(part.sos) };
+      if (part.kind === "ba") return { state: new DirectFormState(part.b, part.a, withStep), dcGain: directFormDcGain(part.b, part.a) ?? Infinity };
+      return { state: new FirState(packTaps(part.taps)), dcGain: part.taps.reduce((s, t) => s + t, 0) };
+    });
   }
 
   /** The single state when there is only one part (no cascade overhead), else the cascade itself. */

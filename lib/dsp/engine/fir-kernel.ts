@@ -2,7 +2,7 @@ import { compileKernel, numberLiteral } from "./codegen";
 
 /**
  * FIR inner loop over a history buffer: for n in [0, count), y[yStart + n] = Σₖ h[k]·buf[newest + n − k],
- * summed from acc = 0 for k = 0 … N − 1 in that order (direct convolution, Oppenheim & Schafer §5.7
+ * summed from acc = 0 for k = 0 … N − 1 in that order (direct convolution, Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.7
  * [mem]), so every kernel variant gives the same bits. Unitless.
  */
 export type FirKernel = (buf: Float64Array, y: Float64Array, newest: number, count: number, yStart: number) => void;

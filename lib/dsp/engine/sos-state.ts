@@ -1,30 +1,17 @@
 import { sosKernel, type SosKernel } from "./sos-kernel";
+import { StateVector } from "./state-vector";
 import { sosUnitStepState } from "./steady-state";
 
 /** A cascade of second-order sections with its DF2T state (2 per section), run by a fast kernel. */
-export class SosState {
+export class SosState extends StateVector {
   private readonly kernel: SosKernel;
-  private readonly z: Float64Array;
   private readonly saved: Float64Array;
-  private readonly unitStep: Float64Array | undefined;
 
-  /** `packed` is [b0, b1, b2, a1, a2] per section; `withStep` precomputes the step steady state. */
+  /** `packed` is [b0, b1, b2, a1, a2] per section; `withStep` precomputes the step steady state (sosfilt_zi). */
   constructor(packed: Float64Array, withStep: boolean) {
+    super((packed.length / 5) * 2, withStep ? () => sosUnitStepState(packed) : undefined);
     this.kernel = sosKernel(packed);
-    this.z = new Float64Array((packed.length / 5) * 2);
     this.saved = new Float64Array(this.z.length);
-    this.unitStep = withStep ? sosUnitStepState(packed) : undefined;
-  }
-
-  clear(): void {
-    this.z.fill(0);
-  }
-
-  /** Steady state for a constant input v: sosfilt_zi(sos) · v (scipy.signal convention). */
-  settle(v: number): void {
-    const unit = this.unitStep;
-    if (!unit) throw new Error("settle needs the step steady state, built with withStep = true");
-    for (let i = 0; i < unit.length; i++) this.z[i] = unit[i] * v;
   }
 
   run(x: Float64Array, y: Float64Array, start: number, end: number): void {

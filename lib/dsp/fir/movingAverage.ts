@@ -3,7 +3,7 @@ import type { Complex } from "../types";
 /**
  * N-point moving average: taps 1/N each; zeros e^{j2πk/N}, k = 1 … N−1 (exact, from the geometric
  * sum), N − 1 poles at the origin, gain 1/N. H(f) = sin(πfN/fs)/(N·sin(πf/fs))·e^{−jπf(N−1)/fs}
- * (S. W. Smith, The Scientist and Engineer's Guide to DSP ch. 15; Oppenheim & Schafer §5.7).
+ * (S. W. Smith, The Scientist and Engineer's Guide to Digital Signal Processing, 1997, ch. 15; Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.7).
  */
 export function movingAverage(length: number): { taps: number[]; zeros: Complex[]; poles: Complex[]; gain: number } {
   if (!Number.isInteger(length) || length < 1) {

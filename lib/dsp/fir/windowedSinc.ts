@@ -20,7 +20,7 @@ export interface WindowedSincParams {
  * Windowed-sinc linear-phase FIR taps (scipy.signal.firwin convention, scale=True): the ideal
  * band response Σ (f₂·sinc(f₂·m) − f₁·sinc(f₁·m)) over the pass bands (edges normalised to Nyquist,
  * m = n − (N−1)/2) times the symmetric window, then scaled to unit gain at DC (lowpass, bandstop),
- * at Nyquist (highpass) or at the pass-band centre (bandpass). Oppenheim & Schafer DTSP §7.5.
+ * at Nyquist (highpass) or at the pass-band centre (bandpass). Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §7.5.
  * Throws for an even N with highpass or bandstop (nonzero gain at Nyquist needs odd N), for N = 2
  * with a window that is 0 at both ends, and for cutoffs outside (0, fs/2).
  */

@@ -47,7 +47,7 @@ export function firWindow(kind: FirWindow, length: number, kaiserBeta?: number):
 
 /**
  * Kaiser window β for a stopband attenuation A in dB (Kaiser's empirical formula, Kaiser & Schafer
- * 1980; Oppenheim & Schafer DTSP eq. 7.75; scipy.signal.kaiser_beta): 0.1102·(A − 8.7) for A > 50,
+ * 1980; Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §7.5.3 — from memory; scipy.signal.kaiser_beta): 0.1102·(A − 8.7) for A > 50,
  * 0.5842·(A − 21)^0.4 + 0.07886·(A − 21) for 21 < A ≤ 50, else 0.
  */
 export function kaiserBeta(attenuationDb: number): number {

@@ -2,7 +2,7 @@ import type { QuantizedDesign } from "./quantize-design";
 
 /**
  * Refuse a quantized design whose poles are not all strictly inside the unit circle
- * (BIBO stability, Oppenheim & Schafer DTSP §5.2 — from memory). Throws naming the largest pole radius.
+ * (BIBO stability, Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.2 — from memory). Throws naming the largest pole radius.
  */
 export function assertDeployable(q: QuantizedDesign): void {
   if (q.stable && q.maxPoleRadius < 1) return;

@@ -24,7 +24,7 @@ export interface DirectFormQuantization {
 /**
  * Quantize the same design expanded to direct form, b(z)/a(z) = Π sections, to show why
  * second-order sections matter: high-order polynomial coefficients are very sensitive, so
- * clustered poles move far or leave the unit circle (Oppenheim & Schafer, DTSP ch. 6 — from memory).
+ * clustered poles move far or leave the unit circle (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., ch. 6 — from memory).
  * Favourable to direct form on purpose: b is normalised to peak |b| = 1 and its gain kept exact
  * in float64, b and a1…aN get separate post-shifts, and a0 = 1 is not stored. FIR: the taps.
  * A chain is expanded as a whole: every stage's polynomials multiplied together.

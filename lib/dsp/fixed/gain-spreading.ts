@@ -1,4 +1,4 @@
-import { runForm, type RunForm, type RunPart } from "../analysis/design-form";
+import { runPart, type SectionPart } from "../analysis/design-form";
 import { referenceDb, searchGrid } from "../analysis/gain";
 
 /**
@@ -9,10 +9,10 @@ import { referenceDb, searchGrid } from "../analysis/gain";
  * sinusoids, instead of leaving all the gain in section 0 (scipy.signal zpk2sos puts it there).
  * A section's numerator is scaled, an FIR part's taps; sampleRateHz only sets the frequency grid (Hz).
  */
-export function spreadGainForm(form: RunForm, sampleRateHz: number): RunForm {
-  const blocks: RunPart[] = form.flatMap((part) => (part.kind === "sos" ? part.sos.map((row): RunPart => ({ kind: "sos", sos: [row] })) : [part]));
+export function spreadGainForm(form: SectionPart[], sampleRateHz: number): SectionPart[] {
+  const blocks: SectionPart[] = form.flatMap((part) => (part.kind === "sos" ? part.sos.map((row): SectionPart => ({ kind: "sos", sos: [row] })) : [part]));
   if (blocks.length === 0) throw new Error("sos must have at least 1 section (got 0)");
-  const scaled: RunPart[] = [];
+  const scaled: SectionPart[] = [];
   let previousPeak = 1;
   blocks.slice(0, -1).forEach((block, k) => {
     const head = blocks.slice(0, k + 1);
@@ -30,17 +30,19 @@ export function spreadGainForm(form: RunForm, sampleRateHz: number): RunForm {
 /** spreadGainForm for plain SOS rows [b0, b1, b2, 1, a1, a2]. */
 export function spreadGain(sos: number[][], sampleRateHz: number): number[][] {
   if (sos.length === 0) throw new Error("sos must have at least 1 section (got 0)");
-  const [part] = spreadGainForm(runForm({ sampleRateHz, sos, zeros: [], poles: [], gain: 1 }), sampleRateHz);
+  const checked = runPart({ sos }, "");
+  if (checked.kind !== "sos") return [];
+  const [part] = spreadGainForm([checked], sampleRateHz);
   return part.kind === "sos" ? part.sos : [];
 }
 
-function scaleBlock(block: RunPart, f: number): RunPart {
+function scaleBlock(block: SectionPart, f: number): SectionPart {
   if (block.kind === "taps") return { kind: "taps", taps: block.taps.map((t) => t * f) };
   return { kind: "sos", sos: block.sos.map((row) => [row[0] * f, row[1] * f, row[2] * f, row[3], row[4], row[5]]) };
 }
 
 /** The scaled blocks gathered back into the parts they came from. */
-function regroup(form: RunForm, blocks: RunPart[]): RunForm {
+function regroup(form: SectionPart[], blocks: SectionPart[]): SectionPart[] {
   let next = 0;
   return form.map((part) => {
     if (part.kind === "taps") return blocks[next++];

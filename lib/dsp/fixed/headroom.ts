@@ -11,7 +11,7 @@ export interface StageHeadroom {
   sinePeakDb: number;
   /**
    * Σ|h[n]| of the chain up to this stage's output, in dB: the bound for the worst full-scale input
-   * (|y| ≤ Σ|h|·max|x|, the triangle inequality on the convolution sum; Oppenheim & Schafer DTSP §6.9,
+   * (|y| ≤ Σ|h|·max|x|, the triangle inequality on the convolution sum; Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §6.9,
    * overflow scaling — from memory). Above 0 dB an input of that worst shape can saturate there.
    */
   worstCaseDb: number;

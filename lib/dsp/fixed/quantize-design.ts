@@ -1,6 +1,7 @@
-import { runForm, runPart, type RunForm, type RunPart } from "../analysis/design-form";
+import { runForm, runPart, type RunForm, type RunPart, type SectionPart } from "../analysis/design-form";
 import { transferAt } from "../analysis/evaluate";
 import { formStability, stability } from "../analysis/stability";
+import { directFormSections } from "../transfer";
 import type { FilterDesign } from "../types";
 import { quantizeGroup, quantizeSections } from "./coefficient-quantizer";
 import { maxDeviationDb } from "./deviation";
@@ -55,10 +56,18 @@ function checkFormat(format: QuantFormat): void {
   }
 }
 
-function quantizePart(part: RunPart, format: QuantFormat): QuantizedPart {
+function quantizePart(part: SectionPart, format: QuantFormat): QuantizedPart {
   if (part.kind === "sos") return quantizeSections(part.sos, format);
   const group = quantizeGroup(part.taps, format);
   return { taps: group.values, integers: group.words ? [group.words] : undefined, shifts: [group.shift] };
+}
+
+/**
+ * A part as fixed point runs it: a direct form factored into sections (its roots paired by zpk2sos),
+ * since rounding a high-order polynomial's coefficients moves its roots far more than rounding sections.
+ */
+function sectionPart(part: RunPart): SectionPart {
+  return part.kind === "ba" ? { kind: "sos", sos: directFormSections(part.b, part.a) } : part;
 }
 
 /**
@@ -81,7 +90,8 @@ export function quantizeDesign(design: FilterDesign, format: QuantFormat): Quant
   checkFormat(format);
   const form = runForm(design);
   const before = stability(design);
-  const spread = form.length === 1 && form[0].kind === "taps" ? form : spreadGainForm(form, design.sampleRateHz);
+  const sections = form.map(sectionPart);
+  const spread = sections.length === 1 && sections[0].kind === "taps" ? sections : spreadGainForm(sections, design.sampleRateHz);
   const parts = spread.map((part) => quantizePart(part, format));
   const quantizedForm = partsForm(parts, design.stages !== undefined);
   const after = formStability(quantizedForm);

@@ -5,7 +5,7 @@ import type { Zpk } from "./zpk";
 /**
  * Bilinear (Tustin) transform of an analog zpk (rad/s) to a digital zpk at sampleRateHz:
  * z = (2fs + s)/(2fs − s); zeros at infinity go to z = −1; gain k·Re(Π(2fs − zᵢ)/Π(2fs − pᵢ))
- * (Oppenheim & Schafer DTSP §7.2; scipy.signal bilinear_zpk convention).
+ * (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §7.2; scipy.signal bilinear_zpk convention).
  */
 export function bilinearZpk(zeros: Complex[], poles: Complex[], gain: number, sampleRateHz: number): Zpk {
   if (!(Number.isFinite(sampleRateHz) && sampleRateHz > 0)) {

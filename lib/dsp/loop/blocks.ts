@@ -33,8 +33,8 @@ function sumTf(terms: DigitalTf[]): DigitalTf {
 }
 
 /**
- * The parallel PID Kp + Ki/s + Kd·s/(1 + s·Tf), Tf = Kd/(Kp·N) (Åström & Murray, Feedback Systems
- * §10.5), with the integral and the filtered derivative each discretised by the chosen method and the
+ * The parallel PID Kp + Ki/s + Kd·s/(1 + s·Tf), Tf = Kd/(Kp·N) (Åström & Murray, Feedback Systems:
+ * An Introduction for Scientists and Engineers, §10.5), with the integral and the filtered derivative each discretised by the chosen method and the
  * terms summed; absent terms (gain 0) add no states.
  */
 function pidTf(c: PidController, fs: number): DigitalTf {
@@ -53,7 +53,7 @@ export function controllerTf(c: LoopController, fs: number): DigitalTf {
 
 /**
  * The blocks of a validated loop model: the plant by zero-order hold (a plant driven by a DAC;
- * Franklin, Powell & Workman, Digital Control of Dynamic Systems §6.3.2), the controller by its method.
+ * Franklin, Powell & Workman, Digital Control of Dynamic Systems, 3rd ed., §6.3.2), the controller by its method.
  */
 export function loopBlocks(model: LoopModel): LoopBlocks {
   const fs = model.sampleRateHz;

@@ -82,8 +82,8 @@ export function findCrossings(at: LoopEvaluator, fs: number): { gain: Crossing[]
 
 /**
  * Gain margin, phase margin and delay margin of the loop L = C·z⁻ᵈ·P·F (Franklin, Powell &
- * Emami-Naeini, Feedback Control of Dynamic Systems §6.4; delay margin PM/ωc, Åström & Murray,
- * Feedback Systems §10.3 — from memory). With several crossings the worst is reported: the smallest
+ * Emami-Naeini, Feedback Control of Dynamic Systems, 6th ed., §6.4; delay margin PM/ωc, Åström & Murray,
+ * Feedback Systems: An Introduction for Scientists and Engineers, §10.3 — from memory). With several crossings the worst is reported: the smallest
  * phase margin, and the gain margin nearest 0 dB (negative when the loop only tolerates a gain
  * reduction). The margins read the Nyquist plot; they presume a closed loop that is stable at the
  * nominal gain — check closedLoopPoles.

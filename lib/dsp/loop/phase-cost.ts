@@ -14,7 +14,7 @@ const UNWRAP_POINTS_PER_BAND = 8192;
 
 /**
  * The phase a filter adds at atHz (0 < atHz < fs/2), e.g. at a loop's crossover, where it is
- * lost from the phase margin one for one (Franklin, Powell & Emami-Naeini §6.4 — from memory). A
+ * lost from the phase margin one for one (Franklin, Powell & Emami-Naeini, Feedback Control of Dynamic Systems, 6th ed., §6.4 — from memory). A
  * pure delay of Td costs 360°·f·Td. The phase is unwrapped on a linear grid from 0 Hz.
  */
 export function filterPhaseCost(design: FilterDesign, atHz: number): PhaseCost {

@@ -43,7 +43,7 @@ function warningFor(degree: number): string | null {
 
 /**
  * Closed-loop poles of unity feedback around L (the roots of 1 + L(z) = 0, i.e. of den + num;
- * Ogata, Discrete-Time Control Systems §4.2 — from memory), via polyRoots.
+ * Ogata, Discrete-Time Control Systems, 2nd ed., §4.2 — from memory), via polyRoots.
  */
 export function closedLoopPoles(model: unknown): ClosedLoopPoles {
   const { num, den } = loopPolynomials(loopBlocks(parseLoopModel(model)));
@@ -54,7 +54,7 @@ export function closedLoopPoles(model: unknown): ClosedLoopPoles {
 
 /**
  * Root locus: for each gain k ≥ 0, the roots of den + k·num, the poles of 1 + k·L(z) (Evans 1950;
- * Ogata, Discrete-Time Control Systems §4.4 — from memory). k = 0 gives the open-loop poles.
+ * Ogata, Discrete-Time Control Systems, 2nd ed., §4.4 — from memory). k = 0 gives the open-loop poles.
  */
 export function rootLocus(model: unknown, gains: readonly number[]): Complex[][] {
   gains.forEach(checkGain);

@@ -12,7 +12,7 @@ export type LoopEvaluator = (omega: number) => Complex;
 
 /**
  * L(e^{jω}) = C·e^{−jωd}·P·F evaluated factor by factor on the unit circle, F from its own sections
- * or taps (no polynomial expansion); z = e^{jω} (Oppenheim & Schafer §5.1).
+ * or taps (no polynomial expansion); z = e^{jω} (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.1).
  */
 export function loopEvaluator(blocks: LoopBlocks): LoopEvaluator {
   const filter: RunForm | null = blocks.filter ? runForm(blocks.filter) : null;

@@ -46,7 +46,7 @@ const method = z.enum(discretizationMethods, { error: `method must be one of ${d
 
 /**
  * PID in parallel form with a filtered derivative, C(s) = Kp + Ki/s + Kd·s/(1 + s·Tf), Tf = Td/N,
- * Td = Kd/Kp (Åström & Murray, Feedback Systems §10.5). Units: Kp in u per unit error, Ki in u per
+ * Td = Kd/Kp (Åström & Murray, Feedback Systems: An Introduction for Scientists and Engineers, §10.5). Units: Kp in u per unit error, Ki in u per
  * unit error per s, Kd in u·s per unit error; N dimensionless.
  */
 export const pidControllerSchema = z.object({

@@ -31,7 +31,7 @@ function runner(tf: DigitalTf, fs: number): StreamingFilter {
  * e = r − F·y, u = z⁻ᵈ·C·e, y = P·u (the sensor filter sits in the feedback path, so y settles at
  * 1/F(1)). Simulated sample by sample with each block's difference equation (lib/dsp streaming
  * filters, DF2T); the leading zeros of C and P join the delay d, which the schema keeps ≥ 1 so the
- * loop is causal (Franklin, Powell & Workman, Digital Control of Dynamic Systems ch. 8 — from memory).
+ * loop is causal (Franklin, Powell & Workman, Digital Control of Dynamic Systems, 3rd ed., ch. 8 — from memory).
  * An unstable loop grows without bound; samples may reach ±Infinity or NaN.
  */
 export function closedLoopStep(model: unknown, n: number): ClosedLoopStep {

@@ -54,7 +54,7 @@ describe("analysis properties (fast-check)", () => {
     );
   });
 
-  it("a symmetric N-tap FIR has group delay (N−1)/2 at every frequency (Oppenheim & Schafer §5.7)", () => {
+  it("a symmetric N-tap FIR has group delay (N−1)/2 at every frequency (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.7)", () => {
     fc.assert(
       fc.property(
         fc.array(fc.double({ min: -1, max: 1, noNaN: true }), { minLength: 1, maxLength: 30 }),

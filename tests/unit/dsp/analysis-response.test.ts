@@ -82,7 +82,7 @@ describe(`analogResponse against scipy.signal ${fixture.scipyVersion} freqs_zpk/
     });
   });
 
-  it("analog Butterworth N=4 is −3.0103 dB with phase −N·45° at ωc = 1 rad/s (field.md §2.1, Butterworth 1930)", () => {
+  it("analog Butterworth N=4 is −3.0103 dB with phase −N·45° at ωc = 1 rad/s (Butterworth 1930; the poles sit symmetrically about ωc, common practice)", () => {
     const c = fixture.analog.find((k) => k.name === "buttap4");
     if (!c) throw new Error("buttap4 missing");
     const fc = 1 / (2 * Math.PI);
@@ -93,7 +93,7 @@ describe(`analogResponse against scipy.signal ${fixture.scipyVersion} freqs_zpk/
 });
 
 describe("cutoffPoints, peak gain and attenuation", () => {
-  it("Butterworth is −3.0103 dB at its design cutoff, so cutoffPoints returns it (field.md §2.1)", () => {
+  it("Butterworth is −3.0103 dB at its design cutoff, so cutoffPoints returns it (Butterworth 1930; prewarped as scipy.signal.butter)", () => {
     const lp = design(byName("butter4_lowpass"));
     const [fc, ...rest] = cutoffPoints(lp);
     expect(rest).toEqual([]);
@@ -105,7 +105,7 @@ describe("cutoffPoints, peak gain and attenuation", () => {
     expect(Math.abs(fcHp - 20) / 20).toBeLessThanOrEqual(1e-8);
   });
 
-  it("the notch (scipy iirnotch(50, 30), Orfanidis bandwidth) has two −3 dB points about f0/Q = 1.665 Hz apart (field.md §2.2)", () => {
+  it("the notch (scipy iirnotch(50, 30)) has two −3 dB points f0/Q = 1.667 Hz apart (q = f0/Δf: Orfanidis, Introduction to Signal Processing, 1996, §11.3)", () => {
     const points = cutoffPoints(design(byName("notch50")));
     expect(points).toHaveLength(2);
     expect(points[1] - points[0]).toBeCloseTo(50 / 30, 2);
@@ -130,7 +130,7 @@ describe("cutoffPoints, peak gain and attenuation", () => {
 });
 
 describe("group delay: published checks and unit-circle zeros", () => {
-  it("firwin(51) (symmetric) has group delay (N−1)/2 = 25 samples everywhere, nulls included (O&S §5.7, field.md §2.5)", () => {
+  it("firwin(51) (symmetric) has group delay (N−1)/2 = 25 samples everywhere, nulls included (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §5.7)", () => {
     const fir = design(byName("firwin51"));
     const r = frequencyResponse(fir, freqGrid(1000, 2001, "linear"));
     for (const gd of r.groupDelaySamples) expect(gd).toBeCloseTo(25, 6);
@@ -169,14 +169,14 @@ describe("group delay: published checks and unit-circle zeros", () => {
 describe("with designs from lib/dsp/iir", () => {
   const spec: IirSpec = { kind: "iir", family: "butterworth", response: "lowpass", order: 4, cutoffHz: 100, sampleRateHz: 1000 };
 
-  it("digital and analog Butterworth are both −3.0103 dB at the design cutoff (field.md §2.1, §2.3 prewarping)", () => {
+  it("digital and analog Butterworth are both −3.0103 dB at the design cutoff (Butterworth 1930; the bilinear map prewarped at the cutoff, as scipy.signal.butter)", () => {
     const [fc] = cutoffPoints(designIir(spec));
     expect(Math.abs(fc - 100) / 100).toBeLessThanOrEqual(1e-8);
     const analog = analogResponse(analogPrototypeZpk(spec), [100]);
     expect(analog.magnitudeDb[0]).toBeCloseTo(-10 * Math.log10(2), 9);
   });
 
-  it("the analog prototype's DC group delay matches 1/(ωc·sin(π/2N)) = 2.6131/ωc (field.md §1.3): digital ≈ analog at low f", () => {
+  it("the analog prototype's DC group delay matches 1/(ωc·sin(π/2N)) = 2.6131/ωc (Σ −Re(p_k)/|p_k|² over its poles; common practice): digital ≈ analog at low f", () => {
     const d = designIir(spec);
     const [gd] = frequencyResponse(d, [0.01]).groupDelaySamples;
     const analogSeconds = 2.6131 / (2 * Math.PI * 100);
@@ -190,7 +190,7 @@ describe("stability", () => {
     expect(stability(design(byName("firwin51")))).toEqual({ stable: true, maxPoleRadius: 0 });
   });
 
-  it("a section with a pole outside the unit circle is unstable; the triangle test agrees (field.md §2.7)", () => {
+  it("a section with a pole outside the unit circle is unstable; the triangle test agrees (Jackson, Digital Filters and Signal Processing — from memory)", () => {
     const unstable: FilterDesign = { sampleRateHz: 1000, sos: [[1, 0, 0, 1, -1.9, 1.05]], zeros: [], poles: [], gain: 1 };
     const s = stability(unstable);
     expect(s.stable).toBe(false);

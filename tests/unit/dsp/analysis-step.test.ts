@@ -49,24 +49,24 @@ describe("stepMetrics: published checks", () => {
   const zeta = 0.5;
   const m = stepMetrics(sosDesign(fs, [tustinSecondOrder(zeta, wn, fs)]));
 
-  it("second order, ζ = 0.5: overshoot exp(−ζπ/√(1−ζ²)) = 16.30 % (Ogata ch.5)", () => {
+  it("second order, ζ = 0.5: overshoot exp(−ζπ/√(1−ζ²)) = 16.30 % (Ogata, Modern Control Engineering, 5th ed., ch. 5 — from memory)", () => {
     // Tustin with ωn·T = 1e-3 (fs = 1 kHz, ωn = 1 rad/s): warping and sampling move the peak by < 1e-3 points.
     const expected = 100 * Math.exp((-zeta * Math.PI) / Math.sqrt(1 - zeta * zeta));
     expect(expected).toBeCloseTo(16.3, 2);
     expect(Math.abs((m.overshootPercent ?? NaN) - expected)).toBeLessThan(1e-3);
   });
 
-  it("second order, ζ = 0.5: ωn·tr(10–90 %) = 1.638 (Nise, normalized rise-time table), to ±0.001", () => {
+  it("second order, ζ = 0.5: ωn·tr(10–90 %) = 1.638 (Nise, Control Systems Engineering, 6th ed., ch. 4, normalized rise time against ζ — from memory), to ±0.001", () => {
     expect(Math.abs(wn * (m.riseTimeS ?? NaN) - 1.638)).toBeLessThanOrEqual(1e-3);
   });
 
-  it("second order, ζ = 0.5: 2 % settling ≈ 4/(ζωn) = 8 s (Franklin/Ogata rule of thumb; loose, ±5 %)", () => {
+  it("second order, ζ = 0.5: 2 % settling ≈ 4/(ζωn) = 8 s (common practice: 4/(ζωn) for the 2 % band; loose, ±5 %)", () => {
     expect(Math.abs((m.settlingTimeS ?? NaN) - 4 / (zeta * wn)) / 8).toBeLessThan(0.05);
     // 1 + a1 + a2 ≈ 1e-6 here, so the DC gain carries ~1e-10 relative cancellation error.
     expect(m.finalValue).toBeCloseTo(1, 8);
   });
 
-  it("first order: tr(10–90 %) = ln 9 · τ (field.md §2.4), ZOH step-invariant so samples are exact", () => {
+  it("first order: tr(10–90 %) = ln 9 · τ (from 1 − e^{−t/τ}: τ·ln(0.9/0.1); common practice), ZOH step-invariant so samples are exact", () => {
     const tau = 0.1;
     const p = Math.exp(-1 / (fs * tau));
     const m1 = stepMetrics(sosDesign(fs, [[0, 1 - p, 0, 1, -p, 0]]));

@@ -53,7 +53,7 @@ describe(`welch against scipy.signal.welch ${fixture.scipyVersion}`, () => {
   });
 });
 
-describe("welch: published checks (Harris 1978; field.md §1.2, §2.6)", () => {
+describe("welch: checks from the definitions (one-sided PSD 2σ²/fs of white noise; Hann ENBW 1.5 bins, Harris 1978)", () => {
   it("white noise σ = 1 at fs = 1 kHz has mean one-sided PSD 2σ²/fs = 0.002 unit²/Hz", () => {
     const x = gaussianNoise(1 << 16, 20261202);
     const { psd } = welch(x, 1000);

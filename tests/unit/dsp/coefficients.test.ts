@@ -3,6 +3,7 @@ import { stability } from "@/lib/dsp/analysis";
 import { CoefficientParseError, parseCoefficientText } from "@/lib/dsp/coefficients";
 import { designFilter } from "@/lib/dsp/design";
 import { filterSignal } from "@/lib/dsp/engine";
+import { MAX_DIRECT_FORM_ORDER } from "@/lib/dsp/transfer";
 
 describe("parseCoefficientText: realistic pastes", () => {
   it("numpy repr of b", () => {
@@ -100,11 +101,22 @@ describe("parseCoefficientText: garbage is refused with the position", () => {
 });
 
 describe("pasted coefficients as designs", () => {
-  it("normalises a0 to 1 and keeps the transfer function", () => {
+  it("normalises a0 to 1 and keeps the transfer function exactly, in direct form", () => {
     const d = designFilter({ kind: "coefficients", b: [2, 4, 2], a: [2, -1, 0.5], sampleRateHz: 100 });
     expect(d.gain).toBe(1);
-    // rebuilt from the roots, so equal up to rounding
-    d.sos?.[0].forEach((v, i) => expect(v).toBeCloseTo([1, 2, 1, 1, -0.5, 0.25][i], 14));
+    expect(d.ba).toEqual({ b: [1, 2, 1], a: [1, -0.5, 0.25] });
+    expect(d.sos).toBeUndefined();
+  });
+
+  it(`keeps the direct form up to order ${MAX_DIRECT_FORM_ORDER} of a and factors higher orders into sections`, () => {
+    const a = (order: number) => [1, ...new Array<number>(order - 1).fill(0), 0.5];
+    const kept = designFilter({ kind: "coefficients", b: [1], a: a(MAX_DIRECT_FORM_ORDER), sampleRateHz: 100 });
+    expect(kept.ba?.a).toEqual(a(MAX_DIRECT_FORM_ORDER));
+    const factored = designFilter({ kind: "coefficients", b: [1], a: a(MAX_DIRECT_FORM_ORDER + 1), sampleRateHz: 100 });
+    expect(factored.ba).toBeUndefined();
+    expect(factored.sos).toHaveLength(Math.ceil((MAX_DIRECT_FORM_ORDER + 1) / 2));
+    // trailing zeros of a do not count towards its order
+    expect(designFilter({ kind: "coefficients", b: [1], a: [...a(2), 0, 0, 0, 0, 0, 0, 0, 0], sampleRateHz: 100 }).ba).toBeDefined();
   });
 
   it("b with a = [1] (or no a) is an FIR with taps", () => {
@@ -123,7 +135,7 @@ describe("pasted coefficients as designs", () => {
     expect(d.poles).toEqual([[0.5, 0]]);
   });
 
-  it("a higher-order b/a runs as sos with the same impulse response as the difference equation", () => {
+  it("a higher-order b/a runs with the same impulse response as the difference equation", () => {
     const b = [0.02, 0.01, -0.03, 0.005];
     const a = [1, -1.9, 1.43, -0.4];
     const d = designFilter({ kind: "coefficients", b, a, sampleRateHz: 100 });

@@ -1,5 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
+import { directFormSections } from "@/lib/dsp/transfer";
+import { designZeros } from "@/lib/dsp/zeros";
 import { frequencyResponse, stability } from "@/lib/dsp/analysis";
 import { cAbs, cDiv, cMul, cScale, cSub } from "@/lib/dsp/complex";
 import { polyMul } from "@/lib/dsp/poly";
@@ -12,15 +14,15 @@ function zpkMagnitude(d: FilterDesign, freqHz: number): number {
   const w = (2 * Math.PI * freqHz) / d.sampleRateHz;
   const z: Complex = [Math.cos(w), Math.sin(w)];
   let h: Complex = [d.gain, 0];
-  for (const q of d.zeros) h = cMul(h, cSub(z, q));
+  for (const q of designZeros(d)) h = cMul(h, cSub(z, q));
   for (const p of d.poles) h = cDiv(h, cSub(z, p));
   return cAbs(h);
 }
 
 function expectFinite(d: FilterDesign): void {
-  const numbers = [...(d.sos ?? []).flat(), ...(d.taps ?? []), ...d.zeros.flat(), ...d.poles.flat(), d.gain];
+  const numbers = [...(d.sos ?? []).flat(), ...(d.taps ?? []), ...designZeros(d).flat(), ...d.poles.flat(), d.gain];
   numbers.forEach((v) => expect(Number.isFinite(v)).toBe(true));
-  expect((d.sos === undefined) !== (d.taps === undefined)).toBe(true);
+  expect([d.sos, d.taps, d.ba].filter((f) => f !== undefined)).toHaveLength(1);
 }
 
 /** The zpk of a design and the sos/taps that run agree in magnitude (relative 1e-6 where |H| > 1e-6). */
@@ -45,7 +47,8 @@ describe("designFilter", () => {
     expect(designFilter({ kind: "differentiator", sampleRateHz: fs }).taps).toEqual([1000, -1000]);
     expect(designFilter({ kind: "ema", cutoffHz: 10, sampleRateHz: fs }).sos).toHaveLength(1);
     const analog = designFilter({ kind: "analog", num: [1], den: [1, 2, 2, 1].map((c, i) => c * 100 ** i), method: "zoh", sampleRateHz: fs });
-    expect(analog.sos).toHaveLength(2);
+    expect(analog.ba?.a).toHaveLength(4);
+    expect(directFormSections(analog.ba?.b ?? [], analog.ba?.a ?? [])).toHaveLength(2);
     expect(analog.poles).toHaveLength(3);
     const iir = designFilter({ kind: "iir", family: "chebyshev1", response: "lowpass", order: 4, cutoffHz: 50, passbandRippleDb: 1, sampleRateHz: fs });
     expect(iir.sos).toHaveLength(2);
@@ -57,10 +60,11 @@ describe("designFilter", () => {
     stop.forEach((db) => expect(db).toBeLessThan(-40));
   });
 
-  it("analog ZOH through designFilter keeps the delay: a/(s+a) gives sos [0, b1, 0, 1, a1, 0]", () => {
+  it("analog ZOH through designFilter keeps the delay: a/(s+a) gives b = [0, b1], and sos [0, b1, 0, 1, a1, 0] for devices", () => {
     const a = 2 * Math.PI * 10;
     const d = designFilter({ kind: "analog", num: [a], den: [1, a], method: "zoh", sampleRateHz: 1000 });
-    const row = d.sos?.[0] ?? [];
+    expect(d.ba?.b[0]).toBe(0);
+    const row = directFormSections(d.ba?.b ?? [], d.ba?.a ?? [])[0] ?? [];
     expect(row[0]).toBe(0);
     expect(row[1]).toBeCloseTo(0.0608986, 7);
     expect(row[4]).toBeCloseTo(-0.9391014, 7);
@@ -202,8 +206,11 @@ describe("property: random valid specs of every kind design to finite coefficien
 });
 
 describe("coefficients beyond the double range", () => {
-  it("refuses a paste whose zeros overflow (b = [5e-324, 1]) instead of returning infinite zeros", () => {
-    expect(() => designFilter({ kind: "coefficients", b: [5e-324, 1], sampleRateHz: 100 })).toThrow(/beyond the double-precision range/);
+  it("refuses zeros that overflow (b = [5e-324, 1]) instead of returning infinite zeros", () => {
+    // An FIR paste runs as given; its zeros are found only when asked for, and that refuses.
+    const fir = designFilter({ kind: "coefficients", b: [5e-324, 1], sampleRateHz: 100 });
+    expect(fir.taps).toEqual([5e-324, 1]);
+    expect(() => designZeros(fir)).toThrow(/beyond the double-precision range/);
     expect(() => designFilter({ kind: "coefficients", b: [1e-200, 1e200], a: [1, 0.5], sampleRateHz: 100 })).toThrow(/beyond the double-precision range/);
   });
 });

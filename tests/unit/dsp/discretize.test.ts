@@ -43,21 +43,21 @@ describe("discretize against scipy.signal.cont2discrete / bilinear and the gener
 
 describe("published check values", () => {
   const a = TWO_PI * 10;
-  it("ZOH of a/(s+a), a = 2π·10, T = 1 ms: b1 = 0.0608986, a1 = −0.9391014 (field.md §2.3)", () => {
+  it("ZOH of a/(s+a), a = 2π·10, T = 1 ms: b1 = 1 − e^{−aT} = 0.0608986, a1 = −e^{−aT} = −0.9391014 (closed form of the step-invariant transform; common practice)", () => {
     const r = discretize({ num: [a], den: [1, a] }, 1000, "zoh");
     expect(r.b[0]).toBe(0);
     expect(r.b[1]).toBeCloseTo(0.0608986, 7);
     expect(r.a[1]).toBeCloseTo(-0.9391014, 7);
   });
 
-  it("Tustin of a/(s+a): b0 = b1 = aT/(2+aT) = 0.0304590, a1 = −0.9390819 (field.md §2.3)", () => {
+  it("Tustin of a/(s+a): b0 = b1 = aT/(2+aT) = 0.0304590, a1 = (aT − 2)/(aT + 2) = −0.9390819 (closed form; common practice)", () => {
     const r = discretize({ num: [a], den: [1, a] }, 1000, "tustin");
     expect(r.b[0]).toBeCloseTo(0.030459, 7);
     expect(r.b[1]).toBeCloseTo(0.030459, 7);
     expect(r.a[1]).toBeCloseTo(-0.9390819, 7);
   });
 
-  it("ZOH maps poles exactly: ωn = 2π·50, ζ = 0.1, T = 1 ms → |z| = 0.969072, ∠z = 0.312585 rad (field.md §2.3)", () => {
+  it("ZOH maps poles exactly: ωn = 2π·50, ζ = 0.1, T = 1 ms → |z| = e^{−ζωnT} = 0.969072, ∠z = ωn√(1−ζ²)T = 0.312585 rad (z = e^{sT}; common practice)", () => {
     const wn = TWO_PI * 50;
     const r = discretize({ num: [wn * wn], den: [1, 2 * 0.1 * wn, wn * wn] }, 1000, "zoh");
     for (const p of polyRoots(r.a)) {
@@ -66,7 +66,7 @@ describe("published check values", () => {
     }
   });
 
-  it("PID derivative filter s/(Tf·s+1), Tf = 0.4 ms, h = 1 ms: poles backward 0.2857, Tustin −0.1111, ZOH 0.0821, forward −1.5 (field.md §1.4)", () => {
+  it("PID derivative filter s/(Tf·s+1), Tf = 0.4 ms, h = 1 ms: poles backward Tf/(Tf+h) = 0.2857, Tustin (2Tf−h)/(2Tf+h) = −0.1111, ZOH e^{−h/Tf} = 0.0821, forward 1 − h/Tf = −1.5 (closed forms; common practice)", () => {
     const tf = { num: [1, 0], den: [0.4e-3, 1] };
     const pole = (m: DiscretizationMethod) => -discretize(tf, 1000, m).a[1];
     expect(pole("backward-euler")).toBeCloseTo(0.2857, 4);
@@ -75,7 +75,7 @@ describe("published check values", () => {
     expect(pole("forward-euler")).toBeCloseTo(-1.5, 12);
   });
 
-  it("prewarped Tustin is exact at the prewarp frequency: analog H(j·2πf0) equals digital H(e^{j2πf0/fs}) in magnitude and phase (Franklin, Powell & Workman §6.3.1)", () => {
+  it("prewarped Tustin is exact at the prewarp frequency: analog H(j·2πf0) equals digital H(e^{j2πf0/fs}) in magnitude and phase (Franklin, Powell & Workman, Digital Control of Dynamic Systems, 3rd ed., §6.3.1)", () => {
     const wn = TWO_PI * 120;
     const tf = { num: [2 * 0.05 * wn, 0], den: [1, 2 * 0.05 * wn, wn * wn] };
     for (const f0 of [60, 120, 300, 450]) {
@@ -88,7 +88,7 @@ describe("published check values", () => {
     }
   });
 
-  it("plain Tustin warps: a first-order 200 Hz low-pass at 1 kHz is −3.687 dB at 200 Hz, prewarped −3.0103 dB (field.md §2.3)", () => {
+  it("plain Tustin warps: a first-order 200 Hz low-pass at 1 kHz is −3.687 dB at 200 Hz, prewarped −3.0103 dB (closed form: Tustin maps f to (fs/π)·tan(πf/fs); common practice)", () => {
     const wc = TWO_PI * 200;
     const tf = { num: [wc], den: [1, wc] };
     const db = (r: { b: number[]; a: number[] }) => 20 * Math.log10(cAbs(digitalAt(r.b, r.a, TWO_PI * 0.2)));
@@ -98,7 +98,7 @@ describe("published check values", () => {
 });
 
 describe("matched pole-zero", () => {
-  it("a/(s+a) gives the ZOH result: one zero at infinity stays (modified matched, Franklin, Powell & Workman §6.3.3)", () => {
+  it("a/(s+a) gives the ZOH result: one zero at infinity stays (modified matched, Franklin, Powell & Workman, Digital Control of Dynamic Systems, 3rd ed., §6.3.3)", () => {
     const a = TWO_PI * 10;
     const m = discretize({ num: [a], den: [1, a] }, 1000, "matched");
     const z = discretize({ num: [a], den: [1, a] }, 1000, "zoh");

@@ -87,8 +87,8 @@ describe("FIR kernels", () => {
 });
 
 describe("design validation", () => {
-  it("needs exactly one of sos and taps", () => {
-    expect(() => filterSignal(base, new Float64Array(3))).toThrow(/exactly one of sos and taps/);
+  it("needs exactly one of sos, taps and ba", () => {
+    expect(() => filterSignal(base, new Float64Array(3))).toThrow(/exactly one of sos, taps and ba/);
     expect(() => filterSignal({ ...base, sos: [[1, 0, 0, 1, 0, 0]], taps: [1] }, new Float64Array(3))).toThrow(/exactly one/);
   });
 

@@ -7,7 +7,7 @@ describe("Q15/Q31 words: rounding to nearest (ties away from zero) and saturatio
     expect([2.5, -2.5, 1.5, -0.5, 0.4999999999999999, -0.4999999999999999, 3].map(roundHalfAway)).toEqual([3, -3, 2, -1, 0, -0, 3]);
   });
 
-  it("has the Q15 range [−1, 1 − 2^−15] (field.md §1.5: max 0.999969482421875)", () => {
+  it("has the Q15 range [−1, 1 − 2^−15] (common practice: 16-bit two's complement scaled by 2^−15, max 1 − 2^−15 = 0.999969482421875)", () => {
     expect(wordLimits("q15")).toEqual({ min: -32768, max: 32767 });
     expect(wordToReal(32767, "q15")).toBe(0.999969482421875);
     expect(wordLimits("q31")).toEqual({ min: -(2 ** 31), max: 2 ** 31 - 1 });

@@ -14,9 +14,10 @@ const butter = (order: number, cutoffHz: number, sampleRateHz = 1000): FilterDes
   designIir({ kind: "iir", family: "butterworth", response: "lowpass", order, cutoffHz, sampleRateHz });
 
 describe("quantizeDesign", () => {
-  it("reproduces the published Q15 words of a 2nd-order Butterworth 100 Hz at 1 kHz, post-shift 1", () => {
-    // field.md §2.7 (q15 layout example): {1105, 0, 2210, 1105, 18727, -6763} with feedback
-    // words negated relative to ours, so our a1 = −18727, a2 = 6763. Gain left in the single section.
+  it("gives the Q15 words of scipy's butter(2, 100, fs=1000) scaled by 2^14 (post-shift 1), rounded", () => {
+    // b = [0.067455, 0.134911, 0.067455], a = [1, −1.142981, 0.412802] × 16384 = 1105.19, 2210.37, 1105.19, −18726.59,
+    // 6763.34 (scipy 1.10.1), rounded to nearest; firmware that adds the feedback terms stores a1, a2 negated.
+    // Gain left in the single section.
     const d = butter(2, 100);
     expect(quantizeSections(d.sos ?? [], "q15")).toMatchObject({ integers: [[1105, 2210, 1105, -18727, 6763]], shifts: [1] });
     // One section: L∞ gain spreading leaves it unchanged, so quantizeDesign gives the same words.
@@ -69,7 +70,7 @@ describe("quantizeDesign", () => {
   });
 });
 
-describe("sections vs direct form (Oppenheim & Schafer, DTSP ch. 6 on coefficient quantization — from memory)", () => {
+describe("sections vs direct form (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., ch. 6 on coefficient quantization — from memory)", () => {
   it("a Butterworth order 8 at fc = 0.02·fs goes unstable in Q15 direct form while its sections stay stable", () => {
     const report = compareStructures(butter(8, 20), "q15");
     expect(report.sections.stable).toBe(true);

@@ -50,7 +50,7 @@ describe("simulateFixed against float64", () => {
     const reference = filterSignal({ ...design, sos }, x);
     // Rounding errors, each at most 2^−16 in magnitude: the input's (through every section) and each
     // section output's (through that section's own recursion 1/A_k, then the later sections) —
-    // a bound by the L1 norms of those paths (Oppenheim & Schafer DTSP ch. 6, from memory).
+    // a bound by the L1 norms of those paths (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., ch. 6, from memory).
     const base = { sampleRateHz: 1000, zeros: [], poles: [], gain: 1 };
     const paths = sos.map((row, k) => ({ ...base, sos: [[1, 0, 0, 1, row[4], row[5]], ...sos.slice(k + 1)] }));
     const bound = 2 ** -16 * (l1Norm({ ...base, sos }) + paths.reduce((s, p) => s + l1Norm(p), 0));
@@ -81,7 +81,7 @@ describe("simulateFixed against float64", () => {
   });
 });
 
-describe("limit cycles (observation, Oppenheim & Schafer DTSP ch. 6 — from memory)", () => {
+describe("limit cycles (observation, Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., ch. 6 — from memory)", () => {
   it("a lightly damped Q15 section keeps oscillating on zero input while float64 decays", () => {
     // Poles at radius √0.99 ≈ 0.995: float64 decays to ~1e-44 after 20000 samples. Rounding inside the
     // DF1 recursion sustains a zero-input oscillation instead: observed here at 34 LSB with period 14.

@@ -10,7 +10,7 @@ function secondOrderLoop(zeta: number, wn: number, fs: number): LoopModel {
   return { sampleRateHz: fs, plant: { num: [wn * wn], den: [1, 2 * zeta * wn, 0] }, controller: p1, delaySamples: 0, filter: null };
 }
 
-describe("phase margin of the unity-feedback second-order loop (Nise, Control Systems Engineering ch. 10)", () => {
+describe("phase margin of the unity-feedback second-order loop (Nise, Control Systems Engineering, 6th ed., ch. 10 — section from memory)", () => {
   const wn = 2 * Math.PI; // 1 Hz
   const fs = 10_000;
   for (const [zeta, published] of [[0.5, 51.8], [0.707, 65.5]] as const) {
@@ -19,7 +19,7 @@ describe("phase margin of the unity-feedback second-order loop (Nise, Control Sy
       const root = Math.sqrt(Math.sqrt(1 + 4 * zeta ** 4) - 2 * zeta ** 2);
       const wc = wn * root;
       const formula = Math.atan((2 * zeta) / root) * DEG; // Nise: PM = atan(2ζ/√(√(1+4ζ⁴) − 2ζ²))
-      // The ZOH adds about ωc·T/2 of lag (Franklin, Powell & Workman §6.3.2); at fs = 10 kHz that is 0.014°.
+      // The ZOH adds about ωc·T/2 of lag (Franklin, Powell & Workman, Digital Control of Dynamic Systems, 3rd ed., §6.3.2); at fs = 10 kHz that is 0.014°.
       const zohLagDeg = ((wc / fs) / 2) * DEG;
       expect(Math.abs(m.phaseMarginDeg! - (formula - zohLagDeg))).toBeLessThan(0.1 * zohLagDeg);
       expect(Math.abs(m.phaseMarginDeg! - published)).toBeLessThan(0.05 + 1.1 * zohLagDeg); // published to 0.1°
@@ -29,7 +29,7 @@ describe("phase margin of the unity-feedback second-order loop (Nise, Control Sy
 });
 
 /**
- * L(z) = K·z⁻¹/(1 − z⁻¹): the ZOH image of a/s with K = a/fs (Franklin, Powell & Workman §6.3.2), C = 1.
+ * L(z) = K·z⁻¹/(1 − z⁻¹): the ZOH image of a/s with K = a/fs (Franklin, Powell & Workman, Digital Control of Dynamic Systems, 3rd ed., §6.3.2), C = 1.
  * Derived here: |L(e^{jω})| = K/(2·sin(ω/2)), arg L = −π/2 − ω/2; L(−1) = −K/2, so the phase crossover is at
  * Nyquist with GM = 20·log10(2/K); the gain crossover is at ω = 2·asin(K/2) with PM = 90° − ω/2; the closed
  * loop 1 + L = 0 has its pole at z = 1 − K and the step response y[n] = 1 − (1 − K)ⁿ.
@@ -71,22 +71,22 @@ describe("the discrete integrator loop K·z⁻¹/(1 − z⁻¹) (closed forms de
   });
 });
 
-describe("phase cost of sensor filters at the crossover (field notes §1.3, scipy-computed analog values)", () => {
+describe("phase cost of sensor filters at the crossover (closed forms of the analog prototypes: atan(x) for order 1, atan(√2·x/(1 − x²)) for order 2, x = crossover/corner)", () => {
   const fs = 100_000; // fs ≫ fc so the digital filter matches its analog prototype to < 0.01°
   const fc = 10;
-  const published: Record<number, [number, number, number]> = { 1: [5.7, 11.3, 18.4], 2: [8.1, 16.4, 27.9] };
+  const closedForm: Record<number, [number, number, number]> = { 1: [5.7, 11.3, 18.4], 2: [8.1, 16.4, 27.9] };
   for (const order of [1, 2] as const) {
     [10, 5, 3].forEach((ratio, i) => {
-      it(`Butterworth order ${order}, corner ${ratio}× the crossover: ${published[order][i]}°`, () => {
+      it(`Butterworth order ${order}, corner ${ratio}× the crossover: ${closedForm[order][i]}°`, () => {
         const design = designFilter({ kind: "iir", family: "butterworth", response: "lowpass", order, cutoffHz: ratio * fc, sampleRateHz: fs });
         const cost = filterPhaseCost(design, fc);
-        expect(Math.abs(cost.lagDeg - published[order][i])).toBeLessThan(0.05); // published to 0.1°
+        expect(Math.abs(cost.lagDeg - closedForm[order][i])).toBeLessThan(0.05); // rounded to 0.1°
         expect(cost.lagMs).toBeCloseTo((cost.lagDeg / (360 * fc)) * 1000, 12);
       });
     });
   }
 
-  it("a pure delay Td costs 360°·f·Td: 2 ms at 50 Hz = 36° (field notes §1.3)", () => {
+  it("a pure delay Td costs 360°·f·Td: 2 ms at 50 Hz = 36° (the phase of e^{−jωTd}; common practice)", () => {
     const delay = designFilter({ kind: "coefficients", b: [0, 0, 1], sampleRateHz: 1000 });
     const cost = filterPhaseCost(delay, 50);
     expect(cost.lagDeg).toBeCloseTo(36, 10);
@@ -94,14 +94,14 @@ describe("phase cost of sensor filters at the crossover (field notes §1.3, scip
   });
 });
 
-describe("PID derivative-filter pole per discretisation (field notes §1.4: Tf = 0.4 ms, h = 1 ms)", () => {
+describe("PID derivative-filter pole per discretisation (Tf = 0.4 ms, h = 1 ms; closed forms: backward Tf/(Tf+h), Tustin (2Tf−h)/(2Tf+h), ZOH e^{−h/Tf}, forward 1 − h/Tf)", () => {
   // Kd = 0.004, Kp = 1, N = 10 gives Tf = Kd/(Kp·N) = 0.4 ms; with Ki = 0 the controller has only that pole.
   const expected = { "backward-euler": 0.2857, tustin: -0.1111, zoh: 0.0821, "forward-euler": -1.5 } as const;
   for (const [method, pole] of Object.entries(expected)) {
     it(`${method}: pole ${pole}`, () => {
       const { a } = controllerTf({ kind: "pid", kp: 1, ki: 0, kd: 0.004, n: 10, method: method as keyof typeof expected }, 1000);
       expect(a).toHaveLength(2);
-      expect(-a[1]).toBeCloseTo(pole, 4); // published to 4 decimals
+      expect(-a[1]).toBeCloseTo(pole, 4); // rounded to 4 decimals
     });
   }
 });

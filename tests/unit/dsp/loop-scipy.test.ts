@@ -109,7 +109,7 @@ describe(`loop check against ${fixture.generator} (scipy ${fixture.scipyVersion}
       [1, 0], // plant integrator, ZOH: e^{0·T}
       [Math.exp(-1 / (0.02 * fs)), 0], // plant lag τ = 0.02 s, ZOH: e^{−T/τ}
       [1, 0], // PID integral, Tustin
-      [(2 * tf - 1 / fs) / (2 * tf + 1 / fs), 0], // PID derivative filter, Tustin (field notes §1.4)
+      [(2 * tf - 1 / fs) / (2 * tf + 1 / fs), 0], // PID derivative filter, Tustin: (2Tf − T)/(2Tf + T) (closed form; common practice)
       [0, 0], // one sample of computation delay
       ...model.filter!.poles,
     ];
