@@ -90,7 +90,7 @@ describe("recordings API", () => {
     actAs(users.engineer);
     const big = "x\n" + "1\n".repeat(MAX_UPLOAD_BYTES / 2);
     const res = await upload(csvRequest(`channel=${CHANNEL}&sampleRateHz=1000`, big));
-    expect(res.status).toBe(400);
+    expect(res.status).toBe(413);
     expect((await res.json()).error.message).toMatch(/at most 20\.0 MB/);
   });
 

@@ -2,11 +2,9 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "@/db/client";
 import { listChannels, findChannelByPath } from "@/db/queries/channels";
 import { seedDemo } from "@/db/seed";
-import {
-  clearLoginFailures, countLoginFailures, findUserByEmail, insertUser, recordLoginFailure, updateUser,
-} from "@/db/queries/users";
+import { createSession, liveSessionAccount, revokeSession } from "@/db/queries/sessions";
+import { findUserByEmail, insertUser, updateUser } from "@/db/queries/users";
 import { resolveSessionUser } from "@/lib/auth/guard";
-import { isThrottled, THROTTLE } from "@/lib/auth/throttle";
 import { freshDb } from "./support/fresh-db";
 
 let db: Db;
@@ -19,38 +17,36 @@ beforeAll(async () => {
 afterAll(() => close());
 
 describe("accounts and sessions", () => {
-  it("ends every session when a password changes or the user is disabled", async () => {
+  it("ends every session when a password changes or the user is disabled, and one session when it is revoked", async () => {
     const user = await insertUser(db, { email: "Temp@Example.test", displayName: "Temp", passwordHash: "x", role: "engineer" });
     expect(user.email).toBe("temp@example.test");
-    const cookie = { userId: user.id, sessionVersion: user.session_version };
-    expect(resolveSessionUser(cookie, user)?.role).toBe("engineer");
+    const sessionId = await createSession(db, user.id, 3600);
+    const cookie = { userId: user.id, sessionVersion: user.session_version, sessionId };
+    const check = async (c = cookie) => resolveSessionUser(c, await liveSessionAccount(db, c.sessionId));
+    expect((await check())?.role).toBe("engineer");
 
-    const renamed = await updateUser(db, user.id, { role: "lead" });
-    expect(resolveSessionUser(cookie, renamed)?.role).toBe("lead");
+    await updateUser(db, user.id, { role: "lead" });
+    expect((await check())?.role).toBe("lead");
 
     const repassworded = await updateUser(db, user.id, { passwordHash: "y" });
-    expect(resolveSessionUser(cookie, repassworded)).toBeNull();
+    expect(await check()).toBeNull();
 
-    const fresh = { userId: user.id, sessionVersion: repassworded!.session_version };
-    const disabled = await updateUser(db, user.id, { disabled: true });
-    expect(resolveSessionUser(fresh, disabled)).toBeNull();
+    const fresh = { userId: user.id, sessionVersion: repassworded!.session_version, sessionId: await createSession(db, user.id, 3600) };
+    const other = { ...fresh, sessionId: await createSession(db, user.id, 3600) };
+    expect(await check(fresh)).not.toBeNull();
+    await revokeSession(db, fresh.sessionId);
+    expect(await check(fresh)).toBeNull();
+    expect(await check(other)).not.toBeNull();
+
+    await updateUser(db, user.id, { disabled: true });
+    expect(await check(other)).toBeNull();
   });
 
-  it("counts sign-in failures per account and per known address, and throttles", async () => {
-    const email = "victim@example.test";
-    for (let i = 0; i < THROTTLE.maxPerAccount; i++) await recordLoginFailure(db, email, i % 2 ? "10.9.8.7" : null);
-    const counts = await countLoginFailures(db, email, "10.9.8.7", THROTTLE.windowMs);
-    expect(counts.account).toBe(THROTTLE.maxPerAccount);
-    expect(counts.address).toBe(Math.floor(THROTTLE.maxPerAccount / 2));
-    expect(isThrottled(counts)).toBe(true);
-    expect(await countLoginFailures(db, "other@example.test", null, THROTTLE.windowMs)).toEqual({ account: 0, address: 0 });
-    await clearLoginFailures(db, email);
-    expect(isThrottled(await countLoginFailures(db, email, "10.9.8.7", THROTTLE.windowMs))).toBe(false);
-  });
-
-  it("ignores failures older than the window", async () => {
-    await db.insertInto("login_failures").values({ email: "old@example.test", address: "", at: new Date(Date.now() - THROTTLE.windowMs - 1000) }).execute();
-    expect((await countLoginFailures(db, "old@example.test", null, THROTTLE.windowMs)).account).toBe(0);
+  it("does not accept an expired stored session", async () => {
+    const user = await findUserByEmail(db, "operator@tapwright.test");
+    const sessionId = await createSession(db, user!.id, 3600);
+    await db.updateTable("sessions").set({ expires_at: new Date(Date.now() - 1000) }).where("id", "=", sessionId).execute();
+    expect(await liveSessionAccount(db, sessionId)).toBeUndefined();
   });
 
   it("finds accounts by e-mail regardless of case", async () => {

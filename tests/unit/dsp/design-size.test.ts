@@ -2,10 +2,11 @@ import { describe, expect, it } from "vitest";
 import { filterSpecSchema } from "@/lib/dsp/filter-spec";
 import { SPEC_LIMITS } from "@/lib/dsp/spec";
 import { stageSize, totalSize } from "@/lib/dsp/design-size";
+import type { StageSpec } from "@/lib/dsp/spec";
 
 const fs = 1000;
 const ramp = (n: number) => Array.from({ length: n }, (_, i) => (i === 0 ? 1 : 0.001 * i));
-const ellipticBand = {
+const ellipticBand: StageSpec = {
   kind: "iir",
   family: "elliptic",
   response: "bandpass",
@@ -14,8 +15,8 @@ const ellipticBand = {
   passbandRippleDb: 1,
   stopbandAttenuationDb: 60,
   sampleRateHz: fs,
-} as const;
-const fir1023 = { kind: "fir", response: "lowpass", window: "hamming", taps: 1023, cutoffHz: 100, sampleRateHz: fs } as const;
+};
+const fir1023: StageSpec = { kind: "fir", response: "lowpass", window: "hamming", taps: 1023, cutoffHz: 100, sampleRateHz: fs };
 const chain = (stages: object[]) => ({ kind: "chain", sampleRateHz: fs, stages });
 
 function issues(spec: unknown): string[] {
