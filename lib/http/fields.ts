@@ -47,3 +47,17 @@ export function unstorableTextAt(value: unknown, path: string[] = []): string | 
   }
   return null;
 }
+
+/** Why unstorable text is refused, shown on the field that holds it. */
+export const UNSTORABLE_TEXT = "Text may not contain a NUL character or an unpaired UTF-16 surrogate.";
+
+/**
+ * schema.safeParse, with text that cannot be stored refused first as an issue on its path: the one
+ * parse every route handler and server action runs, so each of them gets the check.
+ */
+export function safeParseInput<S extends z.ZodType>(schema: S, value: unknown): z.ZodSafeParseResult<z.output<S>> {
+  const at = unstorableTextAt(value);
+  if (at === null) return schema.safeParse(value);
+  const path = at === "" ? [] : at.split(".");
+  return z.any().superRefine((_, ctx) => ctx.addIssue({ code: "custom", path, message: UNSTORABLE_TEXT })).safeParse(value);
+}

@@ -3,7 +3,7 @@ import { env, appOrigin } from "@/lib/env";
 import { AppError, RetryLater, toErrorBody } from "@/lib/errors";
 import { readJson } from "./body";
 import { clientAddress as resolveClientAddress, trustedProxies } from "./client-address";
-import { unstorableTextAt } from "./fields";
+import { safeParseInput } from "./fields";
 import { changesState, crossSiteRefusal } from "./origin";
 
 /** Refuses a state-changing request that does not come from the app's own pages (403), see crossSiteRefusal. */
@@ -40,18 +40,9 @@ export function issueList(error: z.ZodError): { path: string; message: string }[
   return error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message }));
 }
 
-/** Text that cannot be stored (a NUL or a lone surrogate), refused with 400 before any schema or database sees it. */
-export function refuseUnstorableText(value: unknown): void {
-  const at = unstorableTextAt(value);
-  if (at === null) return;
-  const message = "Text may not contain a NUL character or an unpaired UTF-16 surrogate.";
-  throw new AppError("bad_request", "Some fields are invalid.", [{ path: at, message }]);
-}
-
 /** Parses a value with a schema or throws 400 with zod's issue paths; unstorable text is refused first. */
 export function parseWith<S extends z.ZodType>(schema: S, value: unknown): z.infer<S> {
-  refuseUnstorableText(value);
-  const parsed = schema.safeParse(value);
+  const parsed = safeParseInput(schema, value);
   if (!parsed.success) throw new AppError("bad_request", "Some fields are invalid.", issueList(parsed.error));
   return parsed.data;
 }
