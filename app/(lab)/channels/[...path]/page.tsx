@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/app/_lib/auth";
+import { channelPathOf } from "@/app/_lib/path";
 import { Bench } from "@/components/bench/bench";
 import { db } from "@/db";
 import { findChannelByPath } from "@/db/queries/channels";
@@ -21,7 +22,8 @@ export async function generateMetadata({ params }: Params): Promise<Metadata> {
 export default async function ChannelBenchPage({ params }: Params) {
   const user = await requirePageUser();
   const { path } = await params;
-  const channel = await findChannelByPath(db(), path.map(decodeURIComponent).join("/"));
+  const channelPath = channelPathOf(path);
+  const channel = channelPath === null ? undefined : await findChannelByPath(db(), channelPath);
   if (!channel) notFound();
   const canEdit = roleAtLeast(user.role, "engineer");
   return (
