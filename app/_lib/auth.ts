@@ -25,7 +25,7 @@ export async function requireUser(role: Role = "operator"): Promise<SessionUser>
  * a missing Origin is refused too), then 401/403 as AppError.
  */
 export async function requireActionUser(role: Role = "operator"): Promise<SessionUser> {
-  requireSameOrigin("POST", await headers());
+  requireSameOrigin("POST", await headers(), { originRequired: true });
   return requireUser(role);
 }
 

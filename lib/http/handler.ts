@@ -7,9 +7,9 @@ import { safeParseInput } from "./fields";
 import { changesState, crossSiteRefusal } from "./origin";
 
 /** Refuses a state-changing request that does not come from the app's own pages (403), see crossSiteRefusal. */
-export function requireSameOrigin(method: string, headers: Headers): void {
+export function requireSameOrigin(method: string, headers: Headers, opts: { originRequired?: boolean } = {}): void {
   if (!changesState(method)) return;
-  const refusal = crossSiteRefusal(headers, appOrigin(env()));
+  const refusal = crossSiteRefusal(headers, appOrigin(env()), opts);
   if (refusal) throw new AppError("forbidden", `Cross-site request refused: ${refusal}.`);
 }
 
@@ -26,7 +26,7 @@ export function handler<C>(fn: (req: Request, ctx: C) => Promise<Response>) {
       res = await fn(req, ctx);
     } catch (err) {
       const { status, body } = toErrorBody(err);
-      if (status >= 500) console.error(`[${req.method} ${new URL(req.url).pathname}]`, err);
+      if (status >= 500 && !(err instanceof AppError)) console.error(`[${req.method} ${new URL(req.url).pathname}]`, err);
       res = Response.json(body, { status });
       if (err instanceof RetryLater) res.headers.set("retry-after", String(err.retryAfterSeconds));
     }

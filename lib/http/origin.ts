@@ -17,16 +17,18 @@ function hostOf(url: string): string | null {
  * app origin (APP_URL). Without Origin, `Sec-Fetch-Site` must say same-origin; without either, the
  * `Referer` must be the app's. With none of them the request is refused: a browser sends at least
  * one, and scripts authenticate with an API token (an Authorization header, which a cross-site page
- * cannot attach without a CORS preflight that Tapwright never grants).
+ * cannot attach without a CORS preflight that Tapwright never grants). With `originRequired` (server
+ * actions, which browsers always post with an Origin) only a matching Origin passes.
  */
-export function crossSiteRefusal(headers: Headers, appOrigin: string): string | null {
-  if (headers.has("authorization")) return null;
+export function crossSiteRefusal(headers: Headers, appOrigin: string, opts: { originRequired?: boolean } = {}): string | null {
+  if (headers.has("authorization") && !opts.originRequired) return null;
   const ownHosts = new Set([headers.get("host"), hostOf(appOrigin)].filter((h): h is string => Boolean(h)));
   const origin = headers.get("origin");
   if (origin !== null) {
     const host = origin === "null" ? null : hostOf(origin);
     return host && ownHosts.has(host) ? null : `requests from ${origin === "null" ? "an opaque origin" : origin} may not change anything here`;
   }
+  if (opts.originRequired) return "the request does not say where it comes from (Origin)";
   const site = headers.get("sec-fetch-site");
   if (site !== null) return site === "same-origin" ? null : `a ${site} request may not change anything here`;
   const referer = headers.get("referer");
