@@ -23,20 +23,22 @@ async function lockCounters(trx: Transaction<Database>, keys: string[]): Promise
     .execute();
   const rows = await trx
     .selectFrom("login_throttle")
-    .select(["key", "failures", "last_failure_at", "blocked_until", sql<Date>`now()`.as("now")])
+    .select(["key", "failures", "last_failure_at", "blocked_until"])
     .where("key", "in", sorted)
     .orderBy("key")
     .forUpdate()
     .execute();
+  // The time once the locks are held (now() would be the transaction's start, before any wait for them).
+  const { at } = await sql<{ at: Date }>`select clock_timestamp() as at`.execute(trx).then((r) => r.rows[0]);
   const counters = new Map(
     rows.map((r): [string, Counter] => [r.key, { failures: r.failures, lastFailureAt: r.last_failure_at.getTime(), blockedUntil: r.blocked_until?.getTime() ?? null }]),
   );
-  return { now: rows[0].now.getTime(), counters };
+  return { now: at.getTime(), counters };
 }
 
 /**
  * Takes a sign-in attempt's place in the count before the password is checked, so parallel attempts
- * are counted one after another (row locks, the database's clock): when a key that holds this
+ * are counted one after another (row locks, the database's clock once they are held): when a key that holds this
  * attempt back must still wait, nothing is counted and the wait is returned; otherwise the attempt
  * is counted as a failure on every key (releaseLoginAttempt takes it back when it succeeds) and 0
  * is returned.

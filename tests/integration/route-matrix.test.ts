@@ -1,18 +1,18 @@
 import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { sealData } from "iron-session";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import type { Db } from "@/db/client";
 import { seedDemo } from "@/db/seed";
-import { createSession, revokeSession } from "@/db/queries/sessions";
+import { revokeSession } from "@/db/queries/sessions";
 import { createToken } from "@/db/queries/tokens";
 import { findUserByEmail } from "@/db/queries/users";
 import { ROLES, roleAtLeast, type Role } from "@/lib/auth/roles";
-import { SESSION_COOKIE, SESSION_TTL_SECONDS } from "@/lib/auth/session-config";
+import { SESSION_COOKIE } from "@/lib/auth/session-config";
 import { appOrigin, env } from "@/lib/env";
 import type { ActionState } from "@/lib/http/action-state";
 import { freshDb } from "./support/fresh-db";
+import { request, sessionCookie, state } from "./support/request-context";
 
 /**
  * Every route handler (app/**\/route.ts) and every server action (app/**\/actions.ts), found on disk,
@@ -87,29 +87,11 @@ const ACTIONS: Record<string, ActionPolicy> = {
 
 // ---- The request context the real guard reads (next/headers), and the database. ---------------
 
-const request = { cookies: new Map<string, string>(), headers: new Headers() };
-const state: { db: Db | null } = { db: null };
-
 vi.mock("server-only", () => ({}));
-// React's cache() is per request on the server; here each call is its own request.
-vi.mock("react", async (original) => ({ ...(await original<typeof import("react")>()), cache: <F>(fn: F) => fn }));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
-vi.mock("next/headers", () => ({
-  cookies: async () => ({
-    get: (name: string) => (request.cookies.has(name) ? { name, value: request.cookies.get(name) as string } : undefined),
-    set: (name: string | { name: string; value: string }, value?: string) => {
-      if (typeof name === "string") request.cookies.set(name, value ?? "");
-      else request.cookies.set(name.name, name.value);
-    },
-  }),
-  headers: async () => request.headers,
-}));
-vi.mock("@/db", () => ({
-  db: () => {
-    if (!state.db) throw new Error("test database not ready");
-    return state.db;
-  },
-}));
+vi.mock("next/headers", async () => (await import("./support/request-context")).nextHeaders);
+vi.mock("@/db", async () => (await import("./support/request-context")).dbModule);
+vi.mock("react", async (original) => ({ ...(await original<typeof import("react")>()), cache: <F>(fn: F) => fn }));
 
 // ---- What is on disk. ---------------------------------------------------------------------------
 
@@ -178,14 +160,6 @@ type Credential = "none" | "forged" | "revoked" | Role | "token";
 let token = "";
 let revoked = "";
 
-async function sealFor(db: Db, email: string, secret: string): Promise<{ cookie: string; sessionId: string }> {
-  const user = await findUserByEmail(db, email);
-  if (!user) throw new Error(`no user ${email}`);
-  const sessionId = await createSession(db, user.id, SESSION_TTL_SECONDS);
-  const cookie = await sealData({ userId: user.id, sessionVersion: user.session_version, sessionId }, { password: secret, ttl: SESSION_TTL_SECONDS });
-  return { cookie, sessionId };
-}
-
 function sameOriginHeaders(): Record<string, string> {
   return { origin: appOrigin(env()), "content-type": "application/json" };
 }
@@ -196,7 +170,7 @@ async function useCookie(credential: Credential): Promise<void> {
   let cookie: string | undefined;
   if (credential === "forged") cookie = forged;
   else if (credential === "revoked") cookie = revoked;
-  else if (credential !== "none" && credential !== "token") cookie = (await sealFor(state.db!, `${credential}@tapwright.test`, env().SESSION_SECRET)).cookie;
+  else if (credential !== "none" && credential !== "token") cookie = (await sessionCookie(state.db!, `${credential}@tapwright.test`, env().SESSION_SECRET)).cookie;
   if (cookie) request.cookies.set(SESSION_COOKIE, cookie);
 }
 
@@ -241,10 +215,10 @@ beforeAll(async () => {
   fresh = await freshDb("route_matrix");
   state.db = fresh.db;
   await seedDemo(fresh.db, "matrix-password");
-  const signedOut = await sealFor(fresh.db, "admin@tapwright.test", env().SESSION_SECRET);
+  const signedOut = await sessionCookie(fresh.db, "admin@tapwright.test", env().SESSION_SECRET);
   await revokeSession(fresh.db, signedOut.sessionId);
   revoked = signedOut.cookie;
-  forged = (await sealFor(fresh.db, "admin@tapwright.test", "another-secret-of-at-least-32-characters!")).cookie;
+  forged = (await sessionCookie(fresh.db, "admin@tapwright.test", "another-secret-of-at-least-32-characters!")).cookie;
   const engineer = (await findUserByEmail(fresh.db, "engineer@tapwright.test"))!;
   token = (await fresh.db.transaction().execute((trx) => createToken(trx, { id: engineer.id, email: engineer.email, name: engineer.display_name, role: "engineer" }, "matrix"))).token;
   routes = await discoverRoutes();
