@@ -36,8 +36,11 @@ export function stageSize(spec: StageSpec): DesignSize {
       return fir(count(spec.length));
     case "differentiator":
       return fir(2);
-    case "analog":
-      return recursive(Math.max(spec.num.length, spec.den.length) - 1);
+    case "analog": {
+      // A constant den (after leading zeros) leaves no poles: the design is a one-tap FIR (a gain).
+      const denDegree = spec.den.length - 1 - Math.max(0, spec.den.findIndex((c) => c !== 0));
+      return denDegree <= 0 ? fir(1) : recursive(Math.max(spec.num.length, spec.den.length) - 1);
+    }
     case "coefficients":
       if (spec.sos !== undefined) return { order: 2 * spec.sos.length, sections: spec.sos.length, taps: 0 };
       if (spec.b === undefined) return NONE;
