@@ -1,6 +1,7 @@
 import { defineConfig } from "@playwright/test";
 
-const WEB_PORT = Number(process.env.E2E_WEB_PORT ?? 3100);
+import { WEB_PORT } from "./tests/e2e/pages/origin";
+
 const SIDECAR_PORT = Number(process.env.E2E_SIDECAR_PORT ?? 3101);
 const MQTT_PORT = Number(process.env.E2E_MQTT_PORT ?? 18831);
 const SMTP_PORT = Number(process.env.E2E_SMTP_PORT ?? 25251);
@@ -24,11 +25,13 @@ export default defineConfig({
   },
   webServer: [
     {
-      command: `node_modules/.bin/next start -H 127.0.0.1 -p ${WEB_PORT}`,
+      command: "node --import tsx server/run/web.ts",
       url: `http://127.0.0.1:${WEB_PORT}/api/health`,
       reuseExistingServer: false,
       timeout: 120_000,
-      env: { DEMO: "1", ...ports },
+      // Loopback counts as a proxy here, so tests can play clients at other addresses with X-Forwarded-For;
+      // the first sign-in delay is 5 s so a slow machine still sees it before it runs out.
+      env: { DEMO: "1", NODE_ENV: "production", HOST: "127.0.0.1", TRUSTED_PROXIES: "127.0.0.1", LOGIN_DELAY_BASE_MS: "5000", ...ports },
     },
     {
       command: "node --import tsx server/mail/fake-smtp-main.ts",

@@ -1,6 +1,8 @@
 import type { Metadata } from "next";
 import localFont from "next/font/local";
+import { headers } from "next/headers";
 import type { ReactNode } from "react";
+import { NoEval } from "@/components/shell/no-eval";
 import "./globals.css";
 
 const inter = localFont({
@@ -27,13 +29,21 @@ export const metadata: Metadata = {
 // Applies the saved theme before first paint so pages do not flash.
 const THEME_SCRIPT = `try{var t=localStorage.getItem("tapwright-theme");if(t==="dark"||(!t&&matchMedia("(prefers-color-scheme: dark)").matches))document.documentElement.classList.add("dark")}catch(e){}`;
 
-export default function RootLayout({ children }: { children: ReactNode }) {
+/**
+ * Every page is rendered per request (reading the headers makes it so): the Content-Security-Policy
+ * nonce that proxy.ts makes for the request goes on this layout's own script, and Next puts it on its own.
+ */
+export default async function RootLayout({ children }: { children: ReactNode }) {
+  const nonce = (await headers()).get("x-nonce") ?? undefined;
   return (
     <html lang="en" className={`${inter.variable} ${mono.variable}`} suppressHydrationWarning>
       <head>
-        <script dangerouslySetInnerHTML={{ __html: THEME_SCRIPT }} />
+        <script nonce={nonce} suppressHydrationWarning dangerouslySetInnerHTML={{ __html: THEME_SCRIPT }} />
       </head>
-      <body className="min-h-screen font-sans">{children}</body>
+      <body className="min-h-screen font-sans">
+        <NoEval />
+        {children}
+      </body>
     </html>
   );
 }

@@ -4,7 +4,7 @@ import { seedDemo } from "./seed";
 import { seedDemoDeviceCredentials } from "./seed-device-credentials";
 
 const e = env();
-const db = createDb(e.DATABASE_URL, 1);
+const db = createDb(e.MIGRATION_DATABASE_URL ?? e.DATABASE_URL, 1);
 try {
   await seedDemo(db, e.DEMO_PASSWORD);
   await seedDemoDeviceCredentials(db, e.SESSION_SECRET);

@@ -59,11 +59,21 @@ export interface AuditLogTable {
   after: unknown;
 }
 
-export interface LoginFailuresTable {
-  id: Generated<string>;
-  at: CreatedAt;
-  email: string;
-  address: string;
+/** A signed-in session; its id is sealed in the cookie, and a revoked or expired row ends it. */
+export interface SessionsTable {
+  id: string;
+  user_id: number;
+  created_at: CreatedAt;
+  expires_at: Date;
+  revoked_at: Date | null;
+}
+
+/** Failed sign-ins counted per key (`account:…`, `address:…`, `device:…`) and the time before the next try. */
+export interface LoginThrottleTable {
+  key: string;
+  failures: Generated<number>;
+  last_failure_at: ColumnType<Date, Date | string | undefined, Date | string>;
+  blocked_until: Date | null;
 }
 
 export interface DeviceCredentialsTable {
@@ -241,7 +251,8 @@ export interface Database {
   devices: DevicesTable;
   channels: ChannelsTable;
   audit_log: AuditLogTable;
-  login_failures: LoginFailuresTable;
+  sessions: SessionsTable;
+  login_throttle: LoginThrottleTable;
   device_credentials: DeviceCredentialsTable;
   coefficient_sets: CoefficientSetsTable;
   revisions: RevisionsTable;

@@ -5,6 +5,7 @@ export const ERROR_STATUS = {
   forbidden: 403,
   not_found: 404,
   conflict: 409,
+  too_large: 413,
   unprocessable: 422,
   too_many_requests: 429,
   internal: 500,
@@ -22,6 +23,16 @@ export class AppError extends Error {
   ) {
     super(message);
     this.name = "AppError";
+  }
+}
+
+/** 429 that says how long to wait: `retryAfterSeconds` goes out as the Retry-After header and in the details. */
+export class RetryLater extends AppError {
+  constructor(
+    message: string,
+    readonly retryAfterSeconds: number,
+  ) {
+    super("too_many_requests", message, { retryAfterSeconds });
   }
 }
 

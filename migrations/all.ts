@@ -6,6 +6,7 @@ import * as m0004 from "./20261201_0004_mail";
 import * as m0005 from "./20261201_0005_api_tokens";
 import * as m0006 from "./20261201_0006_recordings";
 import * as m0007 from "./20261203_0007_channel_capacity";
+import * as m0008 from "./20261203_0008_sessions_throttle";
 import * as m0009 from "./20261203_0009_alarms_annotations";
 
 /** Every migration in order; a static list so tsx, vitest and bundlers load them alike. */
@@ -17,6 +18,7 @@ export const migrations: Record<string, Migration> = {
   "20261201_0005_api_tokens": m0005,
   "20261201_0006_recordings": m0006,
   "20261203_0007_channel_capacity": m0007,
+  "20261203_0008_sessions_throttle": m0008,
   "20261203_0009_alarms_annotations": m0009,
 };
 

@@ -1,7 +1,9 @@
 import { readFileSync } from "node:fs";
 import { createDb } from "@/db/client";
-import { sessionOptions } from "@/lib/auth/session-config";
-import { appUrl, env } from "@/lib/env";
+import { SESSION_TTL_SECONDS } from "@/lib/auth/session-config";
+import { appOrigin, appUrl, env } from "@/lib/env";
+import { MAX_CANDIDATES_PER_CLIENT } from "@/lib/protocol";
+import { createWorkPool, poolSettings, workerEntry } from "@/lib/workers";
 import { startAlarms, type AlarmService } from "./alarms/service";
 import { consoleLogger, systemClock } from "./clock";
 import { startDeploymentWorker, type DeploymentWorker } from "./deploy/worker";
@@ -12,7 +14,14 @@ import { startSidecar, type Sidecar } from "./sidecar";
 const e = env();
 const db = createDb(e.DATABASE_URL);
 const loopback = "127.0.0.1";
-const ttl = sessionOptions(e.SESSION_SECRET, e.COOKIE_SECURE === "1").ttl ?? 60 * 60 * 12;
+// Candidates are designed on worker threads with a time limit, so no design can stall ingest or the stream;
+// a connection may design all of its candidates at once (the bench sends them together when it connects).
+const work = createWorkPool({
+  ...poolSettings(),
+  maxPerOwner: MAX_CANDIDATES_PER_CLIENT,
+  entry: workerEntry(),
+  log: (m) => consoleLogger.warn(`design threads: ${m}`),
+});
 
 let sidecar: Sidecar | undefined;
 let deployments: DeploymentWorker | undefined;
@@ -31,6 +40,7 @@ async function shutdown(signal: string): Promise<void> {
     await alarms?.stop();
     await deployments?.stop();
     await sidecar?.close();
+    await work.close();
     await db.destroy();
     process.exit(0);
   } catch (err) {
@@ -53,11 +63,16 @@ sidecar = await startSidecar({
   clock: systemClock,
   logger: consoleLogger,
   sessionSecret: e.SESSION_SECRET,
-  sessionTtlSeconds: ttl,
+  sessionTtlSeconds: SESSION_TTL_SECONDS,
   http: {
     host: loopback,
     port: e.SIDECAR_PORT,
-    allowedOrigins: [`http://127.0.0.1:${e.PORT}`, `http://localhost:${e.PORT}`],
+    allowedOrigins: [...new Set([appOrigin(e), `http://127.0.0.1:${e.PORT}`, `http://localhost:${e.PORT}`])],
+  },
+  design: (spec, owner) => work.run({ kind: "design", spec }, owner),
+  ws: {
+    messageRate: { perSecond: e.WS_MESSAGES_PER_SECOND, burst: e.WS_MESSAGE_BURST },
+    maxConnectionsPerUser: e.WS_CONNECTIONS_PER_USER,
   },
   mqtt: e.MQTT_URL
     ? {

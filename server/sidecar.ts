@@ -1,8 +1,9 @@
 import type { Server } from "node:http";
 import type { Db } from "@/db/client";
 import { listChannels } from "@/db/queries/channels";
-import { accountsByIds } from "@/db/queries/users";
+import { liveSessionAccounts } from "@/db/queries/sessions";
 import { demoDeviceCredential } from "@/lib/demo/device-credentials";
+import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { filteredTopic, parseTopic, SAMPLES_FILTER, sharedFilter, type LiveOverview } from "@/lib/protocol";
 import type { MessageBus } from "./broker/bus";
 import { deviceAuthHooks, type DeviceAuth, type InternalCredential } from "./broker/device-auth";
@@ -38,6 +39,10 @@ export interface SidecarOptions {
   sessionSecret: string;
   sessionTtlSeconds: number;
   http: { host: string; port: number; allowedOrigins?: string[] };
+  /** Designs candidates' specs off the event loop (the design threads, with their time limit); `owner` is the connection. */
+  design: (spec: FilterSpec, owner: string) => Promise<FilterDesign>;
+  /** Per WebSocket connection: messages per second and burst; per user: open connections. */
+  ws?: { messageRate?: { perSecond: number; burst: number }; maxConnectionsPerUser?: number };
   mqtt: MqttSetup;
   republishFiltered: boolean;
   /** Start the demo rig (its own MQTT connections) with this seed. */
@@ -126,7 +131,9 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     clock,
     logger,
     busState: () => bus.state,
-    accounts: (ids) => accountsByIds(opts.db, ids),
+    sessions: (ids) => liveSessionAccounts(opts.db, ids),
+    design: opts.design,
+    messageRate: opts.ws?.messageRate,
     maxBufferedBytes: opts.maxBufferedBytes,
   });
   bus.onState((state) => {
@@ -140,6 +147,7 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     hub,
     logger,
     allowedOrigins: opts.http.allowedOrigins,
+    maxConnectionsPerUser: opts.ws?.maxConnectionsPerUser,
   });
 
   function health() {

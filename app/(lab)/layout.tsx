@@ -2,9 +2,19 @@ import type { ReactNode } from "react";
 import { requirePageUser } from "@/app/_lib/auth";
 import { QueryProvider } from "@/components/providers/query-provider";
 import { AppHeader } from "@/components/shell/app-header";
+import { DatabaseDown } from "@/components/shell/database-down";
+import { isDatabaseDown } from "@/lib/errors";
 
+/** The signed-in pages; while the database is down they show the app's own plain page instead. */
 export default async function LabLayout({ children }: { children: ReactNode }) {
-  const user = await requirePageUser();
+  let user;
+  try {
+    user = await requirePageUser();
+  } catch (err) {
+    if (!isDatabaseDown(err)) throw err;
+    console.error("[pages] the database cannot be reached", err);
+    return <DatabaseDown />;
+  }
   return (
     <>
       <AppHeader user={user} />

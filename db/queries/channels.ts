@@ -59,7 +59,9 @@ export function listChannels(db: Conn): Promise<ChannelRow[]> {
 
 export function findChannelByPath(db: Conn, path: string): Promise<ChannelRow | undefined> {
   const [rig, device, channel, ...rest] = path.split("/");
-  if (!rig || !device || !channel || rest.length) return Promise.resolve(undefined);
+  // Only well-formed keys can exist (the tables' checks); anything else is not looked up at all.
+  const key = /^[a-z0-9][a-z0-9-]{0,62}$/;
+  if (![rig, device, channel].every((k) => k !== undefined && key.test(k)) || rest.length) return Promise.resolve(undefined);
   return channelQuery(db)
     .where("r.key", "=", rig)
     .where("d.key", "=", device)

@@ -49,36 +49,3 @@ export function updateUser(
     .returningAll()
     .executeTakeFirst();
 }
-
-export async function recordLoginFailure(db: Conn, email: string, address: string | null): Promise<void> {
-  await db.insertInto("login_failures").values({ email: email.toLowerCase(), address: address ?? "" }).execute();
-}
-
-/** Failures inside the window, per account and per address (0 when the address is unknown). */
-export async function countLoginFailures(
-  db: Conn,
-  email: string,
-  address: string | null,
-  windowMs: number,
-): Promise<{ account: number; address: number }> {
-  const since = new Date(Date.now() - windowMs);
-  const row = await db
-    .selectFrom("login_failures")
-    .select([
-      sql<number>`count(*) filter (where email = ${email.toLowerCase()})::int`.as("account"),
-      sql<number>`count(*) filter (where address <> '' and address = ${address ?? ""})::int`.as("address"),
-    ])
-    .where("at", ">", since)
-    .executeTakeFirstOrThrow();
-  return { account: row.account, address: row.address };
-}
-
-export async function clearLoginFailures(db: Conn, email: string): Promise<void> {
-  await db.deleteFrom("login_failures").where("email", "=", email.toLowerCase()).execute();
-}
-
-/** The accounts behind open live connections, in one query (the sidecar's session recheck). */
-export function accountsByIds(db: Conn, ids: number[]): Promise<Pick<User, "id" | "email" | "display_name" | "role" | "disabled" | "session_version">[]> {
-  if (!ids.length) return Promise.resolve([]);
-  return db.selectFrom("users").select(["id", "email", "display_name", "role", "disabled", "session_version"]).where("id", "in", ids).execute();
-}

@@ -20,14 +20,21 @@ export interface StoredAccount {
   session_version: number;
 }
 
+/** A stored session that is still live (not revoked, not expired), with its account. */
+export interface StoredSession extends StoredAccount {
+  session_id: string;
+}
+
 /**
- * The one session check: a cookie is valid only while its account exists, is enabled and its
- * session version is unchanged (a password change or disabling bumps the version).
+ * The one session check: a cookie is valid only while its session is live in the database (signing
+ * out revokes it), its account exists and is enabled, and the account's session version is unchanged
+ * (a password change or disabling bumps the version).
  */
-export function resolveSessionUser(session: SessionData, account: StoredAccount | undefined): SessionUser | null {
-  if (!session.userId || !account || account.id !== session.userId) return null;
-  if (account.disabled || account.session_version !== session.sessionVersion) return null;
-  return { id: account.id, email: account.email, name: account.display_name, role: account.role };
+export function resolveSessionUser(session: SessionData, stored: StoredSession | undefined): SessionUser | null {
+  if (!session.userId || !session.sessionId || !stored) return null;
+  if (stored.id !== session.userId || stored.session_id !== session.sessionId) return null;
+  if (stored.disabled || stored.session_version !== session.sessionVersion) return null;
+  return { id: stored.id, email: stored.email, name: stored.display_name, role: stored.role };
 }
 
 /** Throws 401 without a user and 403 below the required role; returns the user otherwise. */

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { checkDesignSize } from "./design-size";
 import { SPEC_LIMITS, stageSpecSchema, type StageSpec } from "./spec";
 
 const STAGE_KINDS = stageSpecSchema.options.map((o) => o.shape.kind.value).join(", ");
@@ -47,8 +48,17 @@ export const chainSpecSchema = z
     }
   });
 
-/** Every filter design request: a single stage, or a chain of them, told apart by `kind`. */
-export const filterSpecSchema = z.discriminatedUnion("kind", [...stageSpecSchema.options, chainSpecSchema]);
+/**
+ * Every filter design request: a single stage, or a chain of them, told apart by `kind`; its running
+ * stages together stay within the design-size limits (SPEC_LIMITS.maxTotal…).
+ */
+export const filterSpecSchema = z
+  .discriminatedUnion("kind", [...stageSpecSchema.options, chainSpecSchema])
+  .superRefine((spec, ctx) => {
+    const running = activeStages(spec).map((s) => s.spec);
+    const path = spec.kind === "chain" ? ["stages"] : spec.kind === "coefficients" ? [spec.sos ? "sos" : "b"] : [];
+    checkDesignSize(ctx, running, path, spec.kind === "chain");
+  });
 
 export type ChainStage = z.infer<typeof chainStageSchema>;
 export type ChainSpec = z.infer<typeof chainSpecSchema>;

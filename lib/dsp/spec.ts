@@ -10,21 +10,31 @@ import { checkCutoffs, iirSpecSchema } from "./iir/spec";
 import { NOTCH_LIMITS, notchSpecSchema } from "./notch-spec";
 import { checkBelowNyquist, checkInteger, coefficientList, finite, refuse, sampleRateHz } from "./spec-fields";
 
-/** Limits of the design requests (product choices; each refusal message states the allowed range). */
+/**
+ * Limits of the design requests (product choices; each refusal message states the allowed range).
+ * The totals bound the work one design costs (designing, analysing and quantizing it grows with its
+ * sections and taps), so every request is bounded before it starts.
+ */
 export const SPEC_LIMITS = {
   maxQ: 1000,
   maxGainDb: 60,
   maxFirTaps: 1023,
   maxKaiserBeta: 100,
   maxAttenuationDb: 300,
-  maxMovingAverageLength: 4096,
+  maxMovingAverageLength: 2048,
   maxPastedTaps: 1024,
   maxPastedDenominator: 65,
-  maxSosRows: 64,
+  maxSosRows: 32,
   maxChainStages: 8,
   ...NOTCH_LIMITS,
   ...COMB_LIMITS,
   ...FIR_DESIGN_LIMITS,
+  /** Second-order sections of a whole design (all running stages together). */
+  maxTotalSections: 32,
+  /** FIR taps of a whole design. */
+  maxTotalTaps: 2048,
+  /** Order (degree of the transfer function) of a whole design. */
+  maxTotalOrder: 2048,
 } as const;
 
 /** A cookbook biquad; gainDb is required by peaking and the shelves and refused by the other shapes. */

@@ -1,16 +1,37 @@
 import type { z } from "zod";
-import { AppError, toErrorBody } from "@/lib/errors";
+import { env, appOrigin } from "@/lib/env";
+import { AppError, RetryLater, toErrorBody } from "@/lib/errors";
+import { readJson } from "./body";
+import { clientAddress as resolveClientAddress, trustedProxies } from "./client-address";
+import { safeParseInput } from "./fields";
+import { changesState, crossSiteRefusal } from "./origin";
 
-/** Wraps a route handler so anything thrown becomes a safe JSON error; causes go to the log. */
+/** Refuses a state-changing request that does not come from the app's own pages (403), see crossSiteRefusal. */
+export function requireSameOrigin(method: string, headers: Headers, opts: { originRequired?: boolean } = {}): void {
+  if (!changesState(method)) return;
+  const refusal = crossSiteRefusal(headers, appOrigin(env()), opts);
+  if (refusal) throw new AppError("forbidden", `Cross-site request refused: ${refusal}.`);
+}
+
+/**
+ * Wraps a route handler: state-changing requests must come from the app's own pages (or carry an
+ * API token); anything thrown becomes a safe JSON error with causes in the log; answers are never
+ * stored by caches unless the route says otherwise (they are per user).
+ */
 export function handler<C>(fn: (req: Request, ctx: C) => Promise<Response>) {
   return async (req: Request, ctx: C): Promise<Response> => {
+    let res: Response;
     try {
-      return await fn(req, ctx);
+      requireSameOrigin(req.method, req.headers);
+      res = await fn(req, ctx);
     } catch (err) {
       const { status, body } = toErrorBody(err);
-      if (status >= 500) console.error(`[${req.method} ${new URL(req.url).pathname}]`, err);
-      return Response.json(body, { status });
+      if (status >= 500 && !(err instanceof AppError)) console.error(`[${req.method} ${new URL(req.url).pathname}]`, err);
+      res = Response.json(body, { status });
+      if (err instanceof RetryLater) res.headers.set("retry-after", String(err.retryAfterSeconds));
     }
+    if (!res.headers.has("cache-control")) res.headers.set("cache-control", "no-store");
+    return res;
   };
 }
 
@@ -19,29 +40,19 @@ export function issueList(error: z.ZodError): { path: string; message: string }[
   return error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message }));
 }
 
-/** Parses a value with a schema or throws 400 with zod's issue paths. */
+/** Parses a value with a schema or throws 400 with zod's issue paths; unstorable text is refused first. */
 export function parseWith<S extends z.ZodType>(schema: S, value: unknown): z.infer<S> {
-  const parsed = schema.safeParse(value);
+  const parsed = safeParseInput(schema, value);
   if (!parsed.success) throw new AppError("bad_request", "Some fields are invalid.", issueList(parsed.error));
   return parsed.data;
 }
 
-/** Reads a JSON body and parses it with a schema; 400 for malformed JSON or fields. */
+/** Reads a JSON body (at most MAX_JSON_BODY_BYTES) and parses it with a schema; 413 over the limit, 400 for malformed JSON or fields. */
 export async function parseBody<S extends z.ZodType>(req: Request, schema: S): Promise<z.infer<S>> {
-  let value: unknown;
-  try {
-    value = await req.json();
-  } catch {
-    throw new AppError("bad_request", "The request body must be valid JSON.");
-  }
-  return parseWith(schema, value);
+  return parseWith(schema, await readJson(req, env().MAX_JSON_BODY_BYTES));
 }
 
-/**
- * The caller's address as reported by a front proxy (X-Forwarded-For, X-Real-IP), or null when no
- * proxy reports one: Next route handlers do not see the socket address.
- */
+/** The caller's address: X-Forwarded-For read from the right through the TRUSTED_PROXIES (see client-address.ts). */
 export function clientAddress(req: Request): string | null {
-  const forwarded = req.headers.get("x-forwarded-for")?.split(",")[0]?.trim();
-  return forwarded || req.headers.get("x-real-ip") || null;
+  return resolveClientAddress(req.headers.get("x-forwarded-for"), trustedProxies(env().TRUSTED_PROXIES));
 }

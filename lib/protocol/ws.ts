@@ -39,6 +39,8 @@ export const WS_ERROR_CODES = [
   "duplicate_candidate",
   "unknown_candidate",
   "bad_spec",
+  "rate_limited",
+  "busy",
   "internal",
 ] as const;
 export type WsErrorCode = (typeof WS_ERROR_CODES)[number];
@@ -125,5 +127,8 @@ export type CandidateMetrics = Extract<ServerMessage, { type: "metrics" }>["cand
 /** The sidecar's WebSocket path. */
 export const WS_PATH = "/ws";
 
-/** Close code when an open connection's session ends (account disabled, password changed); do not retry. */
+/** Close code when an open connection's session ends (signed out, account disabled, password changed); do not retry. */
 export const SESSION_ENDED = 4401;
+
+/** Close code for a connection that keeps sending far past its message rate. */
+export const TOO_MANY_MESSAGES = 4429;

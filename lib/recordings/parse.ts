@@ -45,6 +45,13 @@ export interface ParsedRecording {
 /** RFC 4180 number with '.' as the decimal separator (no thousands separators, no Infinity). */
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
+/** A cell as a finite double, or null: not a '.'-decimal number, or one past ±1.8e308 (like 1e999), which would read as ±Infinity. */
+function finiteNumber(cell: string): number | null {
+  if (!NUMBER.test(cell)) return null;
+  const value = Number(cell);
+  return Number.isFinite(value) ? value : null;
+}
+
 function timeKindOf(header: string[], first: CsvRecord | undefined): TimeKind {
   const name = header[0].trim();
   if (name === "t_s" || splitHeader(name).name === "t_s") return "t_s";
@@ -97,8 +104,9 @@ export function parseRecordingCsv(text: string, opts: CsvOptions): ParsedRecordi
     if (values.length >= MAX_SAMPLES) throw new RecordingCsvError(`The file holds more than ${MAX_SAMPLES.toLocaleString("en-US")} samples, the limit for one recording. Split it into shorter captures.`);
     if (time === "t_s") {
       const cell = rec.fields[0].trim();
-      if (!NUMBER.test(cell)) throw new RecordingCsvError(`Line ${rec.line}, column ${header[0].trim()}: "${cell}" is not a time in seconds. Every row needs its time, written with '.' decimals.`, "file", rec.line, header[0].trim());
-      times.push(Number(cell));
+      const t = finiteNumber(cell);
+      if (t === null) throw new RecordingCsvError(`Line ${rec.line}, column ${header[0].trim()}: "${cell}" is not a time in seconds. Every row needs its time, written with '.' decimals.`, "file", rec.line, header[0].trim());
+      times.push(t);
     } else if (time === "iso") {
       const ts = parseIsoTimestamp(rec.fields[0]);
       if (!ts) throw new RecordingCsvError(`Line ${rec.line}, column ${header[0].trim()}: "${rec.fields[0].trim()}" is not an ISO 8601 timestamp with a zone (like 2026-12-01T08:00:00.000Z).`, "file", rec.line, header[0].trim());
@@ -109,14 +117,15 @@ export function parseRecordingCsv(text: string, opts: CsvOptions): ParsedRecordi
       times.push((ts.epochMs - base) / 1000 + ts.fractionS);
     }
     const cell = rec.fields[width - 1].trim();
+    const value = finiteNumber(cell);
     if (cell === "" || cell.toLowerCase() === "nan") {
       values.push(NaN);
       missing++;
-    } else if (NUMBER.test(cell)) {
-      values.push(Number(cell));
+    } else if (value !== null) {
+      values.push(value);
     } else {
       throw new RecordingCsvError(
-        `Line ${rec.line}, column ${valueHeader}: "${cell}" is not a number. Use '.' for decimals and leave missing samples empty (or NaN), never 0.`,
+        `Line ${rec.line}, column ${valueHeader}: "${cell}" is not a finite number. Use '.' for decimals and leave missing samples empty (or NaN), never 0.`,
         "file",
         rec.line,
         valueHeader,

@@ -32,22 +32,27 @@ if [ ! -f node_modules/.package-lock.json ] || [ package-lock.json -nt node_modu
   npm ci --no-audit --no-fund --loglevel=error
 fi
 
-# 3. The session secret: from the environment, or generated once into a git-ignored file.
+# 3. The session secret: from the environment, or generated once into a git-ignored file that only
+#    this user may read (0600; a secret readable by others lets them forge any session).
 mkdir -p .data
 if [ -z "${SESSION_SECRET:-}" ]; then
-  [ -s .data/session-secret ] || node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("hex"))' > .data/session-secret
+  [ -s .data/session-secret ] || (umask 077 && node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("hex"))' > .data/session-secret)
+  chown "$(id -u):$(id -g)" .data/session-secret
+  chmod 600 .data/session-secret
   SESSION_SECRET=$(cat .data/session-secret)
   export SESSION_SECRET
 fi
 
-# 4. PostgreSQL on loopback unless DATABASE_URL points elsewhere.
+# 4. PostgreSQL on loopback unless DATABASE_URL points elsewhere: migrations and the seed run as the
+#    schema's owner, the app connects as a role that owns nothing (see db/cluster.sh).
 if [ -z "${DATABASE_URL:-}" ]; then
   bash db/cluster.sh start "$DB_NAME"
-  DATABASE_URL=$(bash db/cluster.sh url "$DB_NAME")
-  export DATABASE_URL
+  MIGRATION_DATABASE_URL=$(bash db/cluster.sh url "$DB_NAME")
+  DATABASE_URL=$(bash db/cluster.sh url "$DB_NAME" --app)
+  export DATABASE_URL MIGRATION_DATABASE_URL
 fi
 
-# 5. Schema and demo data.
+# 5. Schema (with the app role's grants) and demo data.
 node --import tsx migrations/run.ts
 if [ "${DEMO:-1}" = 1 ]; then node --import tsx db/seed-run.ts; fi
 

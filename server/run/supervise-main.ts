@@ -7,7 +7,8 @@ import { supervise } from "./supervisor";
 const port = process.env.PORT ?? "3000";
 const tsx = ["--import", "tsx"];
 const supervisor = supervise([
-  { name: "web", command: "node_modules/.bin/next", args: ["start", "-H", "127.0.0.1", "-p", port] },
+  // The web app behind server/run/web.ts, which gives the app the socket's real peer address.
+  { name: "web", command: process.execPath, args: [...tsx, "server/run/web.ts"], env: { NODE_ENV: "production", HOST: "127.0.0.1", PORT: port } },
   { name: "mail", command: process.execPath, args: [...tsx, "server/mail/fake-smtp-main.ts"] },
   { name: "sidecar", command: process.execPath, args: [...tsx, "server/main.ts"] },
 ]);

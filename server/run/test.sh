@@ -7,13 +7,18 @@ set -e
 # End-to-end runs start from a fresh demo database so earlier runs leave nothing behind.
 if [ -z "${DATABASE_URL:-}" ]; then
   bash db/cluster.sh start >/dev/null
-  psql -h 127.0.0.1 -p "${PG_PORT:-5433}" -U postgres -qc "drop database if exists tapwright_e2e with (force)"
+  bash db/cluster.sh drop tapwright_e2e
 fi
 source server/run/setup.sh tapwright_e2e --with-browser
 set +e
 E2E_DATABASE_URL=$DATABASE_URL
-export TEST_DATABASE_URL=${TEST_DATABASE_URL:-$(bash db/cluster.sh url tapwright_test)}
-bash db/cluster.sh start tapwright_test >/dev/null
+if [ -z "${TEST_DATABASE_URL:-}" ]; then
+  bash db/cluster.sh start tapwright_test >/dev/null
+  TEST_DATABASE_URL=$(bash db/cluster.sh url tapwright_test)
+  # The database-role tests connect as the app's role too.
+  TEST_APP_DATABASE_URL=$(bash db/cluster.sh url tapwright_test --app)
+  export TEST_DATABASE_URL TEST_APP_DATABASE_URL
+fi
 mkdir -p .data/reports
 
 node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile.json=.data/reports/vitest.json

@@ -1,15 +1,25 @@
-import { designFilter } from "@/lib/dsp";
-import { requireRole, resolveSessionUser, type SessionUser, type StoredAccount } from "@/lib/auth/guard";
+import type { FilterDesign, FilterSpec } from "@/lib/dsp";
+import { requireRole, resolveSessionUser, type SessionUser, type StoredSession } from "@/lib/auth/guard";
 import { roleAtLeast, type Role } from "@/lib/auth/roles";
 import type { SessionData } from "@/lib/auth/session-config";
 import { AppError } from "@/lib/errors";
-import { clientMessageSchema, SESSION_ENDED, type ClientMessage, type ServerMessage, type WsErrorCode } from "@/lib/protocol";
+import {
+  clientMessageSchema,
+  MAX_CANDIDATES_PER_CLIENT,
+  SESSION_ENDED,
+  TOO_MANY_MESSAGES,
+  type ClientMessage,
+  type ServerMessage,
+  type WsErrorCode,
+} from "@/lib/protocol";
+import { WorkBusy, WorkFailed, WorkTimeout } from "@/lib/workers/pool";
 import type { BusState } from "../broker/bus";
 import type { Clock, Logger, Timer } from "../clock";
 import type { FaultLog } from "../ingest/fault-log";
 import { bucketSize } from "../pipeline/decimate";
 import { CandidateLimitError, candidateKey, PRODUCTION, type PendingBlock, type Pipeline } from "../pipeline/pipeline";
 import { buildFrames, type ViewState } from "./frames";
+import { tokenBucket, type TokenBucket } from "./rate-limit";
 
 /** One browser connection as the hub sees it; the WebSocket server supplies it. */
 export interface ClientConn {
@@ -17,7 +27,7 @@ export interface ClientConn {
   id: string;
   /** Who opened the connection; the hub keeps its own copy, refreshed on every session recheck. */
   user: SessionUser;
-  /** What the session cookie held (user id and session version), rechecked against the account. */
+  /** What the session cookie held (user, session version, stored session), rechecked against the database. */
   session: SessionData;
   send(text: string): void;
   /** Closes the socket (WebSocket close code and reason). */
@@ -38,6 +48,11 @@ interface ClientState {
   droppedFrames: number;
   /** Channels on which this client has candidates. */
   candidates: Map<string, Set<string>>;
+  /** Candidates being designed (`<path>|<id>` → the add that started it); counted against the limits. */
+  designing: Map<string, symbol>;
+  messages: TokenBucket;
+  /** Messages refused by the rate since the last one accepted; past a limit the connection is closed. */
+  refusedInARow: number;
 }
 
 export interface HubOptions {
@@ -46,8 +61,12 @@ export interface HubOptions {
   clock: Clock;
   logger: Logger;
   busState: () => BusState;
-  /** The stored accounts of these user ids, in one query (ids without an account are left out). */
-  accounts: (ids: number[]) => Promise<StoredAccount[]>;
+  /** The live stored sessions of these ids with their accounts, in one query (revoked or expired ones are left out). */
+  sessions: (ids: string[]) => Promise<StoredSession[]>;
+  /** Designs a candidate's spec off the event loop (a worker thread with a time limit); `owner` is the connection. */
+  design: (spec: FilterSpec, owner: string) => Promise<FilterDesign>;
+  /** Message rate per connection: `perSecond` sustained, `burst` at once (default 20/s, 40). */
+  messageRate?: { perSecond: number; burst: number };
   /** A client with more than this many bytes queued loses frames until it catches up. */
   maxBufferedBytes?: number;
   frameIntervalMs?: number;
@@ -88,12 +107,21 @@ const REQUIRED_ROLE: Record<ClientMessage["type"], Role> = {
   "candidate.remove": "engineer",
 };
 
-/** WebSocket close code for a session that is no longer valid (4000–4999 are the application's, RFC 6455 §7.4.2). */
-
 class Refusal extends Error {
   constructor(readonly code: WsErrorCode, message: string) {
     super(message);
   }
+}
+
+/** A failed candidate design as the error its client receives. */
+function designRefusal(err: unknown): unknown {
+  if (err instanceof WorkBusy) return new Refusal("busy", err.message);
+  if (err instanceof WorkTimeout) return new Refusal("bad_spec", `${err.message} Make the design smaller: fewer sections, taps or stages.`);
+  if (err instanceof WorkFailed && err.kind !== "crashed") return new Refusal("bad_spec", err.message);
+  if (err instanceof CandidateLimitError) {
+    return new Refusal(err.message.includes("already") ? "duplicate_candidate" : "too_many_candidates", err.message);
+  }
+  return err;
 }
 
 /**
@@ -103,6 +131,7 @@ class Refusal extends Error {
  */
 export function createHub(opts: HubOptions): Hub {
   const maxBuffered = opts.maxBufferedBytes ?? 1 << 20;
+  const rate = opts.messageRate ?? { perSecond: 20, burst: 40 };
   const clients = new Map<string, ClientState>();
   const views = new Map<string, ViewState>();
   const timers: Timer[] = [];
@@ -161,26 +190,18 @@ export function createHub(opts: HubOptions): Hub {
         if (msg.spec.sampleRateHz !== info.sampleRateHz) {
           throw new Refusal("bad_spec", `The spec's sample rate must be the channel's ${info.sampleRateHz} Hz.`);
         }
-        let design;
-        try {
-          design = designFilter(msg.spec);
-        } catch (err) {
-          throw new Refusal("bad_spec", err instanceof Error ? err.message : "The filter could not be designed.");
+        const owned = state.candidates.get(msg.channel);
+        const designing = [...state.designing.keys()].filter((k) => k.startsWith(`${msg.channel}|`));
+        if (owned?.has(msg.id) || state.designing.has(`${msg.channel}|${msg.id}`)) {
+          throw new Refusal("duplicate_candidate", `candidate '${msg.id}' already exists on ${msg.channel}`);
         }
-        try {
-          pipeline.addCandidate(msg.channel, state.conn.id, msg.id, design);
-        } catch (err) {
-          if (err instanceof CandidateLimitError) {
-            throw new Refusal(err.message.includes("already") ? "duplicate_candidate" : "too_many_candidates", err.message);
-          }
-          throw err;
+        if ((owned?.size ?? 0) + designing.length >= MAX_CANDIDATES_PER_CLIENT) {
+          throw new Refusal("too_many_candidates", `at most ${MAX_CANDIDATES_PER_CLIENT} candidates per channel`);
         }
-        const owned = state.candidates.get(msg.channel) ?? new Set();
-        state.candidates.set(msg.channel, owned.add(msg.id));
-        forgetViews(state, msg.channel);
-        return;
+        return startDesign(state, msg.channel, msg.id, msg.spec);
       }
       case "candidate.remove": {
+        if (state.designing.delete(`${msg.channel}|${msg.id}`)) return;
         if (!pipeline.removeCandidate(msg.channel, state.conn.id, msg.id)) {
           throw new Refusal("unknown_candidate", `No candidate ${msg.id} on ${msg.channel}.`);
         }
@@ -189,6 +210,61 @@ export function createHub(opts: HubOptions): Hub {
         return;
       }
     }
+  }
+
+  /**
+   * Designs a candidate on the design threads; every limit was checked before. When the design
+   * comes back the candidate is added only if this add is still wanted: the connection is open, the
+   * candidate was not removed meanwhile, and the role still allows it.
+   */
+  function startDesign(state: ClientState, path: string, id: string, spec: FilterSpec): void {
+    const key = `${path}|${id}`;
+    const token = Symbol(key);
+    state.designing.set(key, token);
+    const wanted = () => clients.get(state.conn.id) === state && state.designing.get(key) === token;
+    opts
+      .design(spec, state.conn.id)
+      .then((design) => {
+        if (!wanted()) return;
+        requireRole(state.user, REQUIRED_ROLE["candidate.add"]);
+        opts.pipeline.addCandidate(path, state.conn.id, id, design);
+        const owned = state.candidates.get(path) ?? new Set();
+        state.candidates.set(path, owned.add(id));
+        forgetViews(state, path);
+      })
+      .catch((err: unknown) => {
+        if (wanted()) refuse(state, designRefusal(err));
+      })
+      .finally(() => {
+        if (state.designing.get(key) === token) state.designing.delete(key);
+      });
+  }
+
+  /** Replies to a refused message with its error; anything unexpected is logged and answered `internal`. */
+  function refuse(state: ClientState, err: unknown): void {
+    if (err instanceof Refusal) return send(state, { type: "error", code: err.code, message: err.message });
+    if (err instanceof AppError) {
+      const code: WsErrorCode = err.code === "forbidden" || err.code === "unauthorized" ? "forbidden" : "internal";
+      return send(state, { type: "error", code, message: err.message });
+    }
+    opts.logger.warn(`ws message failed: ${err instanceof Error ? err.message : String(err)}`);
+    send(state, { type: "error", code: "internal", message: "The message could not be handled." });
+  }
+
+  /** Whether a client may send another message now; a client that keeps flooding is closed. */
+  function withinRate(state: ClientState): boolean {
+    if (state.messages.take(opts.clock.now())) {
+      state.refusedInARow = 0;
+      return true;
+    }
+    state.refusedInARow++;
+    if (state.refusedInARow === 1) {
+      send(state, { type: "error", code: "rate_limited", message: `Too many messages: at most ${rate.perSecond} per second. Later ones are dropped.` });
+    } else if (state.refusedInARow > rate.burst * 5) {
+      hub.remove(state.conn.id);
+      state.conn.close(TOO_MANY_MESSAGES, "Too many messages.");
+    }
+    return false;
   }
 
   function sendFrames(path: string, blocks: PendingBlock[]): void {
@@ -217,11 +293,11 @@ export function createHub(opts: HubOptions): Hub {
   async function recheckOnce(): Promise<void> {
     const open = [...clients.values()];
     if (!open.length) return;
-    const ids = [...new Set(open.map((s) => s.conn.user.id))];
-    const accounts = new Map((await opts.accounts(ids)).map((a) => [a.id, a]));
+    const ids = [...new Set(open.flatMap((s) => (s.conn.session.sessionId ? [s.conn.session.sessionId] : [])))];
+    const live = new Map((await opts.sessions(ids)).map((a) => [a.session_id, a]));
     for (const state of open) {
       if (clients.get(state.conn.id) !== state) continue;
-      const user = resolveSessionUser(state.conn.session, accounts.get(state.conn.user.id));
+      const user = resolveSessionUser(state.conn.session, live.get(state.conn.session.sessionId ?? ""));
       if (!user) {
         hub.remove(state.conn.id);
         state.conn.close(SESSION_ENDED, "Your session has ended. Sign in again.");
@@ -242,7 +318,16 @@ export function createHub(opts: HubOptions): Hub {
       return clients.size;
     },
     add(conn) {
-      const state: ClientState = { conn, user: conn.user, subs: new Map(), droppedFrames: 0, candidates: new Map() };
+      const state: ClientState = {
+        conn,
+        user: conn.user,
+        subs: new Map(),
+        droppedFrames: 0,
+        candidates: new Map(),
+        designing: new Map(),
+        messages: tokenBucket(rate.perSecond, rate.burst, opts.clock.now()),
+        refusedInARow: 0,
+      };
       clients.set(conn.id, state);
       const channels = opts.pipeline.paths().map((path) => ({ path, sampleRateHz: opts.pipeline.channel(path)!.sampleRateHz }));
       send(state, { type: "hello", protocol: 1, role: conn.user.role, channels });
@@ -256,7 +341,7 @@ export function createHub(opts: HubOptions): Hub {
     },
     message(id, text) {
       const state = clients.get(id);
-      if (!state) return;
+      if (!state || !withinRate(state)) return;
       try {
         let json: unknown;
         try {
@@ -271,13 +356,7 @@ export function createHub(opts: HubOptions): Hub {
         }
         handle(state, parsed.data);
       } catch (err) {
-        if (err instanceof Refusal) return send(state, { type: "error", code: err.code, message: err.message });
-        if (err instanceof AppError) {
-          const code: WsErrorCode = err.code === "forbidden" || err.code === "unauthorized" ? "forbidden" : "internal";
-          return send(state, { type: "error", code, message: err.message });
-        }
-        opts.logger.warn(`ws message failed: ${err instanceof Error ? err.message : String(err)}`);
-        send(state, { type: "error", code: "internal", message: "The message could not be handled." });
+        refuse(state, err);
       }
     },
     tick() {

@@ -3,7 +3,7 @@ import type { Duplex } from "node:stream";
 import { unsealData } from "iron-session";
 import { WebSocketServer, type WebSocket } from "ws";
 import type { Db } from "@/db/client";
-import { findUserById } from "@/db/queries/users";
+import { liveSessionAccount } from "@/db/queries/sessions";
 import { resolveSessionUser, type SessionUser } from "@/lib/auth/guard";
 import { SESSION_COOKIE, type SessionData } from "@/lib/auth/session-config";
 import { WS_PATH } from "@/lib/protocol";
@@ -18,16 +18,25 @@ const MAX_CLIENT_MESSAGE = 64 * 1024;
 function cookieValue(header: string | undefined, name: string): string | undefined {
   for (const part of (header ?? "").split(";")) {
     const eq = part.indexOf("=");
-    if (eq > 0 && part.slice(0, eq).trim() === name) return decodeURIComponent(part.slice(eq + 1).trim());
+    if (eq > 0 && part.slice(0, eq).trim() === name) return part.slice(eq + 1).trim();
   }
   return undefined;
 }
 
+/** The session a cookie seals, or {} when it is missing, malformed, forged or expired (never a throw: that is a 401). */
+async function unsealSession(sealed: string, password: string, ttl: number): Promise<SessionData> {
+  try {
+    return await unsealData<SessionData>(decodeURIComponent(sealed), { password, ttl });
+  } catch {
+    return {};
+  }
+}
+
 /**
  * The signed-in user behind an upgrade request, through the one session guard: the iron-session
- * cookie is unsealed (unsealData returns {} for a missing, forged or expired seal), then the account
- * must exist, be enabled and carry the same session version. The session is returned too, so the
- * hub can run the same check again while the connection is open.
+ * cookie is unsealed, then its stored session must be live and its account enabled with the same
+ * session version. The session is returned too, so the hub can run the same check again while the
+ * connection is open. Only a database failure throws.
  */
 export async function userFromUpgrade(
   req: IncomingMessage,
@@ -37,19 +46,21 @@ export async function userFromUpgrade(
 ): Promise<{ user: SessionUser; session: SessionData } | null> {
   const sealed = cookieValue(req.headers.cookie, SESSION_COOKIE);
   if (!sealed) return null;
-  const session = await unsealData<SessionData>(sealed, { password: sessionSecret, ttl });
-  if (typeof session.userId !== "number") return null;
-  const user = resolveSessionUser(session, await findUserById(db, session.userId));
-  return user ? { user, session: { userId: session.userId, sessionVersion: session.sessionVersion } } : null;
+  const session = await unsealSession(sealed, sessionSecret, ttl);
+  if (typeof session.userId !== "number" || typeof session.sessionId !== "string") return null;
+  const user = resolveSessionUser(session, await liveSessionAccount(db, session.sessionId));
+  const { userId, sessionVersion, sessionId } = session;
+  return user ? { user, session: { userId, sessionVersion, sessionId } } : null;
 }
 
-function refuse(socket: Duplex, status: 401 | 403 | 404 | 503, text: string): void {
+function refuse(socket: Duplex, status: 401 | 403 | 404 | 429 | 503, text: string): void {
   socket.end(`HTTP/1.1 ${status} ${text}\r\nConnection: close\r\nContent-Length: 0\r\n\r\n`);
 }
 
 /**
  * WebSocket endpoint in noServer mode: every upgrade is authenticated before ws sees it; a missing
- * or bad session gets 401, a foreign Origin 403 (when allowedOrigins is given), any other path 404.
+ * or bad session gets 401, a foreign Origin 403 (when allowedOrigins is given), a user already at
+ * `maxConnectionsPerUser` open connections 429, any other path 404, and a database failure 503.
  */
 export function createWsEndpoint(deps: {
   db: Db;
@@ -58,9 +69,19 @@ export function createWsEndpoint(deps: {
   hub: Hub;
   logger: Logger;
   allowedOrigins?: readonly string[];
+  maxConnectionsPerUser?: number;
 }) {
   const wss = new WebSocketServer({ noServer: true, maxPayload: MAX_CLIENT_MESSAGE, perMessageDeflate: false });
+  const maxPerUser = deps.maxConnectionsPerUser ?? 8;
+  /** Open (or opening) connections per user id; taken synchronously after the session check, so parallel upgrades cannot pass the cap. */
+  const perUser = new Map<number, number>();
   let next = 0;
+
+  function release(userId: number): void {
+    const left = (perUser.get(userId) ?? 1) - 1;
+    if (left > 0) perUser.set(userId, left);
+    else perUser.delete(userId);
+  }
 
   function attach(ws: WebSocket, user: SessionUser, session: SessionData): void {
     const id = `c${++next}`;
@@ -78,7 +99,10 @@ export function createWsEndpoint(deps: {
       if (isBinary) return deps.hub.message(id, "\u0000");
       deps.hub.message(id, data.toString());
     });
-    ws.on("close", () => deps.hub.remove(id));
+    ws.on("close", () => {
+      deps.hub.remove(id);
+      release(user.id);
+    });
     ws.on("error", () => ws.terminate());
   }
 
@@ -90,7 +114,18 @@ export function createWsEndpoint(deps: {
       if (deps.allowedOrigins && origin && !deps.allowedOrigins.includes(origin)) return refuse(socket, 403, "Forbidden");
       const signedIn = await userFromUpgrade(req, deps.db, deps.sessionSecret, deps.sessionTtlSeconds);
       if (!signedIn) return refuse(socket, 401, "Unauthorized");
-      wss.handleUpgrade(req, socket, head, (ws) => attach(ws, signedIn.user, signedIn.session));
+      const userId = signedIn.user.id;
+      if ((perUser.get(userId) ?? 0) >= maxPerUser) return refuse(socket, 429, "Too Many Requests");
+      perUser.set(userId, (perUser.get(userId) ?? 0) + 1);
+      // ws answers a bad handshake itself (400) without calling back: the slot is released when the socket closes.
+      let opened = false;
+      socket.once("close", () => {
+        if (!opened) release(userId);
+      });
+      wss.handleUpgrade(req, socket, head, (ws) => {
+        opened = true;
+        attach(ws, signedIn.user, signedIn.session);
+      });
     } catch (err) {
       deps.logger.warn(`upgrade failed: ${err instanceof Error ? err.message : String(err)}`);
       refuse(socket, 503, "Service Unavailable");

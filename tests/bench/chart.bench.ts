@@ -31,7 +31,7 @@ const { base: BASE, server } = await startWebServer();
 const browser = await chromium.launch({ executablePath: "/usr/bin/chromium" });
 try {
   const context = await browser.newContext({ viewport: { width: 1600, height: 900 } });
-  const login = await context.request.post(`${BASE}/api/auth/login`, { data: { email: "admin@tapwright.test", password: PASSWORD } });
+  const login = await context.request.post(`${BASE}/api/auth/login`, { data: { email: "admin@tapwright.test", password: PASSWORD }, headers: { origin: BASE } });
   if (!login.ok()) throw new Error(`sign-in failed: HTTP ${login.status()}`);
   const page = await context.newPage();
   await page.goto(`${BASE}/channels/chart-bench`);

@@ -16,7 +16,9 @@ import mqtt from "mqtt";
 import pg from "pg";
 import WebSocket from "ws";
 import { createDb } from "@/db/client";
+import { createSession } from "@/db/queries/sessions";
 import { hashPassword } from "@/lib/auth/password";
+import { designFilter } from "@/lib/dsp";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
 import { encodeBinarySamples, samplesTopic, type ServerMessage } from "@/lib/protocol";
 import { migrateToLatest } from "@/migrations/migrator";
@@ -216,13 +218,17 @@ async function main(): Promise<void> {
     const user = await db.insertInto("users")
       .values({ email: "bench@tapwright.test", display_name: "Bench Engineer", password_hash: await hashPassword("bench-password"), role: "engineer" })
       .returning(["id", "session_version"]).executeTakeFirstOrThrow();
-    const cookie = `${SESSION_COOKIE}=${await sealData({ userId: user.id, sessionVersion: user.session_version }, { password: SECRET, ttl: 3600 })}`;
+    const sessionId = await createSession(db, user.id, 3600);
+    const cookie = `${SESSION_COOKIE}=${await sealData({ userId: user.id, sessionVersion: user.session_version, sessionId }, { password: SECRET, ttl: 3600 })}`;
     const quiet = { info: () => undefined, warn: (m: string) => console.error(m) };
     const sidecar = await startSidecar({
       db, clock: systemClock, logger: quiet, sessionSecret: SECRET, sessionTtlSeconds: 3600,
       http: { host: "127.0.0.1", port: 0 },
       mqtt: { mode: "embedded", host: "127.0.0.1", port: 0, requireDeviceAuth: false },
       republishFiltered: false,
+      // The bench measures the stream, not design: one client adds every candidate at once, designed in-process.
+      design: async (spec) => designFilter(spec),
+      ws: { messageRate: { perSecond: 1e6, burst: 1e6 } },
     });
     try {
       const job = (n: number, seconds: number): LoadJob => ({ mqttUrl: sidecar.mqttUrl, httpPort: sidecar.httpPort, cookie, paths: paths.slice(0, n), seconds });

@@ -20,3 +20,5 @@ echo "== Live pipeline: publish to WebSocket frame"
 node --import tsx tests/bench/pipeline.bench.ts | tee bench-results/pipeline.txt
 echo "== Bench chart in headless Chromium"
 node --import tsx tests/bench/chart.bench.ts | tee bench-results/chart.txt
+echo "== Web app: read APIs under load, and health while the largest design is posted"
+node --import tsx tests/bench/web.bench.ts | tee bench-results/web.txt

@@ -1,9 +1,10 @@
 import { expect, test, type Page } from "@playwright/test";
+import { SAME_ORIGIN } from "./pages/origin";
 import { DEMO_PASSWORD } from "./pages/sign-in-page";
 
 /** Signs in through the API (the sign-in form has its own tests), sharing the cookie with the page. */
 async function signInAs(page: Page, role: "operator" | "engineer"): Promise<void> {
-  const res = await page.request.post("/api/auth/login", { data: { email: `${role}@tapwright.test`, password: DEMO_PASSWORD } });
+  const res = await page.request.post("/api/auth/login", { data: { email: `${role}@tapwright.test`, password: DEMO_PASSWORD }, headers: SAME_ORIGIN });
   expect(res.status()).toBe(200);
 }
 
@@ -33,6 +34,7 @@ class TokensPage {
 test("an engineer creates a token, sees it once, exports with it, and revokes it", async ({ page }) => {
   await signInAs(page, "engineer");
   const created = await page.request.post("/api/v1/sets", {
+    headers: SAME_ORIGIN,
     data: { channel: "gearbox-endurance/torque-node/input-torque", name: "E2E export LP", spec: { kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 100, sampleRateHz: 1000 } },
   });
   expect(created.status()).toBe(201);

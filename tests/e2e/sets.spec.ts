@@ -2,6 +2,7 @@ import { expect, test } from "@playwright/test";
 import { SetsPage } from "./pages/sets-page";
 import { BenchPage } from "./pages/bench-page";
 import { SignInPage } from "./pages/sign-in-page";
+import { SAME_ORIGIN } from "./pages/origin";
 
 const CHANNEL = "gearbox-endurance/torque-node/input-torque";
 const spec = { kind: "iir", family: "butterworth", response: "lowpass", order: 4, cutoffHz: 90, sampleRateHz: 1000 };
@@ -60,13 +61,13 @@ test("an engineer may not approve, and a lead may not approve their own revision
   const signIn = new SignInPage(page);
   await signIn.signInAs("lead");
   const { revisionId } = await SetsPage.createThroughApi(page.request, { channel: CHANNEL, name: `E2E own ${Date.now().toString(36)}`, spec });
-  const submit = await page.request.post(`/api/v1/revisions/${revisionId}/transitions`, { data: { action: "submit", expectedVersion: 1 } });
+  const submit = await page.request.post(`/api/v1/revisions/${revisionId}/transitions`, { data: { action: "submit", expectedVersion: 1 }, headers: SAME_ORIGIN });
   expect(submit.status()).toBe(200);
-  const own = await page.request.post(`/api/v1/revisions/${revisionId}/transitions`, { data: { action: "approve", expectedVersion: 2 } });
+  const own = await page.request.post(`/api/v1/revisions/${revisionId}/transitions`, { data: { action: "approve", expectedVersion: 2 }, headers: SAME_ORIGIN });
   expect(own.status()).toBe(403);
   expect((await own.json()).error.message).toMatch(/Four eyes/);
   await signIn.signOut();
   await signIn.signInAs("engineer");
-  const engineer = await page.request.post(`/api/v1/revisions/${revisionId}/transitions`, { data: { action: "approve", expectedVersion: 2 } });
+  const engineer = await page.request.post(`/api/v1/revisions/${revisionId}/transitions`, { data: { action: "approve", expectedVersion: 2 }, headers: SAME_ORIGIN });
   expect(engineer.status()).toBe(403);
 });

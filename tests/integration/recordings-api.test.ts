@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { decodeSamples, MAX_UPLOAD_BYTES } from "@/lib/recordings";
-import { actAs, params, setUpLab, type Accounts } from "./sets-fixture";
+import { actAs, params, SAME_ORIGIN, setUpLab, type Accounts } from "./sets-fixture";
 
 vi.mock("@/db", async () => (await import("./sets-fixture")).dbModule);
 vi.mock("@/app/_lib/auth", async () => (await import("./sets-fixture")).authModule);
@@ -30,11 +30,11 @@ function multipart(fields: Record<string, string>, text: string, fileName = "ben
   const form = new FormData();
   for (const [k, v] of Object.entries(fields)) form.set(k, v);
   form.set("file", new File([text], fileName, { type: "text/csv" }));
-  return new Request("http://test.local/api/v1/recordings", { method: "POST", body: form });
+  return new Request("http://test.local/api/v1/recordings", { method: "POST", headers: SAME_ORIGIN, body: form });
 }
 
 function csvRequest(query: string, text: string): Request {
-  return new Request(`http://test.local/api/v1/recordings?${query}`, { method: "POST", headers: { "content-type": "text/csv" }, body: text });
+  return new Request(`http://test.local/api/v1/recordings?${query}`, { method: "POST", headers: { "content-type": "text/csv", ...SAME_ORIGIN }, body: text });
 }
 
 const upload = (req: Request) => listRoute.POST(req, undefined as never);
@@ -90,7 +90,7 @@ describe("recordings API", () => {
     actAs(users.engineer);
     const big = "x\n" + "1\n".repeat(MAX_UPLOAD_BYTES / 2);
     const res = await upload(csvRequest(`channel=${CHANNEL}&sampleRateHz=1000`, big));
-    expect(res.status).toBe(400);
+    expect(res.status).toBe(413);
     expect((await res.json()).error.message).toMatch(/at most 20\.0 MB/);
   });
 
@@ -107,7 +107,7 @@ describe("recordings API", () => {
     const { id } = await (await upload(multipart({ channel: CHANNEL, name: "To delete" }, csv()))).json();
     const del = (user: Accounts[keyof Accounts]) => {
       actAs(user);
-      return oneRoute.DELETE(new Request(`http://test.local/api/v1/recordings/${id}`, { method: "DELETE" }), params({ id: String(id) }));
+      return oneRoute.DELETE(new Request(`http://test.local/api/v1/recordings/${id}`, { method: "DELETE", headers: SAME_ORIGIN }), params({ id: String(id) }));
     };
     expect((await del(users.operator)).status).toBe(403);
     expect((await del(users.lead)).status).toBe(204);

@@ -22,6 +22,7 @@ export const dbModule = {
 export const authModule = {
   currentUser: async () => state.user,
   requireUser: async (role: Role = "operator") => requireRole(state.user, role),
+  requireActionUser: async (role: Role = "operator") => requireRole(state.user, role),
   requirePageUser: async (role: Role = "operator") => requireRole(state.user, role),
 };
 
@@ -65,10 +66,13 @@ export const butterSpec = (cutoffHz = 100, sampleRateHz = 1000) => ({
   sampleRateHz,
 });
 
+/** What a browser sends with a fetch from the app's own page. */
+export const SAME_ORIGIN = { "sec-fetch-site": "same-origin" } as const;
+
 export function jsonRequest(method: string, url: string, body?: unknown): Request {
   return new Request(`http://test.local${url}`, {
     method,
-    headers: { "content-type": "application/json" },
+    headers: { "content-type": "application/json", ...SAME_ORIGIN },
     body: body === undefined ? undefined : JSON.stringify(body),
   });
 }

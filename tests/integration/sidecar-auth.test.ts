@@ -2,12 +2,13 @@ import { sealData } from "iron-session";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "@/db/client";
 import { findDeviceId, upsertDeviceCredential } from "@/db/queries/devices";
+import { revokeSession } from "@/db/queries/sessions";
 import { findUserByEmail, updateUser } from "@/db/queries/users";
 import { hashPassword } from "@/lib/auth/password";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
 import { encodeBinarySamples, samplesTopic } from "@/lib/protocol";
 import type { Sidecar } from "@/server/sidecar";
-import { connectDevice, cookieFor, openSocket, seededDb, testSidecar, TTL, until } from "./sidecar-support";
+import { connectDevice, cookieFor, openSocket, SECRET, seededDb, testSidecar, TTL, until } from "./sidecar-support";
 
 const STRAIN = "hydraulic-press/env-node/frame-strain";
 const spec = { kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 40, sampleRateHz: 1000 };
@@ -39,6 +40,23 @@ describe("WebSocket upgrade goes through the session guard", () => {
     const forged = await sealData({ userId: user!.id, sessionVersion: user!.session_version }, { password: "x".repeat(40), ttl: TTL });
     await expect(openSocket(sidecar.httpPort, `${SESSION_COOKIE}=${forged}`)).rejects.toThrow("HTTP 401");
     await expect(openSocket(sidecar.httpPort, `${SESSION_COOKIE}=Fe26.2*garbage`)).rejects.toThrow("HTTP 401");
+  });
+
+  it("refuses a malformed cookie with 401, not 503", async () => {
+    for (const bad of ["%E0%A4%A", "%", "Fe26.2**", "x".repeat(5000)]) {
+      await expect(openSocket(sidecar.httpPort, `${SESSION_COOKIE}=${bad}`)).rejects.toThrow("HTTP 401");
+    }
+  });
+
+  it("refuses a signed-out session with 401 however many copies of its cookie exist", async () => {
+    const cookie = await cookieFor(store.db, "operator@tapwright.test");
+    const first = await openSocket(sidecar.httpPort, cookie);
+    first.ws.close();
+    const sealed = decodeURIComponent(cookie.slice(SESSION_COOKIE.length + 1));
+    const { unsealData } = await import("iron-session");
+    const { sessionId } = await unsealData<{ sessionId: string }>(sealed, { password: SECRET, ttl: TTL });
+    await revokeSession(store.db, sessionId);
+    await expect(openSocket(sidecar.httpPort, cookie)).rejects.toThrow("HTTP 401");
   });
 
   it("refuses a stale session version and a disabled account with 401", async () => {

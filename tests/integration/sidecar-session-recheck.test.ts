@@ -10,8 +10,8 @@ import { createFaultLog } from "@/server/ingest/fault-log";
 import { createPipeline } from "@/server/pipeline/pipeline";
 import { SESSION_ENDED } from "@/lib/protocol";
 import { createHub } from "@/server/ws/hub";
-import { accountsByIds } from "@/db/queries/users";
-import { connectDevice, cookieFor, memoryLogger, openSocket, seededDb, testSidecar, until, type TestSocket } from "./sidecar-support";
+import { createSession, liveSessionAccounts } from "@/db/queries/sessions";
+import { connectDevice, cookieFor, inlineDesign, memoryLogger, openSocket, seededDb, testSidecar, until, type TestSocket } from "./sidecar-support";
 
 const STRAIN = "hydraulic-press/env-node/frame-strain"; // 1 kHz
 const spec = { kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 40, sampleRateHz: 1000 };
@@ -131,32 +131,36 @@ describe("the hub rechecks open sessions on its status tick", () => {
   });
 
   it("batches the lookup: one query per tick for every socket, and a tick during a lookup shares it", async () => {
-    const calls: number[][] = [];
+    const calls: string[][] = [];
     const hub = createHub({
       pipeline: createPipeline({ channels: [] }),
       faults: createFaultLog({ clock, logger: memoryLogger() }),
       clock,
       logger: memoryLogger(),
       busState: () => "connected",
-      accounts: async (ids) => {
+      sessions: async (ids) => {
         calls.push(ids);
-        return accountsByIds(store.db, ids);
+        return liveSessionAccounts(store.db, ids);
       },
+      design: inlineDesign,
     });
     const closes: string[] = [];
+    const sessionIds: string[] = [];
     for (const [id, email] of [["a", "admin@tapwright.test"], ["b", "admin@tapwright.test"], ["c", "lead@tapwright.test"]] as const) {
       const account = (await findUserByEmail(store.db, email))!;
+      const sessionId = id === "b" ? sessionIds[0] : await createSession(store.db, account.id, 3600);
+      sessionIds.push(sessionId);
       hub.add({
         id,
         user: { id: account.id, email, name: account.display_name, role: account.role },
-        session: { userId: account.id, sessionVersion: account.session_version },
+        session: { userId: account.id, sessionVersion: account.session_version, sessionId },
         send: () => undefined,
         bufferedAmount: () => 0,
         close: () => closes.push(id),
       });
     }
     await Promise.all([hub.recheckSessions(), hub.recheckSessions()]);
-    expect(calls).toEqual([[await userId("admin@tapwright.test"), await userId("lead@tapwright.test")]]);
+    expect(calls).toEqual([[sessionIds[0], sessionIds[2]]]);
     expect(closes).toEqual([]);
   });
 });

@@ -7,7 +7,9 @@ import { sealData } from "iron-session";
 import mqtt, { type MqttClient } from "mqtt";
 import WebSocket from "ws";
 import type { Db } from "@/db/client";
+import { createSession } from "@/db/queries/sessions";
 import { findUserByEmail } from "@/db/queries/users";
+import { designFilter } from "@/lib/dsp";
 import { seedDemo } from "@/db/seed";
 import { seedDemoDeviceCredentials } from "@/db/seed-device-credentials";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
@@ -33,13 +35,17 @@ export async function seededDb(label: string): Promise<{ db: Db; url: string; cl
   return fresh;
 }
 
-/** The Cookie header a signed-in demo account would send. */
-export async function cookieFor(db: Db, email: string, change: { sessionVersion?: number } = {}): Promise<string> {
+/** The Cookie header a signed-in demo account would send (a stored session is started for it; `sessionId` overrides its id). */
+export async function cookieFor(db: Db, email: string, change: { sessionVersion?: number; sessionId?: string } = {}): Promise<string> {
   const user = await findUserByEmail(db, email);
   if (!user) throw new Error(`no user ${email}`);
-  const sealed = await sealData({ userId: user.id, sessionVersion: change.sessionVersion ?? user.session_version }, { password: SECRET, ttl: TTL });
+  const sessionId = change.sessionId ?? (await createSession(db, user.id, TTL));
+  const sealed = await sealData({ userId: user.id, sessionVersion: change.sessionVersion ?? user.session_version, sessionId }, { password: SECRET, ttl: TTL });
   return `${SESSION_COOKIE}=${sealed}`;
 }
+
+/** Designs in-process: the tests of the stream do not need the design threads (tests/integration/sidecar-limits.test.ts does). */
+export const inlineDesign = async (spec: Parameters<typeof designFilter>[0]) => designFilter(spec);
 
 /** A sidecar on loopback with port 0 everywhere, the embedded broker, and timers off (tests call hub.tick()). */
 export function testSidecar(db: Db, over: Partial<SidecarOptions> = {}): Promise<Sidecar> {
@@ -53,6 +59,7 @@ export function testSidecar(db: Db, over: Partial<SidecarOptions> = {}): Promise
     mqtt: { mode: "embedded", host: "127.0.0.1", port: 0, requireDeviceAuth: false },
     republishFiltered: false,
     timers: false,
+    design: inlineDesign,
     ...over,
   });
 }

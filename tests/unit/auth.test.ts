@@ -1,11 +1,12 @@
 import { describe, expect, it } from "vitest";
-import { requireRole, resolveSessionUser, type StoredAccount } from "@/lib/auth/guard";
+import { requireRole, resolveSessionUser, type StoredSession } from "@/lib/auth/guard";
 import { hashPassword, verifyPassword } from "@/lib/auth/password";
 import { roleAtLeast, ROLES } from "@/lib/auth/roles";
-import { isThrottled, THROTTLE } from "@/lib/auth/throttle";
+import { attemptKeys, delayAfter, FORGET_AFTER_MS, waitMs, withFailure, type Counter, type ThrottlePolicy } from "@/lib/auth/throttle";
 import { AppError, toErrorBody } from "@/lib/errors";
 
-const account: StoredAccount = { id: 7, email: "e@x.test", display_name: "E", role: "engineer", disabled: false, session_version: 3 };
+const account: StoredSession = { id: 7, email: "e@x.test", display_name: "E", role: "engineer", disabled: false, session_version: 3, session_id: "s-7" };
+const cookie = { userId: 7, sessionVersion: 3, sessionId: "s-7" };
 
 describe("password hashing (scrypt, RFC 7914)", () => {
   it("verifies the right password and refuses a wrong one", async () => {
@@ -27,20 +28,22 @@ describe("password hashing (scrypt, RFC 7914)", () => {
 });
 
 describe("the session guard", () => {
-  it("accepts a cookie whose account is enabled and whose version matches", () => {
-    expect(resolveSessionUser({ userId: 7, sessionVersion: 3 }, account)).toEqual({ id: 7, email: "e@x.test", name: "E", role: "engineer" });
+  it("accepts a cookie whose stored session is live, whose account is enabled and whose version matches", () => {
+    expect(resolveSessionUser(cookie, account)).toEqual({ id: 7, email: "e@x.test", name: "E", role: "engineer" });
   });
 
-  it("refuses missing, disabled, stale or mismatched sessions", () => {
+  it("refuses missing, revoked, disabled, stale or mismatched sessions", () => {
     expect(resolveSessionUser({}, account)).toBeNull();
-    expect(resolveSessionUser({ userId: 7, sessionVersion: 3 }, undefined)).toBeNull();
-    expect(resolveSessionUser({ userId: 7, sessionVersion: 3 }, { ...account, disabled: true })).toBeNull();
-    expect(resolveSessionUser({ userId: 7, sessionVersion: 2 }, account)).toBeNull();
-    expect(resolveSessionUser({ userId: 8, sessionVersion: 3 }, account)).toBeNull();
+    expect(resolveSessionUser(cookie, undefined)).toBeNull();
+    expect(resolveSessionUser({ userId: 7, sessionVersion: 3 }, account)).toBeNull();
+    expect(resolveSessionUser({ ...cookie, sessionId: "s-other" }, account)).toBeNull();
+    expect(resolveSessionUser(cookie, { ...account, disabled: true })).toBeNull();
+    expect(resolveSessionUser({ ...cookie, sessionVersion: 2 }, account)).toBeNull();
+    expect(resolveSessionUser({ ...cookie, userId: 8 }, account)).toBeNull();
   });
 
   it("answers 401 without a user and 403 below the role", () => {
-    const user = resolveSessionUser({ userId: 7, sessionVersion: 3 }, account);
+    const user = resolveSessionUser(cookie, account);
     expect(() => requireRole(null, "operator")).toThrow(expect.objectContaining({ code: "unauthorized" }));
     expect(() => requireRole(user, "lead")).toThrow(expect.objectContaining({ code: "forbidden" }));
     expect(requireRole(user, "engineer")).toBe(user);
@@ -53,10 +56,40 @@ describe("the session guard", () => {
 });
 
 describe("sign-in throttling policy", () => {
-  it("refuses once an account or an address reaches its limit", () => {
-    expect(isThrottled({ account: THROTTLE.maxPerAccount - 1, address: 0 })).toBe(false);
-    expect(isThrottled({ account: THROTTLE.maxPerAccount, address: 0 })).toBe(true);
-    expect(isThrottled({ account: 0, address: THROTTLE.maxPerAddress })).toBe(true);
+  const policy: ThrottlePolicy = { freePerAccount: 5, freePerAddress: 20, baseMs: 1000, maxMs: 900_000 };
+  const now = 1_000_000_000;
+  const failed = (n: number, free: number): Counter => {
+    let c: Counter | undefined;
+    for (let i = 0; i < n; i++) c = withFailure(c, free, policy, now);
+    return c ?? { failures: 0, lastFailureAt: now, blockedUntil: null };
+  };
+
+  it("lets the free failures through, then doubles the delay from 1 s up to 15 min", () => {
+    expect([5, 6, 7, 8, 16, 100].map((n) => delayAfter(n, 5, policy))).toEqual([0, 1000, 2000, 4000, 900_000, 900_000]);
+    expect(failed(5, 5).blockedUntil).toBeNull();
+    expect(failed(6, 5).blockedUntil).toBe(now + 1000);
+  });
+
+  it("forgets a key's failures a day after the last one", () => {
+    expect(withFailure(failed(9, 5), 5, policy, now + FORGET_AFTER_MS + 1)).toEqual({ failures: 1, lastFailureAt: now + FORGET_AFTER_MS + 1, blockedUntil: null });
+  });
+
+  it("holds back a browser that has signed in before only by its own failures", () => {
+    const keys = attemptKeys("Lead@x.test", "10.0.0.1", "dev-1");
+    const counters = new Map([[keys.account, failed(30, 5)], [keys.address!, failed(30, 20)], [keys.device!, failed(0, 5)]]);
+    expect(waitMs(keys, counters, now)).toBe(0);
+    counters.set(keys.device!, failed(6, 5));
+    expect(waitMs(keys, counters, now)).toBe(1000);
+  });
+
+  it("holds back other attempts by their address, and by the account only once that address has failed", () => {
+    const fresh = attemptKeys("lead@x.test", "10.0.0.2", null);
+    const counters = new Map([[fresh.account, failed(12, 5)]]);
+    expect(waitMs(fresh, counters, now)).toBe(0);
+    counters.set(fresh.address!, failed(1, 20));
+    expect(waitMs(fresh, counters, now)).toBe(delayAfter(12, 5, policy));
+    counters.set(fresh.account, failed(0, 5)).set(fresh.address!, failed(25, 20));
+    expect(waitMs(fresh, counters, now)).toBe(delayAfter(25, 20, policy));
   });
 });
 

@@ -85,9 +85,19 @@ describe("parseRecordingCsv", () => {
   it("refuses a non-numeric cell with its line and column, including comma decimals", () => {
     const err = refusal(tsCsv(6, 1000, (i) => (i === 3 ? "oops" : "1")));
     expect(err).toMatchObject({ line: 5, column: "torque[N·m]" });
-    expect(err.message).toBe(`Line 5, column torque[N·m]: "oops" is not a number. Use '.' for decimals and leave missing samples empty (or NaN), never 0.`);
+    expect(err.message).toBe(`Line 5, column torque[N·m]: "oops" is not a finite number. Use '.' for decimals and leave missing samples empty (or NaN), never 0.`);
     expect(refusal(tsCsv(4, 1000, (i) => (i === 1 ? '"1,5"' : "1"))).line).toBe(3);
     expect(refusal(tsCsv(4, 1000, (i) => (i === 1 ? "Infinity" : "1"))).line).toBe(3);
+  });
+
+  it("refuses numbers that overflow a double (1e999, -2e308) like Infinity, in the value and the time column", () => {
+    for (const huge of ["1e999", "-2e308", "1" + "0".repeat(400)]) {
+      const err = refusal(tsCsv(4, 1000, (i) => (i === 2 ? huge : "1")));
+      expect(err).toMatchObject({ line: 4, column: "torque[N·m]" });
+      expect(err.message).toContain(`"${huge}" is not a finite number`);
+    }
+    expect(refusal("t_s,x\n0,1\n1e999,2\n")).toMatchObject({ line: 3, column: "t_s" });
+    expect(parseRecordingCsv(tsCsv(3, 1000, () => "1.7976931348623157e308"), KHZ).samples[0]).toBe(Number.MAX_VALUE);
     expect(refusal("t_s,x\n0,1\nabc,2\n")).toMatchObject({ line: 3, column: "t_s" });
   });
 

@@ -5,13 +5,14 @@ import { AuditFilters } from "@/components/audit/audit-filters";
 import { AuditTable } from "@/components/audit/audit-table";
 import { db } from "@/db";
 import { auditVocabulary, listAudit } from "@/db/queries/audit-read";
+import { safeParseInput } from "@/lib/http/fields";
 
 export const metadata: Metadata = { title: "Audit trail" };
 
 export default async function AuditPage(props: { searchParams: Promise<Record<string, string | undefined>> }) {
   await requirePageUser("lead");
   const raw = Object.fromEntries(Object.entries(await props.searchParams).filter(([, v]) => v));
-  const parsed = auditQuerySchema.safeParse(raw);
+  const parsed = safeParseInput(auditQuerySchema, raw);
   const query = parsed.success ? parsed.data : auditQuerySchema.parse({});
   const { page, pageSize, format: _format, ...filters } = query;
   const [{ items, total }, vocabulary] = await Promise.all([listAudit(db(), filters, page, pageSize), auditVocabulary(db())]);

@@ -1,12 +1,13 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { requireUser } from "@/app/_lib/auth";
+import { requireActionUser } from "@/app/_lib/auth";
 import type { TokenCreateState } from "@/components/export/token-create-form";
 import { db } from "@/db";
 import { createToken, revokeToken } from "@/db/queries/tokens";
 import { toErrorBody } from "@/lib/errors";
 import type { ActionState } from "@/lib/http/action-state";
+import { safeParseInput } from "@/lib/http/fields";
 import { createTokenSchema, revokeTokenSchema } from "./schema";
 
 function fail(err: unknown): ActionState {
@@ -17,10 +18,10 @@ function fail(err: unknown): ActionState {
 
 /** Creates a token for the signed-in engineer (or higher); its text goes back once, in this answer only. */
 export async function createTokenAction(_prev: TokenCreateState, form: FormData): Promise<TokenCreateState> {
-  const parsed = createTokenSchema.safeParse(Object.fromEntries(form));
+  const parsed = safeParseInput(createTokenSchema, Object.fromEntries(form));
   if (!parsed.success) return { ok: false, message: parsed.error.issues[0]?.message, fieldErrors: { name: parsed.error.issues[0]?.message ?? "" } };
   try {
-    const user = await requireUser("engineer");
+    const user = await requireActionUser("engineer");
     const { token, view } = await db().transaction().execute((trx) => createToken(trx, user, parsed.data.name));
     revalidatePath("/tokens");
     return { ok: true, message: `Token "${view.name}" created.`, token };
@@ -30,10 +31,10 @@ export async function createTokenAction(_prev: TokenCreateState, form: FormData)
 }
 
 export async function revokeTokenAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = revokeTokenSchema.safeParse(Object.fromEntries(form));
+  const parsed = safeParseInput(revokeTokenSchema, Object.fromEntries(form));
   if (!parsed.success) return { ok: false, message: "No such token." };
   try {
-    const user = await requireUser("engineer");
+    const user = await requireActionUser("engineer");
     const view = await db().transaction().execute((trx) => revokeToken(trx, user, parsed.data.tokenId));
     revalidatePath("/tokens");
     return { ok: true, message: `Token "${view.name}" revoked.` };

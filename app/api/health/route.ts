@@ -1,11 +1,11 @@
-import { sql } from "kysely";
 import { db } from "@/db";
+import { ping } from "@/db/queries/health";
 
 export const dynamic = "force-dynamic";
 
 export async function GET(): Promise<Response> {
   try {
-    await sql`select 1`.execute(db());
+    await ping(db());
     return Response.json({ status: "ok", db: "up" });
   } catch {
     return new Response("Database unavailable: Tapwright cannot reach PostgreSQL.", {

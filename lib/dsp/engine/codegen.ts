@@ -8,6 +8,17 @@
 const KERNEL_CACHE_SIZE = 512;
 const kernelCache = new Map<string, unknown>();
 
+/** Set once code generation is refused (or turned off): every kernel is then the generic loop. */
+let generationRefused = false;
+
+/**
+ * Turns kernel generation off for this JavaScript realm. The web app calls it in the browser, where
+ * its Content-Security-Policy has no 'unsafe-eval', so no refused attempt is ever made there.
+ */
+export function refuseCodeGeneration(): void {
+  generationRefused = true;
+}
+
 /** A JavaScript literal for a finite double, exact on parse (shortest round-trip form; −0 kept). */
 export function numberLiteral(v: number): string {
   if (typeof v !== "number" || !Number.isFinite(v)) {
@@ -17,11 +28,12 @@ export function numberLiteral(v: number): string {
 }
 
 /**
- * Compile `source` as a function of `params` (cached by source text). Returns undefined when the
- * environment refuses code generation (a Content-Security-Policy without 'unsafe-eval' throws
- * EvalError), so callers fall back to their generic loop.
+ * Compile `source` as a function of `params` (cached by source text). Returns undefined when code
+ * generation is turned off or refused (a Content-Security-Policy without 'unsafe-eval' throws
+ * EvalError; the refusal is remembered), so callers fall back to their generic loop.
  */
 export function compileKernel<K>(params: readonly string[], source: string): K | undefined {
+  if (generationRefused) return undefined;
   const key = `${params.join(",")}\n${source}`;
   const cached = kernelCache.get(key);
   if (cached) return cached as K;
@@ -29,7 +41,10 @@ export function compileKernel<K>(params: readonly string[], source: string): K |
   try {
     kernel = new Function(...params, source) as K;
   } catch (error) {
-    if (error instanceof EvalError) return undefined;
+    if (error instanceof EvalError) {
+      generationRefused = true;
+      return undefined;
+    }
     throw error;
   }
   if (kernelCache.size >= KERNEL_CACHE_SIZE) kernelCache.delete(kernelCache.keys().next().value as string);

@@ -6,3 +6,4 @@ export {
   type StreamingFilterOptions,
 } from "./streaming-filter";
 export { createFilterBank, type FilterBank } from "./filter-bank";
+export { refuseCodeGeneration } from "./codegen";

@@ -1,4 +1,5 @@
 import { expect, type APIRequestContext, type Locator, type Page } from "@playwright/test";
+import { SAME_ORIGIN } from "./origin";
 
 /** The coefficient-set pages (/sets, /sets/[id], /reviews) as a person uses them. */
 export class SetsPage {
@@ -6,7 +7,7 @@ export class SetsPage {
 
   /** Saves a new set through the API with the signed-in browser's session (the bench does the same). */
   static async createThroughApi(request: APIRequestContext, body: { channel: string; name: string; notes?: string; spec: unknown }) {
-    const res = await request.post("/api/v1/sets", { data: body });
+    const res = await request.post("/api/v1/sets", { data: body, headers: SAME_ORIGIN });
     expect(res.status(), await res.text()).toBe(201);
     return (await res.json()) as { setId: number; revisionId: number; revision: number };
   }

@@ -113,3 +113,28 @@ describe("design validation", () => {
     expect(() => createStreamingFilter(d).process(new Float64Array(4), new Float64Array(3))).toThrow(/4 entries/);
   });
 });
+
+describe("code generation turned off (the browser under the app's CSP)", () => {
+  it("never calls the Function constructor again and gives the generic loop's output bit for bit", async () => {
+    const { refuseCodeGeneration } = await import("@/lib/dsp/engine/codegen");
+    const packed = Float64Array.from([0.2, 0.4, 0.2, -0.5, 0.3, 0.1, 0.0, -0.1, 0.2, 0.05]);
+    const x = Float64Array.from({ length: 50 }, (_, i) => Math.sin(i / 3));
+    const run = (kernel: ReturnType<typeof sosKernel>) => {
+      const y = new Float64Array(x.length);
+      kernel(x, y, 0, x.length, new Float64Array(4));
+      return y;
+    };
+    const generated = run(sosKernel(packed));
+    refuseCodeGeneration();
+    const original = globalThis.Function;
+    let calls = 0;
+    globalThis.Function = new Proxy(original, { construct: (target, args) => (calls++, Reflect.construct(target, args)) });
+    try {
+      expect(run(sosKernel(Float64Array.from([...packed].map((c) => c / 2))))).toEqual(run(genericSosKernel(Float64Array.from([...packed].map((c) => c / 2)))));
+      expect(run(sosKernel(packed))).toEqual(generated);
+      expect(calls).toBe(0);
+    } finally {
+      globalThis.Function = original;
+    }
+  });
+});

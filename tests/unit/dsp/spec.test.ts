@@ -94,9 +94,9 @@ describe("refusals name the field and the allowed range", () => {
     });
   });
 
-  it("moving-average length outside 1..4096", () => {
-    expectRefused({ kind: "moving-average", length: 0, sampleRateHz: fs }, "length", /integer from 1 to 4096 \(got 0\)/);
-    expectRefused({ kind: "moving-average", length: 5000, sampleRateHz: fs }, "length", /1 to 4096/);
+  it("moving-average length outside 1..2048", () => {
+    expectRefused({ kind: "moving-average", length: 0, sampleRateHz: fs }, "length", /integer from 1 to 2048 \(got 0\)/);
+    expectRefused({ kind: "moving-average", length: 2049, sampleRateHz: fs }, "length", /1 to 2048/);
     expectRefused({ kind: "moving-average", length: 2.5, sampleRateHz: fs }, "length", /integer/);
   });
 
@@ -133,7 +133,7 @@ describe("refusals name the field and the allowed range", () => {
       expectRefused({ ...base, b: [0, 0] }, "b", /nonzero coefficient/);
       expectRefused({ ...base, b: [] }, "b", /at least 1 coefficient/);
     });
-    it("sos rows: six numbers, a0 ≠ 0, a nonzero numerator, 1..64 rows", () => {
+    it("sos rows: six numbers, a0 ≠ 0, a nonzero numerator, 1..32 rows", () => {
       expectRefused({ ...base, sos: [[1, 2, 1, 1, 0.5]] }, "sos.0", /6 numbers \[b0, b1, b2, a0, a1, a2\]/);
       expectRefused({ ...base, sos: [[1, 2, 1, 1, 0, 0], [1, 0, 0, 0, 1, 0]] }, "sos.1.3", /a0 = 0/);
       expectRefused({ ...base, sos: [[0, 0, 0, 1, 0, 0]] }, "sos.0", /all-zero numerator/);

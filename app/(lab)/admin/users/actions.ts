@@ -1,13 +1,14 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { requireUser } from "@/app/_lib/auth";
+import { requireActionUser } from "@/app/_lib/auth";
 import { db } from "@/db";
 import { appendAudit } from "@/db/queries/audit";
 import { findUserByEmail, insertUser, updateUser } from "@/db/queries/users";
 import { hashPassword } from "@/lib/auth/password";
 import { AppError, toErrorBody } from "@/lib/errors";
 import type { ActionState } from "@/lib/http/action-state";
+import { safeParseInput } from "@/lib/http/fields";
 import { changeUserSchema, createUserSchema } from "./schema";
 
 function fail(err: unknown): ActionState {
@@ -20,12 +21,12 @@ function publicUser(u: { email: string; display_name: string; role: string; disa
 }
 
 export async function createUser(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = createUserSchema.safeParse(Object.fromEntries(form));
+  const parsed = safeParseInput(createUserSchema, Object.fromEntries(form));
   if (!parsed.success) {
     return { ok: false, fieldErrors: Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message])) };
   }
   try {
-    const admin = await requireUser("admin");
+    const admin = await requireActionUser("admin");
     const input = parsed.data;
     if (await findUserByEmail(db(), input.email)) throw new AppError("conflict", "That e-mail already has an account.");
     const passwordHash = await hashPassword(input.password);
@@ -41,12 +42,12 @@ export async function createUser(_prev: ActionState, form: FormData): Promise<Ac
 }
 
 export async function changeUser(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = changeUserSchema.safeParse(Object.fromEntries([...form].filter(([, v]) => v !== "")));
+  const parsed = safeParseInput(changeUserSchema, Object.fromEntries([...form].filter(([, v]) => v !== "")));
   if (!parsed.success) {
     return { ok: false, fieldErrors: Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message])) };
   }
   try {
-    const admin = await requireUser("admin");
+    const admin = await requireActionUser("admin");
     const { id, role, disabled, password } = parsed.data;
     if (id === admin.id && (disabled || (role && role !== "admin"))) {
       throw new AppError("conflict", "You cannot disable yourself or give up your own admin role.");

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { ROLES } from "@/lib/auth/roles";
+import { dbId } from "@/lib/http/fields";
 
 export const createUserSchema = z.object({
   email: z.string().trim().toLowerCase().email("Enter an e-mail address.").max(254),
@@ -9,7 +10,7 @@ export const createUserSchema = z.object({
 });
 
 export const changeUserSchema = z.object({
-  id: z.coerce.number().int().positive(),
+  id: dbId,
   role: z.enum(ROLES).optional(),
   disabled: z.enum(["true", "false"]).transform((v) => v === "true").optional(),
   password: z.string().min(10, "Use at least 10 characters.").max(1024).optional(),

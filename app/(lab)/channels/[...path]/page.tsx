@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/app/_lib/auth";
+import { channelPathOf } from "@/app/_lib/path";
 import { BenchAlarms } from "@/components/alarms/bench-alarms";
 import { Bench } from "@/components/bench/bench";
 import { db } from "@/db";
@@ -22,7 +23,8 @@ export async function generateMetadata({ params }: Params): Promise<Metadata> {
 export default async function ChannelBenchPage({ params }: Params) {
   const user = await requirePageUser();
   const { path } = await params;
-  const channel = await findChannelByPath(db(), path.map(decodeURIComponent).join("/"));
+  const channelPath = channelPathOf(path);
+  const channel = channelPath === null ? undefined : await findChannelByPath(db(), channelPath);
   if (!channel) notFound();
   const canEdit = roleAtLeast(user.role, "engineer");
   return (

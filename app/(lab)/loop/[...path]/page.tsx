@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requirePageUser } from "@/app/_lib/auth";
+import { channelPathOf } from "@/app/_lib/path";
 import { LoopCheck } from "@/components/loop/loop-check";
 import { db } from "@/db";
 import { findChannelByPath } from "@/db/queries/channels";
@@ -18,7 +19,8 @@ export async function generateMetadata({ params }: Params): Promise<Metadata> {
 export default async function LoopCheckPage({ params }: Params) {
   await requirePageUser("engineer");
   const { path } = await params;
-  const channel = await findChannelByPath(db(), path.map(decodeURIComponent).join("/"));
+  const channelPath = channelPathOf(path);
+  const channel = channelPath === null ? undefined : await findChannelByPath(db(), channelPath);
   if (!channel) notFound();
   return (
     <div className="space-y-4">

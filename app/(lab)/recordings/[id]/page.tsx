@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { dbId } from "@/lib/http/fields";
 import { requirePageUser } from "@/app/_lib/auth";
 import { RecordingNotes } from "@/components/annotations/recording-notes";
 import { DeleteRecordingButton } from "@/components/recordings/delete-button";
@@ -14,7 +15,10 @@ import { formatDuration } from "@/lib/recordings/format";
 
 type Params = { params: Promise<{ id: string }> };
 
-const recordingId = (raw: string) => (/^[1-9]\d{0,9}$/.test(raw) ? Number(raw) : null);
+const recordingId = (raw: string) => {
+  const parsed = dbId.safeParse(raw);
+  return parsed.success ? parsed.data : null;
+};
 
 export async function generateMetadata({ params }: Params): Promise<Metadata> {
   return { title: `Recording ${(await params).id}` };

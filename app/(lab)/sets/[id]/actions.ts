@@ -1,7 +1,7 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { requireUser } from "@/app/_lib/auth";
+import { requireActionUser } from "@/app/_lib/auth";
 import { revisionInput } from "@/app/api/v1/sets/content";
 import { db } from "@/db";
 import { requestPromotion, requestRollback } from "@/db/queries/deployments";
@@ -9,6 +9,7 @@ import { transitionRevision } from "@/db/queries/revisions";
 import { addRevision, findSet, retireSet } from "@/db/queries/sets";
 import { AppError, toErrorBody } from "@/lib/errors";
 import type { ActionState } from "@/lib/http/action-state";
+import { safeParseInput } from "@/lib/http/fields";
 import type { z } from "zod";
 import { promoteFormSchema, retireFormSchema, reviseFormSchema, rollbackFormSchema, transitionFormSchema } from "./schema";
 
@@ -29,10 +30,10 @@ function refresh(): void {
 }
 
 export async function transitionAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = transitionFormSchema.safeParse(Object.fromEntries(form));
+  const parsed = safeParseInput(transitionFormSchema, Object.fromEntries(form));
   if (!parsed.success) return invalid(parsed.error);
   try {
-    const user = await requireUser("engineer");
+    const user = await requireActionUser("engineer");
     const rev = await db().transaction().execute((trx) => transitionRevision(trx, user, parsed.data));
     refresh();
     return { ok: true, message: `Revision r${rev.revision} is now ${rev.state.replace("_", " ")}.` };
@@ -42,10 +43,10 @@ export async function transitionAction(_prev: ActionState, form: FormData): Prom
 }
 
 export async function promoteAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = promoteFormSchema.safeParse({ ...Object.fromEntries(form), channels: form.getAll("channels") });
+  const parsed = safeParseInput(promoteFormSchema, { ...Object.fromEntries(form), channels: form.getAll("channels") });
   if (!parsed.success) return invalid(parsed.error);
   try {
-    const user = await requireUser("lead");
+    const user = await requireActionUser("lead");
     const { deployments } = await db().transaction().execute((trx) => requestPromotion(trx, user, parsed.data.revisionId, parsed.data.channels));
     refresh();
     return { ok: true, message: `Sent to ${deployments.map((d) => d.channel).join(", ")}; waiting for the device to acknowledge.` };
@@ -55,10 +56,10 @@ export async function promoteAction(_prev: ActionState, form: FormData): Promise
 }
 
 export async function rollbackAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = rollbackFormSchema.safeParse(Object.fromEntries(form));
+  const parsed = safeParseInput(rollbackFormSchema, Object.fromEntries(form));
   if (!parsed.success) return invalid(parsed.error);
   try {
-    const user = await requireUser("lead");
+    const user = await requireActionUser("lead");
     await db().transaction().execute((trx) => requestRollback(trx, user, parsed.data.channel, parsed.data.expectedActiveId));
     refresh();
     return { ok: true, message: `Rolling back ${parsed.data.channel}; waiting for the device to acknowledge.` };
@@ -68,10 +69,10 @@ export async function rollbackAction(_prev: ActionState, form: FormData): Promis
 }
 
 export async function retireAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = retireFormSchema.safeParse(Object.fromEntries(form));
+  const parsed = safeParseInput(retireFormSchema, Object.fromEntries(form));
   if (!parsed.success) return invalid(parsed.error);
   try {
-    const user = await requireUser("lead");
+    const user = await requireActionUser("lead");
     await db().transaction().execute((trx) => retireSet(trx, user, parsed.data.setId, parsed.data.expectedVersion));
     refresh();
     return { ok: true, message: "The set is retired." };
@@ -81,14 +82,14 @@ export async function retireAction(_prev: ActionState, form: FormData): Promise<
 }
 
 export async function reviseAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = reviseFormSchema.safeParse(Object.fromEntries(form));
+  const parsed = safeParseInput(reviseFormSchema, Object.fromEntries(form));
   if (!parsed.success) return invalid(parsed.error);
   try {
-    const user = await requireUser("engineer");
+    const user = await requireActionUser("engineer");
     const { setId, expectedLatestRevision, spec, notes } = parsed.data;
     const set = await findSet(db(), setId);
     if (!set) throw new AppError("not_found", "No such coefficient set.");
-    const input = revisionInput(spec, { path: set.channel, sampleRateHz: set.sampleRateHz, format: set.format }, notes);
+    const input = await revisionInput(spec, { path: set.channel, sampleRateHz: set.sampleRateHz, format: set.format }, notes, user.id);
     const saved = await db().transaction().execute((trx) => addRevision(trx, user, setId, expectedLatestRevision, input));
     refresh();
     return { ok: true, message: `Saved revision r${saved.revision} as a draft.` };

@@ -1,6 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
+import { dbId } from "@/lib/http/fields";
 import { requirePageUser } from "@/app/_lib/auth";
 import { ExportControl } from "@/components/export/export-control";
 import { ActionForm } from "@/components/sets/action-form";
@@ -27,9 +28,10 @@ const utc = (d: Date | null) => (d ? `${d.toISOString().slice(0, 19).replace("T"
 
 export default async function SetPage(props: { params: Promise<{ id: string }>; searchParams: Promise<{ a?: string; b?: string }> }) {
   const me = await requirePageUser();
-  const id = Number((await props.params).id);
-  const set = Number.isInteger(id) && id > 0 ? await findSet(db(), id) : undefined;
+  const parsedId = dbId.safeParse((await props.params).id);
+  const set = parsedId.success ? await findSet(db(), parsedId.data) : undefined;
   if (!set) notFound();
+  const id = set.id;
   const [revisions, reviews, deployments, channels] = await Promise.all([
     listRevisions(db(), id),
     listReviews(db(), id),

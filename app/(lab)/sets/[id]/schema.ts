@@ -2,8 +2,9 @@ import { z } from "zod";
 import { filterSpecSchema } from "@/lib/dsp";
 import { channelPathSchema } from "@/lib/protocol";
 import { TRANSITION_NAMES } from "@/lib/workflow";
+import { dbId } from "@/lib/http/fields";
 
-const id = z.coerce.number().int().positive();
+const id = dbId;
 
 export const transitionFormSchema = z.object({
   revisionId: id,

@@ -1,6 +1,7 @@
 import { z } from "zod";
+import { calendarDay, pageNumber } from "@/lib/http/fields";
 
-const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use a date like 2026-12-01.");
+const day = calendarDay;
 
 /** Audit filters from a query string; `from`/`to` are whole UTC days, both inclusive. */
 export const auditQuerySchema = z
@@ -10,7 +11,7 @@ export const auditQuerySchema = z
     action: z.string().trim().max(60).optional(),
     from: day.optional(),
     to: day.optional(),
-    page: z.coerce.number().int().min(1).default(1),
+    page: pageNumber,
     pageSize: z.coerce.number().int().min(1).max(200).default(50),
     format: z.enum(["json", "csv"]).default("json"),
   })

@@ -16,6 +16,13 @@ export const GET = handler(async (req) => {
   return Response.json(await listRecordings(db(), channel?.id));
 });
 
+/** The name field, or else the file's name without `.csv` (at most 120 characters; nothing left means no name). */
+function uploadName(field: unknown, fileName: string | null): unknown {
+  if (typeof field === "string" && field.trim() !== "") return field;
+  const stem = [...(fileName ?? "").replace(/\.csv$/i, "").trim()].slice(0, 120).join("").trim();
+  return stem === "" ? undefined : stem;
+}
+
 /**
  * Upload: the role is checked before the body is read, so a stranger cannot make the server read
  * 20 MB; then fields → channel → CSV, and one transaction stores the samples with the audit entry.
@@ -23,7 +30,7 @@ export const GET = handler(async (req) => {
 export const POST = handler(async (req) => {
   const user = await requireUser("engineer");
   const upload = await readUpload(req);
-  const fields = parseWith(uploadFieldsSchema, upload.fields);
+  const fields = parseWith(uploadFieldsSchema, { ...upload.fields, name: uploadName(upload.fields.name, upload.fileName) });
   const channel = await findChannelByPath(db(), fields.channel);
   if (!channel) throw new AppError("not_found", `No channel ${fields.channel}.`, [{ path: "channel", message: "No such channel." }]);
   let parsed;
@@ -33,7 +40,7 @@ export const POST = handler(async (req) => {
     if (!(err instanceof RecordingCsvError)) throw err;
     throw new AppError("unprocessable", err.message, [{ path: err.field, message: err.message, line: err.line, column: err.column }]);
   }
-  const name = fields.name ?? upload.fileName?.replace(/\.csv$/i, "").slice(0, 120) ?? `${channel.name} upload`;
+  const name = fields.name ?? `${channel.name} upload`;
   const saved = await db()
     .transaction()
     .execute((trx) =>

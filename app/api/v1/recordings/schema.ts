@@ -1,8 +1,6 @@
 import { z } from "zod";
+import { dbId } from "@/lib/http/fields";
 import { channelPathSchema } from "@/lib/protocol";
-
-/** A numeric id from a route segment. */
-export const idParam = z.coerce.number().int().positive();
 
 const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
 

@@ -1,10 +1,11 @@
 import { z } from "zod";
 import { channelPathSchema } from "@/lib/protocol";
 import { TRANSITION_NAMES } from "@/lib/workflow";
+import { dbId } from "@/lib/http/fields";
 
 export const transitionSchema = z.object({
   action: z.enum(TRANSITION_NAMES),
-  expectedVersion: z.coerce.number().int().min(1),
+  expectedVersion: dbId,
   comment: z.string().trim().max(4000).optional(),
 });
 

@@ -14,11 +14,11 @@ export const GET = handler(async (req) => {
 });
 
 export const POST = handler(async (req) => {
-  const body = await parseBody(req, createSetSchema);
   const user = await requireUser("engineer");
+  const body = await parseBody(req, createSetSchema);
   const channel = await findChannelByPath(db(), body.channel);
   if (!channel) throw new AppError("not_found", `No channel ${body.channel}.`);
-  const input = revisionInput(body.spec, { path: channel.path, sampleRateHz: channel.sampleRateHz, format: channel.coefficientFormat }, body.notes);
+  const input = await revisionInput(body.spec, { path: channel.path, sampleRateHz: channel.sampleRateHz, format: channel.coefficientFormat }, body.notes, user.id);
   const saved = await db().transaction().execute((trx) => createSet(trx, user, channel.id, body.name, input));
   return Response.json(saved, { status: 201 });
 });

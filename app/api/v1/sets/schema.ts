@@ -3,9 +3,7 @@ import { filterSpecSchema } from "@/lib/dsp";
 import { channelPathSchema } from "@/lib/protocol";
 import { SET_STATUSES } from "@/lib/workflow";
 import { SET_SORTS } from "@/db/queries/sets";
-
-/** A numeric id from a route segment. */
-export const idParam = z.coerce.number().int().positive();
+import { dbId, pageNumber } from "@/lib/http/fields";
 
 const notes = z.string().max(4000, "Notes are limited to 4000 characters.").optional();
 
@@ -19,8 +17,10 @@ export const createSetSchema = z.object({
 export const addRevisionSchema = z.object({
   spec: filterSpecSchema,
   notes,
-  expectedLatestRevision: z.number().int().min(1),
+  expectedLatestRevision: dbId,
 });
+
+export const retireSchema = z.object({ expectedVersion: dbId });
 
 export const listSetsSchema = z.object({
   channel: z.string().max(192).optional(),
@@ -29,6 +29,6 @@ export const listSetsSchema = z.object({
   q: z.string().trim().max(120).optional(),
   sort: z.enum(SET_SORTS).default("updatedAt"),
   dir: z.enum(["asc", "desc"]).default("desc"),
-  page: z.coerce.number().int().min(1).default(1),
+  page: pageNumber,
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
 });

@@ -2,12 +2,12 @@ import { requireUser } from "@/app/_lib/auth";
 import { db } from "@/db";
 import { findDeployment } from "@/db/queries/deployments";
 import { AppError } from "@/lib/errors";
+import { dbId } from "@/lib/http/fields";
 import { handler, parseWith } from "@/lib/http/handler";
-import { idParam } from "../../sets/schema";
 
 /** One deployment with the exact config sent to the device (for polling its outcome). */
 export const GET = handler(async (_req, ctx: { params: Promise<{ id: string }> }) => {
-  const id = parseWith(idParam, (await ctx.params).id);
+  const id = parseWith(dbId, (await ctx.params).id);
   await requireUser();
   const d = await findDeployment(db(), id);
   if (!d) throw new AppError("not_found", "No such deployment.");

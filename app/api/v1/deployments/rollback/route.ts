@@ -6,8 +6,8 @@ import { rollbackSchema } from "../schema";
 
 /** Puts the previously active revision back through the acknowledged path (202; the ack decides). */
 export const POST = handler(async (req) => {
-  const body = await parseBody(req, rollbackSchema);
   const user = await requireUser("lead");
+  const body = await parseBody(req, rollbackSchema);
   const result = await db().transaction().execute((trx) => requestRollback(trx, user, body.channel, body.expectedActiveId));
   return Response.json(result, { status: 202 });
 });

@@ -3,13 +3,13 @@ import { db } from "@/db";
 import { deleteRecording, findRecording } from "@/db/queries/recordings";
 import { roleAtLeast } from "@/lib/auth/roles";
 import { AppError } from "@/lib/errors";
+import { dbId } from "@/lib/http/fields";
 import { handler, parseWith } from "@/lib/http/handler";
-import { idParam } from "../schema";
 
 type Ctx = { params: Promise<{ id: string }> };
 
 export const GET = handler(async (_req, ctx: Ctx) => {
-  const id = parseWith(idParam, (await ctx.params).id);
+  const id = parseWith(dbId, (await ctx.params).id);
   await requireUser();
   const recording = await findRecording(db(), id);
   if (!recording) throw new AppError("not_found", "No such recording.");
@@ -18,7 +18,7 @@ export const GET = handler(async (_req, ctx: Ctx) => {
 
 /** Its author or a lead may delete a recording. */
 export const DELETE = handler(async (_req, ctx: Ctx) => {
-  const id = parseWith(idParam, (await ctx.params).id);
+  const id = parseWith(dbId, (await ctx.params).id);
   const user = await requireUser();
   const recording = await findRecording(db(), id);
   if (!recording) throw new AppError("not_found", "No such recording.");

@@ -4,11 +4,11 @@ import { listSetDeployments } from "@/db/queries/deployments";
 import { listReviews, listRevisions } from "@/db/queries/revisions";
 import { findSet } from "@/db/queries/sets";
 import { AppError } from "@/lib/errors";
+import { dbId } from "@/lib/http/fields";
 import { handler, parseWith } from "@/lib/http/handler";
-import { idParam } from "../schema";
 
 export const GET = handler(async (_req, ctx: { params: Promise<{ id: string }> }) => {
-  const id = parseWith(idParam, (await ctx.params).id);
+  const id = parseWith(dbId, (await ctx.params).id);
   await requireUser();
   const set = await findSet(db(), id);
   if (!set) throw new AppError("not_found", "No such coefficient set.");

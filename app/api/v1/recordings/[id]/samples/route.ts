@@ -2,16 +2,17 @@ import { requireUser } from "@/app/_lib/auth";
 import { db } from "@/db";
 import { findRecording, findRecordingSamples } from "@/db/queries/recordings";
 import { AppError } from "@/lib/errors";
+import { dbId } from "@/lib/http/fields";
 import { handler, parseWith } from "@/lib/http/handler";
 import { encodeSamples } from "@/lib/recordings";
-import { idParam, samplesQuerySchema } from "../../schema";
+import { samplesQuerySchema } from "../../schema";
 
 /**
  * The samples: float64 little-endian bytes by default (application/octet-stream, NaN for missing),
  * or JSON with null for missing when ?format=json or Accept asks for application/json.
  */
 export const GET = handler(async (req, ctx: { params: Promise<{ id: string }> }) => {
-  const id = parseWith(idParam, (await ctx.params).id);
+  const id = parseWith(dbId, (await ctx.params).id);
   const query = parseWith(samplesQuerySchema, Object.fromEntries(new URL(req.url).searchParams));
   await requireUser();
   const recording = await findRecording(db(), id);

@@ -4,7 +4,8 @@ import { listReviews, type RevisionView } from "@/db/queries/revisions";
 import { userForToken } from "@/db/queries/tokens";
 import { requireRole, type SessionUser } from "@/lib/auth/guard";
 import { AppError } from "@/lib/errors";
-import { ExportRefusal, prepareExport, renderExport, type ExportSource, type ExportTarget } from "@/lib/export";
+import { ExportRefusal, renderExport, type ExportSource, type ExportTarget } from "@/lib/export";
+import { computeForRequest } from "@/lib/workers";
 import type { ExportQuery } from "./schema";
 
 /**
@@ -37,10 +38,14 @@ export async function revisionSource(rev: RevisionView, channel = rev.channel): 
   };
 }
 
-/** Renders the export as a download; a refusal (unstable, cannot quantize) is a 422 with the reason. */
-export async function exportResponse(source: ExportSource, query: ExportQuery, defaultTarget: ExportTarget): Promise<Response> {
+/**
+ * Renders the export as a download; quantizing for the target runs on a design thread (with its time
+ * limit). A refusal (unstable, cannot quantize) is a 422 with the reason.
+ */
+export async function exportResponse(source: ExportSource, query: ExportQuery, defaultTarget: ExportTarget, caller: SessionUser): Promise<Response> {
   try {
-    const prepared = await prepareExport(source, query.target ?? defaultTarget, query.prefix);
+    const job = { kind: "export", source, target: query.target ?? defaultTarget, prefix: query.prefix } as const;
+    const prepared = await computeForRequest(job, `user:${caller.id}`, "The export could not be prepared");
     const file = renderExport(prepared, query.format);
     return new Response(file.body, {
       headers: {

@@ -1,15 +1,15 @@
 import { requireUser } from "@/app/_lib/auth";
 import { db } from "@/db";
 import { transitionRevision } from "@/db/queries/revisions";
+import { dbId } from "@/lib/http/fields";
 import { handler, parseBody, parseWith } from "@/lib/http/handler";
-import { idParam } from "../../../sets/schema";
 import { transitionSchema } from "../../schema";
 
 /** Submit, approve or reject; the body carries the state version the client saw (409 when stale). */
 export const POST = handler(async (req, ctx: { params: Promise<{ id: string }> }) => {
-  const id = parseWith(idParam, (await ctx.params).id);
-  const body = await parseBody(req, transitionSchema);
+  const id = parseWith(dbId, (await ctx.params).id);
   const user = await requireUser("engineer");
+  const body = await parseBody(req, transitionSchema);
   const rev = await db().transaction().execute((trx) => transitionRevision(trx, user, { revisionId: id, ...body }));
   return Response.json({ revisionId: rev.id, state: rev.state, stateVersion: rev.stateVersion });
 });

@@ -15,7 +15,7 @@ export const GET = handler(async (req, ctx: { params: Promise<{ rig: string; dev
   const { rig, device, channel: key } = await ctx.params;
   const path = `${rig}/${device}/${key}`;
   const query = parseWith(exportQuerySchema, queryOf(req));
-  await exportCaller(req);
+  const caller = await exportCaller(req);
   const channel = await findChannelByPath(db(), path);
   if (!channel) throw new AppError("not_found", `No channel ${path}.`);
   const active = await findActiveDeployment(db(), channel.id);
@@ -23,5 +23,5 @@ export const GET = handler(async (req, ctx: { params: Promise<{ rig: string; dev
   const revision = await findRevision(db(), active.revisionId);
   if (!revision) throw new AppError("not_found", "The active revision no longer exists.");
   const source = { ...(await revisionSource(revision, active.channel)), deployment: { id: active.id, checksum: active.checksum } };
-  return exportResponse(source, query, active.format);
+  return exportResponse(source, query, active.format, caller);
 });

@@ -1,0 +1,42 @@
+import { buildRevisionContent, type RevisionContent } from "@/lib/coefficients";
+import { designFilter, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import { ExportRefusal, prepareExport, type ExportSource, type ExportTarget, type PreparedExport } from "@/lib/export";
+
+/** The work that may run long, as messages a worker thread can take: each is bounded by the spec's limits and a time limit. */
+export type Job =
+  | { kind: "design"; spec: FilterSpec }
+  | { kind: "revision-content"; spec: FilterSpec; format: QuantFormat }
+  | { kind: "export"; source: ExportSource; target: ExportTarget; prefix?: string };
+
+/** What each kind of job answers. */
+export interface JobResults {
+  design: FilterDesign;
+  "revision-content": RevisionContent;
+  export: PreparedExport;
+}
+
+export type JobResult<J extends Job> = JobResults[J["kind"]];
+
+/** How a job failed, as it crosses the thread boundary (an Error's class does not survive structured clone). */
+export interface JobFailure {
+  /** `refusal` for an export that must not be made (ExportRefusal); `failed` for anything else the job threw. */
+  kind: "refusal" | "failed";
+  message: string;
+}
+
+/** Runs one job on this thread (inside a worker, or inline in tests). */
+export async function runJob(job: Job): Promise<JobResults[Job["kind"]]> {
+  switch (job.kind) {
+    case "design":
+      return designFilter(job.spec);
+    case "revision-content":
+      return buildRevisionContent(job.spec, job.format);
+    case "export":
+      return prepareExport(job.source, job.target, job.prefix);
+  }
+}
+
+/** A thrown value as a JobFailure. */
+export function jobFailure(err: unknown): JobFailure {
+  return { kind: err instanceof ExportRefusal ? "refusal" : "failed", message: err instanceof Error ? err.message : String(err) };
+}
