@@ -30,7 +30,7 @@ export const SPEC_LIMITS = {
   ...COMB_LIMITS,
   ...FIR_DESIGN_LIMITS,
   /** Second-order sections of a whole design (all running stages together). */
-  maxTotalSections: 32,
+  maxTotalSections: 64,
   /** FIR taps of a whole design. */
   maxTotalTaps: 2048,
   /** Order (degree of the transfer function) of a whole design. */

@@ -39,7 +39,7 @@ describe("design-size limits in the schema", () => {
   it("refuses the pasted 1,024-tap b with a 65-tap a before any work, saying what to change", () => {
     const found = issues({ kind: "coefficients", b: ramp(1024), a: ramp(65), sampleRateHz: fs });
     expect(found).toEqual([
-      "b: this design has 512 second-order sections in total; at most 32 are allowed in one design: pasted b and a may have at most 65 coefficients each, or give b alone for an FIR",
+      "b: this design has 512 second-order sections in total; at most 64 are allowed in one design: pasted b and a may have at most 65 coefficients each, or give b alone for an FIR",
     ]);
   });
 
@@ -49,9 +49,11 @@ describe("design-size limits in the schema", () => {
   });
 
   it("caps a chain's total sections, taps and order over its running stages", () => {
-    expect(issues(chain(Array(8).fill(ellipticBand)))).toEqual([
-      "stages: the chain's 8 running stages have 48 second-order sections in total; at most 32 are allowed in one design: lower the stages' orders or remove stages",
+    const pasted32 = { kind: "coefficients" as const, sos: Array.from({ length: 32 }, () => [1, 0, 0, 1, 0, 0]), sampleRateHz: fs };
+    expect(issues(chain([pasted32, pasted32, pasted32]))).toEqual([
+      "stages: the chain's 3 running stages have 96 second-order sections in total; at most 64 are allowed in one design: lower the stages' orders or remove stages",
     ]);
+    expect(issues(chain(Array(8).fill(ellipticBand)))).toEqual([]);
     expect(issues(chain([fir1023, fir1023, fir1023]))).toEqual([
       "stages: the chain's 3 running stages have 3069 FIR taps in total; at most 2048 are allowed in one design: use fewer taps or fewer FIR stages",
     ]);
@@ -69,6 +71,7 @@ describe("design-size limits in the schema", () => {
     expect(SPEC_LIMITS.maxSosRows).toBeLessThanOrEqual(SPEC_LIMITS.maxTotalSections);
     expect(SPEC_LIMITS.maxMovingAverageLength).toBeLessThanOrEqual(SPEC_LIMITS.maxTotalTaps);
     expect(Math.ceil((SPEC_LIMITS.maxPastedDenominator - 1) / 2)).toBeLessThanOrEqual(SPEC_LIMITS.maxTotalSections);
+    expect(Math.ceil(SPEC_LIMITS.maxCombOrder / 2)).toBeLessThanOrEqual(SPEC_LIMITS.maxTotalSections);
     expect(issues({ kind: "moving-average", length: SPEC_LIMITS.maxMovingAverageLength, sampleRateHz: fs })).toEqual([]);
   });
 });
