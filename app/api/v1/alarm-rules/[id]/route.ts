@@ -11,8 +11,8 @@ const NOT_FOUND = "No such alarm rule.";
 
 /** PATCH /api/v1/alarm-rules/{id}: change any fields, enable or disable (engineers and up); the whole result is checked and audited. */
 export const PATCH = handler(async (req, ctx: Ctx) => {
-  const id = parseWith(idParam, (await ctx.params).id);
   const user = await requireUser("engineer");
+  const id = parseWith(idParam, (await ctx.params).id);
   const patch = await parseBody(req, patchRuleSchema);
   const before = await findAlarmRule(db(), id);
   if (!before) throw new AppError("not_found", NOT_FOUND);
@@ -26,8 +26,8 @@ export const PATCH = handler(async (req, ctx: Ctx) => {
 
 /** DELETE /api/v1/alarm-rules/{id} (engineers and up): the rule stops; its events keep it in their history. */
 export const DELETE = handler(async (_req, ctx: Ctx) => {
-  const id = parseWith(idParam, (await ctx.params).id);
   const user = await requireUser("engineer");
+  const id = parseWith(idParam, (await ctx.params).id);
   const rule = await findAlarmRule(db(), id);
   if (!rule) throw new AppError("not_found", NOT_FOUND);
   const deleted = await db()

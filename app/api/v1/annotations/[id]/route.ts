@@ -8,8 +8,8 @@ import { idParam } from "../schema";
 
 /** DELETE /api/v1/annotations/{id}: its author or a lead; audited. */
 export const DELETE = handler(async (_req, ctx: { params: Promise<{ id: string }> }) => {
-  const id = parseWith(idParam, (await ctx.params).id);
   const user = await requireUser();
+  const id = parseWith(idParam, (await ctx.params).id);
   const annotation = await findAnnotation(db(), id);
   if (!annotation) throw new AppError("not_found", "No such annotation.");
   if (annotation.createdBy !== user.id && !roleAtLeast(user.role, "lead")) throw new AppError("forbidden", "Only the annotation's author or a lead may delete it.");
