@@ -3,6 +3,7 @@ import { AlarmsPage } from "./pages/alarms-page";
 import { BenchNotes } from "./pages/bench-notes";
 import { BenchPage } from "./pages/bench-page";
 import { OverviewPage } from "./pages/overview-page";
+import { SAME_ORIGIN } from "./pages/origin";
 import { DEMO_PASSWORD, SignInPage } from "./pages/sign-in-page";
 
 const AMBIENT = "hydraulic-press/env-node/ambient-temp"; // about 21.5 °C in the demo
@@ -10,7 +11,8 @@ const RULE = `Ambient above 10 °C ${Date.now().toString(36)}`;
 
 /** An engineer's API session, as a script or another browser would hold it. */
 async function engineerApi(request: APIRequest, baseURL: string | undefined): Promise<APIRequestContext> {
-  const api = await request.newContext({ baseURL });
+  // An API client sends the app's own Origin on state changes, as the app's pages do (CSRF rule).
+  const api = await request.newContext({ baseURL, extraHTTPHeaders: SAME_ORIGIN });
   expect((await api.post("/api/auth/login", { data: { email: "engineer@tapwright.test", password: DEMO_PASSWORD } })).status()).toBe(200);
   return api;
 }
@@ -62,6 +64,7 @@ test("an operator sees an alarm appear on the overview without a reload, acknowl
 test("an operator may not create alarm rules", async ({ page }) => {
   await new SignInPage(page).signInAs("operator");
   const refused = await page.request.post("/api/v1/alarm-rules", {
+    headers: SAME_ORIGIN,
     data: { channel: AMBIENT, name: "not mine to add", signal: "raw", high: 10, deadband: 0, minDurationMs: 0, severity: "advisory" },
   });
   expect(refused.status()).toBe(403);
