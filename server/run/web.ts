@@ -18,6 +18,14 @@ const { default: next } = await import("next");
 const app = next({ dev: false, hostname, port });
 const handle = app.getRequestHandler();
 await app.prepare();
+// Start the design threads now (they compile lib/ as they start), not on the first save: the pool is
+// kept on globalThis, so the route handlers' workPool() finds this one.
+try {
+  const { workPool } = await import("@/lib/workers");
+  workPool();
+} catch (err) {
+  console.error("[web] the design threads could not be started; they will be on first use", err);
+}
 
 const server = http.createServer((req, res) => {
   const peer = req.socket.remoteAddress;
