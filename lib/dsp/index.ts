@@ -49,7 +49,6 @@ export {
   type FirEquirippleSpec,
 } from "./fir-design-spec";
 export { firstDifferenceTaps } from "./fir/differentiator";
-export { firZpk } from "./fir/zpk";
 export { emaAlpha, emaTransferFunction } from "./ema";
 
 export {

@@ -6,6 +6,8 @@ import { SignInPage } from "./pages/sign-in-page";
 const CHANNEL = "hydraulic-press/env-node/frame-strain"; // 1 kHz
 
 test("an engineer designs a bandwidth-Q notch, a comb and an equiripple FIR, and sees a long FIR's zeros", async ({ page }) => {
+  // Four designs analysed in the browser, then the roots of a 1023-tap FIR in a worker.
+  test.setTimeout(120_000);
   await new SignInPage(page).signInAs("engineer");
   const bench = new BenchPage(page);
   await bench.open(CHANNEL);
