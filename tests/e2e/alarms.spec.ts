@@ -3,6 +3,7 @@ import { AlarmsPage } from "./pages/alarms-page";
 import { BenchNotes } from "./pages/bench-notes";
 import { BenchPage } from "./pages/bench-page";
 import { OverviewPage } from "./pages/overview-page";
+import { SAME_ORIGIN } from "./pages/origin";
 import { DEMO_PASSWORD, SignInPage } from "./pages/sign-in-page";
 
 const AMBIENT = "hydraulic-press/env-node/ambient-temp"; // about 21.5 °C in the demo
@@ -10,7 +11,7 @@ const RULE = `Ambient above 10 °C ${Date.now().toString(36)}`;
 
 /** An engineer's API session, as a script or another browser would hold it. */
 async function engineerApi(request: APIRequest, baseURL: string | undefined): Promise<APIRequestContext> {
-  const api = await request.newContext({ baseURL });
+  const api = await request.newContext({ baseURL, extraHTTPHeaders: SAME_ORIGIN });
   expect((await api.post("/api/auth/login", { data: { email: "engineer@tapwright.test", password: DEMO_PASSWORD } })).status()).toBe(200);
   return api;
 }
@@ -63,8 +64,10 @@ test("an operator may not create alarm rules", async ({ page }) => {
   await new SignInPage(page).signInAs("operator");
   const refused = await page.request.post("/api/v1/alarm-rules", {
     data: { channel: AMBIENT, name: "not mine to add", signal: "raw", high: 10, deadband: 0, minDurationMs: 0, severity: "advisory" },
+    headers: SAME_ORIGIN,
   });
   expect(refused.status()).toBe(403);
+  expect((await refused.json()).error.message).toBe("This needs the engineer role or higher.");
   await new AlarmsPage(page).open();
   await expect(page.getByRole("button", { name: "Add a rule" })).toHaveCount(0);
 });

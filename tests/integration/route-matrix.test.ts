@@ -35,6 +35,16 @@ interface RoutePolicy {
 
 const CHANNEL = "gearbox-endurance/torque-node/input-torque";
 const ROUTES: Record<string, RoutePolicy> = {
+  "GET /api/v1/alarm-events": { access: "operator" },
+  "POST /api/v1/alarm-events/[id]/acknowledge": { access: "operator" },
+  "GET /api/v1/alarm-rules": { access: "operator" },
+  "POST /api/v1/alarm-rules": { access: "engineer" },
+  "PATCH /api/v1/alarm-rules/[id]": { access: "engineer" },
+  "DELETE /api/v1/alarm-rules/[id]": { access: "engineer" },
+  "GET /api/v1/annotations": { access: "operator" },
+  "POST /api/v1/annotations": { access: "operator" },
+  // Any role reaches the resource check (the author or a lead); an unknown id is 404 for all of them.
+  "DELETE /api/v1/annotations/[id]": { access: "operator" },
   "POST /api/auth/login": { access: "public" },
   "POST /api/auth/logout": { access: "public" },
   "GET /api/auth/me": { access: "operator" },

@@ -7,8 +7,8 @@ import { acknowledgeSchema, eventIdParam } from "../../schema";
 
 /** POST /api/v1/alarm-events/{id}/acknowledge {comment}: operators and up; audited and pushed to every open browser. */
 export const POST = handler(async (req, ctx: { params: Promise<{ id: string }> }) => {
-  const id = parseWith(eventIdParam, (await ctx.params).id);
   const user = await requireUser("operator");
+  const id = parseWith(eventIdParam, (await ctx.params).id);
   const { comment } = await parseBody(req, acknowledgeSchema);
   const event = await findAlarmEvent(db(), id);
   if (!event) throw new AppError("not_found", "No such alarm event (an alarm raised while the database was down is stored once it is back).");
