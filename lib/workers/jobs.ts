@@ -1,3 +1,4 @@
+import { checkFilter, type AlarmRule, type FilterCheck } from "@/lib/alarms";
 import { buildRevisionContent, type RevisionContent } from "@/lib/coefficients";
 import { designFilter, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
 import { ExportRefusal, prepareExport, type ExportSource, type ExportTarget, type PreparedExport } from "@/lib/export";
@@ -6,13 +7,16 @@ import { ExportRefusal, prepareExport, type ExportSource, type ExportTarget, typ
 export type Job =
   | { kind: "design"; spec: FilterSpec }
   | { kind: "revision-content"; spec: FilterSpec; format: QuantFormat }
-  | { kind: "export"; source: ExportSource; target: ExportTarget; prefix?: string };
+  | { kind: "export"; source: ExportSource; target: ExportTarget; prefix?: string }
+  /** A candidate and the production filter over raw samples against a channel's alarm rules (the review's hidden-excursion check). */
+  | { kind: "filter-check"; rules: AlarmRule[]; candidate: FilterSpec; production: FilterDesign | null; samples: Float64Array; sampleRateHz: number };
 
 /** What each kind of job answers. */
 export interface JobResults {
   design: FilterDesign;
   "revision-content": RevisionContent;
   export: PreparedExport;
+  "filter-check": { candidate: FilterCheck; production: FilterCheck | null };
 }
 
 export type JobResult<J extends Job> = JobResults[J["kind"]];
@@ -33,6 +37,11 @@ export async function runJob(job: Job): Promise<JobResults[Job["kind"]]> {
       return buildRevisionContent(job.spec, job.format);
     case "export":
       return prepareExport(job.source, job.target, job.prefix);
+    case "filter-check":
+      return {
+        candidate: checkFilter(job.rules, designFilter(job.candidate), job.samples, job.sampleRateHz),
+        production: job.production && checkFilter(job.rules, job.production, job.samples, job.sampleRateHz),
+      };
   }
 }
 

@@ -11,7 +11,6 @@ const RULE = `Ambient above 10 °C ${Date.now().toString(36)}`;
 
 /** An engineer's API session, as a script or another browser would hold it. */
 async function engineerApi(request: APIRequest, baseURL: string | undefined): Promise<APIRequestContext> {
-  // An API client sends the app's own Origin on state changes, as the app's pages do (CSRF rule).
   const api = await request.newContext({ baseURL, extraHTTPHeaders: SAME_ORIGIN });
   expect((await api.post("/api/auth/login", { data: { email: "engineer@tapwright.test", password: DEMO_PASSWORD } })).status()).toBe(200);
   return api;
@@ -64,10 +63,11 @@ test("an operator sees an alarm appear on the overview without a reload, acknowl
 test("an operator may not create alarm rules", async ({ page }) => {
   await new SignInPage(page).signInAs("operator");
   const refused = await page.request.post("/api/v1/alarm-rules", {
-    headers: SAME_ORIGIN,
     data: { channel: AMBIENT, name: "not mine to add", signal: "raw", high: 10, deadband: 0, minDurationMs: 0, severity: "advisory" },
+    headers: SAME_ORIGIN,
   });
   expect(refused.status()).toBe(403);
+  expect((await refused.json()).error.message).toBe("This needs the engineer role or higher.");
   await new AlarmsPage(page).open();
   await expect(page.getByRole("button", { name: "Add a rule" })).toHaveCount(0);
 });

@@ -4,10 +4,11 @@ import { findChannelByPath } from "@/db/queries/channels";
 import { deployedDesign, findActiveDeployment } from "@/db/queries/deployments";
 import { findRecordingSamples, listRecordings } from "@/db/queries/recordings";
 import { db } from "@/db";
-import { checkFilter, type FilterCheck } from "@/lib/alarms";
-import { designFilter, type FilterSpec } from "@/lib/dsp";
+import type { AlarmRule, FilterCheck } from "@/lib/alarms";
+import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { env } from "@/lib/env";
 import { decodeSamples } from "@/lib/recordings/samples";
+import { computeForRequest } from "@/lib/workers";
 
 /** How long the live service may take to hand over its recent samples, ms. */
 const SIDECAR_TIMEOUT_MS = 1_500;
@@ -37,7 +38,14 @@ const seconds = (n: number, fs: number) => `${(n / fs).toFixed(0)} s`;
  * filtered-signal alarm limits it would have hidden (raw crossed, filtered did not) over the samples
  * the live service holds and over the channel's newest recording, beside the production filter's count.
  */
-export function HiddenExcursions(props: { channelPath: string; spec: FilterSpec }) {
+interface CheckProps {
+  channelPath: string;
+  spec: FilterSpec;
+  /** Whose request the check runs for (the work pool's per-user share). */
+  owner: string;
+}
+
+export function HiddenExcursions(props: CheckProps) {
   return (
     <Suspense fallback={<p className="text-xs text-slate-500">Checking whether this filter would hide an alarm excursion…</p>}>
       <HiddenExcursionsCheck {...props} />
@@ -45,32 +53,45 @@ export function HiddenExcursions(props: { channelPath: string; spec: FilterSpec 
   );
 }
 
-async function HiddenExcursionsCheck({ channelPath, spec }: { channelPath: string; spec: FilterSpec }) {
+/** The candidate and the production filter over some samples, on the web app's work threads (bounded in time). */
+async function check(rules: AlarmRule[], props: CheckProps, production: FilterDesign | null, samples: Float64Array, sampleRateHz: number) {
+  return computeForRequest({ kind: "filter-check", rules, candidate: props.spec, production, samples, sampleRateHz }, props.owner, "The check could not be made");
+}
+
+async function HiddenExcursionsCheck(props: CheckProps) {
+  const { channelPath } = props;
   const channel = await findChannelByPath(db(), channelPath);
   if (!channel) return null;
-  const rules = (await listAlarmRules(db(), { channelId: channel.id, enabledOnly: true })).filter((r) => r.signal === "filtered");
+  const rules: AlarmRule[] = (await listAlarmRules(db(), { channelId: channel.id, enabledOnly: true }))
+    .filter((r) => r.signal === "filtered")
+    .map(({ id, channel: path, name, signal, high, low, deadband, minDurationMs, severity, enabled }) => ({ id, channel: path, name, signal, high, low, deadband, minDurationMs, severity, enabled }));
   if (rules.length === 0) {
     return <p className="text-xs text-slate-500" data-testid="hidden-excursions">No enabled alarm rule watches this channel&apos;s filtered signal, so this revision cannot hide an excursion from one.</p>;
   }
-  const candidate = designFilter(spec);
   const active = await findActiveDeployment(db(), channel.id);
   const production = active ? deployedDesign(active) : null;
   const fs = channel.sampleRateHz;
   const sources: Source[] = [];
+  let failure: string | null = null;
+  const add = async (label: string, samples: Float64Array) => {
+    try {
+      sources.push({ label, ...(await check(rules, props, production, samples, fs)) });
+    } catch (err) {
+      console.warn(`[hidden excursions] ${channel.path} over ${label}: ${err instanceof Error ? err.message : String(err)}`);
+      failure = err instanceof Error ? err.message : "The check could not be made.";
+    }
+  };
   const recent = await recentSamples(channel.path);
-  if (recent && recent.samples.length > 0 && recent.sampleRateHz === fs) {
-    sources.push({ label: `the last ${seconds(recent.samples.length, fs)} the live service holds`, candidate: checkFilter(rules, candidate, recent.samples, fs), production: production && checkFilter(rules, production, recent.samples, fs) });
-  }
+  if (recent && recent.samples.length > 0 && recent.sampleRateHz === fs) await add(`the last ${seconds(recent.samples.length, fs)} the live service holds`, recent.samples);
   const [newest] = await listRecordings(db(), channel.id);
   const recorded = newest && newest.sampleRateHz === fs ? await findRecordingSamples(db(), newest.id) : undefined;
-  if (newest && recorded) {
-    sources.push({ label: `the recording “${newest.name}” (${seconds(recorded.length, fs)})`, candidate: checkFilter(rules, candidate, recorded, fs), production: production && checkFilter(rules, production, recorded, fs) });
-  }
+  if (newest && recorded) await add(`the recording “${newest.name}” (${seconds(recorded.length, fs)})`, recorded);
   return (
     <div className="rounded-md border border-dashed border-fault/60 p-2 text-xs" data-testid="hidden-excursions">
       <p className="font-medium">Would this filter hide a fault?</p>
+      {failure && <p className="text-fault">{failure}</p>}
       {sources.length === 0 ? (
-        <p className="text-slate-500">No samples to check against: the live service is not answering and {channel.path} has no recording.</p>
+        !failure && <p className="text-slate-500">No samples to check against: the live service is not answering and {channel.path} has no recording.</p>
       ) : (
         <ul className="mt-1 space-y-0.5">
           {sources.map((s) => (

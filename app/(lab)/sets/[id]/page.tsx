@@ -140,7 +140,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                     </ActionForm>
                   </div>
                 )}
-                {(rev.state === "in_review" || rev.state === "approved") && !retired && <HiddenExcursions channelPath={set.channel} spec={rev.spec} />}
+                {(rev.state === "in_review" || rev.state === "approved") && !retired && <HiddenExcursions channelPath={set.channel} spec={rev.spec} owner={`user:${me.id}`} />}
                 {can("promote", rev) && rev.analysis.deployable.ok && (
                   <PromoteForm
                     action={promoteAction}
