@@ -1,6 +1,6 @@
 "use client";
 
-import { useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { Controller, useFormContext, type FieldErrors, type FieldValues } from "react-hook-form";
 import { parseCoefficientText } from "@/lib/dsp";
 
@@ -15,6 +15,34 @@ export function errorAt(errors: FieldErrors<FieldValues>, path: string): string 
     if (typeof message === "string") found = message;
   }
   return found;
+}
+
+/** The first error message at or below a dotted path (a list's "a" holds the error of "a.0"). */
+export function errorUnder(errors: FieldErrors<FieldValues>, path: string): string | undefined {
+  const first = (node: unknown): string | undefined => {
+    if (node === null || typeof node !== "object") return undefined;
+    const message = (node as { message?: unknown }).message;
+    if (typeof message === "string") return message;
+    for (const [key, child] of Object.entries(node)) {
+      if (key === "ref") continue;
+      const found = first(child);
+      if (found) return found;
+    }
+    return undefined;
+  };
+  let node: unknown = errors;
+  for (const key of path.split(".")) node = node !== null && typeof node === "object" ? (node as Record<string, unknown>)[key] : undefined;
+  return first(node);
+}
+
+/** Tells onValidity whether a form holds a usable value each time that changes, and "valid" when the form closes. */
+export function useReportValidity(valid: boolean, onValidity?: (valid: boolean) => void) {
+  const report = useRef(onValidity);
+  report.current = onValidity;
+  useEffect(() => {
+    report.current?.(valid);
+  }, [valid]);
+  useEffect(() => () => report.current?.(true), []);
 }
 
 /** A field's label, with its unit in brackets when it has one. */
@@ -101,7 +129,7 @@ export function ListField({ name, label, rows = false, lines = 2, hint }: { name
   const { control, formState } = useFormContext();
   const [parseError, setParseError] = useState<string | null>(null);
   const id = fieldId(name);
-  const message = parseError ?? errorAt(formState.errors, name);
+  const message = parseError ?? errorUnder(formState.errors, name);
   return (
     <Controller
       control={control}
@@ -134,6 +162,8 @@ export function ListField({ name, label, rows = false, lines = 2, hint }: { name
                 else field.onChange(parsed);
                 setParseError(null);
               } catch (err) {
+                // The form must not keep the last list that parsed while the box shows text that does not.
+                field.onChange(rows ? [[Number.NaN]] : [Number.NaN]);
                 setParseError(err instanceof Error ? err.message : String(err));
               }
             }}

@@ -97,6 +97,7 @@ export function SavePanel({ channel, spec, suggestedName }: { channel: string; s
       <button type="button" className="btn-primary" disabled={save.isPending || !spec} onClick={() => save.mutate()}>
         {save.isPending ? "Saving…" : mode === "set" ? "Save as a new set" : "Save as a new revision"}
       </button>
+      {!spec && <p className="text-xs text-slate-500">Save waits for a valid design: fix the values marked in red first.</p>}
       {save.isSuccess && (
         <p role="status" className="text-sm text-emerald-800 dark:text-emerald-300">
           Saved as revision {save.data.revision}.{" "}

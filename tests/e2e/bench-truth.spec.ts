@@ -1,0 +1,48 @@
+import { expect, test } from "@playwright/test";
+import { BenchPage } from "./pages/bench-page";
+import { SignInPage } from "./pages/sign-in-page";
+
+// Frame strain is sampled at 1 kHz (demo rig), so Nyquist is 500 Hz.
+const CHANNEL = "hydraulic-press/env-node/frame-strain";
+
+test("an engineer cannot save while the editor holds a cutoff above Nyquist; a fixed value saves exactly what is shown", async ({ page }) => {
+  test.setTimeout(90_000);
+  await new SignInPage(page).signInAs("engineer");
+  const bench = new BenchPage(page);
+  await bench.open(CHANNEL);
+  const candidate = await bench.addCandidate();
+  const save = bench.editor.getByRole("region", { name: "Save" });
+  const button = save.getByRole("button", { name: "Save as a new set" });
+  await expect(button).toBeEnabled();
+
+  await bench.setNumber("Cutoff", 600);
+  await expect(bench.editor.getByRole("alert").first()).toContainText("600");
+  await expect(button).toBeDisabled();
+  await expect(bench.editor.getByRole("status").filter({ hasText: "Not applied" })).toBeVisible();
+  // The card still names the design that runs, not the refused value.
+  await expect(bench.summary(candidate)).toHaveText("Butterworth LP 4 · 100 Hz");
+
+  await bench.setNumber("Cutoff", 120);
+  await expect(bench.summary(candidate)).toHaveText("Butterworth LP 4 · 120 Hz");
+  await expect(button).toBeEnabled();
+  const saved = await bench.saveAsNewSet(`Frame strain 120 Hz ${Date.now()}`, "Saved after a refused cutoff.");
+  await expect(saved.getByRole("status")).toContainText("Saved as revision 1", { timeout: 20_000 });
+  await saved.getByRole("link", { name: "Open the set" }).click();
+  await expect(page.getByTestId("revision-stages").first()).toContainText("Butterworth LP 4 · 120 Hz");
+});
+
+test("pasted coefficients with a0 = 0 are refused beside the field, and nothing else runs or saves in their place", async ({ page }) => {
+  test.setTimeout(90_000);
+  await new SignInPage(page).signInAs("engineer");
+  const bench = new BenchPage(page);
+  await bench.open(CHANNEL);
+  const candidate = await bench.addCandidate();
+  await bench.chooseKind("Pasted coefficients");
+  await expect(bench.summary(candidate)).toHaveText("Pasted b/a · 3/1 coefficients");
+
+  await bench.editor.getByLabel("a (denominator, empty for FIR)").fill("0, 1");
+  await expect(bench.editor.getByRole("alert").filter({ hasText: "a[0] must be nonzero" })).toBeVisible();
+  await expect(bench.editor.getByRole("status").filter({ hasText: "Not applied" })).toBeVisible();
+  await expect(bench.editor.getByRole("region", { name: "Save" }).getByRole("button", { name: "Save as a new set" })).toBeDisabled();
+  await expect(bench.summary(candidate)).toHaveText("Pasted b/a · 3/1 coefficients");
+});
