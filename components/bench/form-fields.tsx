@@ -2,6 +2,7 @@
 
 import { useEffect, useRef, useState } from "react";
 import { Controller, useFormContext, type FieldErrors, type FieldValues } from "react-hook-form";
+import { numberTextError, readNumberText } from "@/lib/bench/number-text";
 import { parseCoefficientText } from "@/lib/dsp";
 
 /** The message of the error at a dotted path (e.g. "cutoffHz.1"), or of its parent when the child has none. */
@@ -67,23 +68,34 @@ export function FieldMessage({ id, message }: { id?: string; message?: string })
 
 const fieldId = (name: string) => `spec-${name.replace(/\./g, "-")}`;
 
-/** A number input; empty reads as NaN (refused by the schema) or, when optional, as absent. */
-export function NumberField({ name, label, unit, optional = false, step = "any" }: { name: string; label: string; unit?: string; optional?: boolean; step?: string }) {
+/**
+ * A number typed as text (so the browser never rewrites it); empty reads as NaN (refused by the schema) or,
+ * when optional, as absent. A decimal comma or other text that is not a number is refused with its own
+ * message and reads as NaN, so nothing else is applied or saved in its place.
+ */
+export function NumberField({ name, label, unit, optional = false }: { name: string; label: string; unit?: string; optional?: boolean }) {
   const { register, formState } = useFormContext();
-  const message = errorAt(formState.errors, name);
+  const [textError, setTextError] = useState<string | null>(null);
+  const message = textError ?? errorAt(formState.errors, name);
   const id = fieldId(name);
+  const reg = register(name, { setValueAs: (v: unknown) => readNumberText(v, optional) });
   return (
     <div>
       <FieldLabel id={id} label={label} unit={unit} />
       <input
         id={id}
-        type="number"
-        step={step}
+        type="text"
         inputMode="decimal"
+        autoComplete="off"
+        spellCheck={false}
         aria-invalid={message ? true : undefined}
         aria-describedby={message ? `${id}-error` : undefined}
         className="field num"
-        {...register(name, { setValueAs: (v: unknown) => (v === "" || v === undefined || v === null ? (optional ? undefined : NaN) : Number(v)) })}
+        {...reg}
+        onChange={(e) => {
+          setTextError(numberTextError(e.target.value));
+          void reg.onChange(e);
+        }}
       />
       <FieldMessage id={`${id}-error`} message={message} />
     </div>

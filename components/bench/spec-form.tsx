@@ -72,7 +72,7 @@ export function SpecForm({ initial, onValid, onValidity }: { initial: StageSpec;
           <>
             <SelectField name="family" label="Family" options={opts(IIR_FAMILIES, FAMILY_LABELS)} />
             <SelectField name="response" label="Response" options={opts(IIR_RESPONSES)} onPicked={setCutoffs} />
-            <NumberField name="order" label="Order" step="1" />
+            <NumberField name="order" label="Order" />
             <div />
             {band ? (
               <>
@@ -103,7 +103,7 @@ export function SpecForm({ initial, onValid, onValidity }: { initial: StageSpec;
               options={opts(firWindows)}
               onPicked={(w) => form.setValue("stopbandAttenuationDb", w === "kaiser" ? 60 : undefined, { shouldValidate: true })}
             />
-            <NumberField name="taps" label="Taps" step="1" />
+            <NumberField name="taps" label="Taps" />
             {values.window === "kaiser" ? <NumberField name="stopbandAttenuationDb" label="Stopband attenuation" unit="dB" optional /> : <div />}
             {band ? (
               <>
@@ -115,7 +115,7 @@ export function SpecForm({ initial, onValid, onValidity }: { initial: StageSpec;
             )}
           </>
         )}
-        {values.kind === "moving-average" && <NumberField name="length" label="Length" unit="samples" step="1" />}
+        {values.kind === "moving-average" && <NumberField name="length" label="Length" unit="samples" />}
         {values.kind === "differentiator" && (
           <p className="col-span-2 text-sm text-slate-500">First difference scaled by fs: y[n] = fs·(x[n] − x[n−1]). Nothing to set.</p>
         )}
