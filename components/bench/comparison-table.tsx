@@ -121,7 +121,7 @@ export function ComparisonTable({
                 const m = metrics[it.id];
                 if (typeof f === "string") {
                   return (
-                    <tr key={it.id} className="border-t border-slate-200 dark:border-slate-800">
+                    <tr key={it.id} className="border-t border-slate-200 dark:border-slate-800" data-row={it.id}>
                       <td className={`${td} font-sans`}>{it.name}</td>
                       <td colSpan={11} className={`${td} font-sans text-red-700 dark:text-red-300`}>
                         {f}
