@@ -1,5 +1,12 @@
 import { candidateName, type Candidate } from "@/lib/bench/candidates";
-import { REVIEW_LINE, type Caution } from "@/lib/bench/cautions";
+import { REVIEW_LINE, type Caution, type CautionLevel } from "@/lib/bench/cautions";
+
+/** The look of each caution level: red for a filter that does not settle, amber for a risk, quiet for advice. */
+const LEVEL_CLASS: Record<CautionLevel, string> = {
+  danger: "border-red-300 bg-red-50 text-red-950 dark:border-red-700/60 dark:bg-red-950/30 dark:text-red-100",
+  warning: "border-amber-300 bg-amber-50 text-amber-950 dark:border-amber-700/60 dark:bg-amber-950/30 dark:text-amber-100",
+  note: "border-slate-200 bg-transparent text-slate-700 dark:border-slate-700 dark:text-slate-300",
+};
 
 /** Cautions in plain words, each closing with the line that defers to review and local codes. */
 export function CautionsList({ cautions, name }: { cautions: Caution[]; name?: string }) {
@@ -7,7 +14,7 @@ export function CautionsList({ cautions, name }: { cautions: Caution[]; name?: s
   return (
     <ul className="space-y-2" aria-label={name ? `Cautions for ${name}` : "Cautions"}>
       {cautions.map((c) => (
-        <li key={c.kind} data-caution={c.kind} className="rounded-md border border-amber-300 bg-amber-50 px-3 py-2 text-sm text-amber-950 dark:border-amber-700/60 dark:bg-amber-950/30 dark:text-amber-100">
+        <li key={c.kind} data-caution={c.kind} data-level={c.level} className={`rounded-md border px-3 py-2 text-sm ${LEVEL_CLASS[c.level]}`}>
           <p className="font-medium">
             {name ? `${name}: ` : ""}
             {c.title}

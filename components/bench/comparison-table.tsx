@@ -2,19 +2,26 @@
 
 import { useMemo } from "react";
 import { Swatch } from "@/components/ui/swatch";
+import { onOrOutsideUnitCircle } from "@/lib/bench/cautions";
 import { candidateFigures, type CandidateFigures } from "@/lib/bench/figures";
 import { hz, withUnit } from "@/lib/bench/format";
-import { activeStages } from "@/lib/dsp";
+import { activeStages, stability } from "@/lib/dsp";
 import type { CandidateMetrics } from "@/lib/protocol";
 import type { AnalysisItem } from "./analysis-views";
 
+/** The row's figures, or a plain sentence in their place (the cause of a failure goes to the console). */
 function figuresOf(item: AnalysisItem, noiseLineHz: number | null, delayAtHz: number | null): CandidateFigures | string {
+  if (onOrOutsideUnitCircle(stability(item.design).maxPoleRadius)) return UNSTABLE_ROW;
   try {
     return candidateFigures(item.design, { noiseLineHz, delayAtHz });
   } catch (err) {
-    return err instanceof Error ? err.message : String(err);
+    console.error(`The figures of ${item.id} could not be worked out`, err);
+    return "The figures of this design could not be worked out.";
   }
 }
+
+/** What an unstable candidate's row says instead of figures. */
+export const UNSTABLE_ROW = "Unstable or marginal: a pole lies on or outside the unit circle, so its output does not settle and has no attenuation or delay to compare.";
 
 const KIND: Record<string, string> = {
   iir: "IIR",
@@ -114,7 +121,7 @@ export function ComparisonTable({
                 const m = metrics[it.id];
                 if (typeof f === "string") {
                   return (
-                    <tr key={it.id} className="border-t border-slate-200 dark:border-slate-800">
+                    <tr key={it.id} className="border-t border-slate-200 dark:border-slate-800" data-row={it.id}>
                       <td className={`${td} font-sans`}>{it.name}</td>
                       <td colSpan={11} className={`${td} font-sans text-red-700 dark:text-red-300`}>
                         {f}

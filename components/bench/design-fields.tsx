@@ -32,7 +32,7 @@ export function DesignFields({ values }: { values: FilterSpec }) {
     case "fir-equiripple":
       return (
         <>
-          <NumberField name="taps" label="Taps" step="1" />
+          <NumberField name="taps" label="Taps" />
           <div />
           <div className="col-span-2">
             <ListField name="bandsHz" label="Band edges (Hz), a pair per band" hint={`From 0 to ${values.sampleRateHz / 2} Hz, e.g. 0, 100, 150, ${values.sampleRateHz / 2}; the gaps are transition bands.`} />
@@ -52,7 +52,7 @@ export function DesignFields({ values }: { values: FilterSpec }) {
     case "fir-arbitrary":
       return (
         <>
-          <NumberField name="taps" label="Taps" step="1" />
+          <NumberField name="taps" label="Taps" />
           <SelectField name="window" label="Window" options={WINDOWS} />
           {values.window === "kaiser" ? <NumberField name="kaiserBeta" label="Kaiser β" optional /> : <div />}
           <div />

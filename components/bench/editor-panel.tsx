@@ -1,6 +1,6 @@
 "use client";
 
-import type { ReactNode } from "react";
+import { useState, type ReactNode } from "react";
 import { Swatch } from "@/components/ui/swatch";
 import { candidateColor, candidateName, type Candidate } from "@/lib/bench/candidates";
 import type { Caution } from "@/lib/bench/cautions";
@@ -25,6 +25,7 @@ export function EditorPanel({
   designError,
   cautions,
   onSpec,
+  onValidity,
   onClose,
   save,
 }: {
@@ -36,6 +37,7 @@ export function EditorPanel({
   designError: string | null;
   cautions: Caution[];
   onSpec: (spec: FilterSpec) => void;
+  onValidity: (valid: boolean) => void;
   onClose: () => void;
   save: ReactNode;
 }) {
@@ -57,7 +59,7 @@ export function EditorPanel({
             From the spectrum: {seedNote}
           </p>
         )}
-        <StageList key={`stages-${candidate.id}`} spec={candidate.spec} onSpec={onSpec} designError={designError} resetKey={seedVersion} />
+        <StageList key={`stages-${candidate.id}`} spec={candidate.spec} onSpec={onSpec} designError={designError} resetKey={seedVersion} onValidity={onValidity} />
         <CautionsList cautions={cautions} />
         {save}
       </div>
@@ -74,7 +76,10 @@ function suggestedName(channelName: string, spec: FilterSpec): string {
 /** The editor of the candidate being edited in `list`, saving to the given channel; nothing when none is. */
 export function CandidateEditor({ list, channelPath, channelName }: { list: CandidateList; channelPath: string; channelName: string }) {
   const { editing, editingDesign } = list;
+  const [formValid, setFormValid] = useState(true);
   if (!editing) return null;
+  // Save takes exactly what the plots show: the candidate's spec, and only while no form holds an unusable value.
+  const savable = formValid && editingDesign?.design ? editing.spec : null;
   return (
     <EditorPanel
       candidate={editing}
@@ -83,8 +88,9 @@ export function CandidateEditor({ list, channelPath, channelName }: { list: Cand
       designError={editingDesign?.error ?? null}
       cautions={list.cautions.get(editing.id) ?? []}
       onSpec={(spec) => list.updateSpec(editing.id, spec)}
+      onValidity={setFormValid}
       onClose={() => list.setEditingId(null)}
-      save={<SavePanel key={editing.id} channel={channelPath} spec={editingDesign?.design ? editing.spec : null} suggestedName={suggestedName(channelName, editing.spec)} />}
+      save={<SavePanel key={editing.id} channel={channelPath} spec={savable} suggestedName={suggestedName(channelName, editing.spec)} />}
     />
   );
 }

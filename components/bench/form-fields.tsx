@@ -1,7 +1,8 @@
 "use client";
 
-import { useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { Controller, useFormContext, type FieldErrors, type FieldValues } from "react-hook-form";
+import { numberTextError, readNumberText } from "@/lib/bench/number-text";
 import { parseCoefficientText } from "@/lib/dsp";
 
 /** The message of the error at a dotted path (e.g. "cutoffHz.1"), or of its parent when the child has none. */
@@ -15,6 +16,34 @@ export function errorAt(errors: FieldErrors<FieldValues>, path: string): string 
     if (typeof message === "string") found = message;
   }
   return found;
+}
+
+/** The first error message at or below a dotted path (a list's "a" holds the error of "a.0"). */
+export function errorUnder(errors: FieldErrors<FieldValues>, path: string): string | undefined {
+  const first = (node: unknown): string | undefined => {
+    if (node === null || typeof node !== "object") return undefined;
+    const message = (node as { message?: unknown }).message;
+    if (typeof message === "string") return message;
+    for (const [key, child] of Object.entries(node)) {
+      if (key === "ref") continue;
+      const found = first(child);
+      if (found) return found;
+    }
+    return undefined;
+  };
+  let node: unknown = errors;
+  for (const key of path.split(".")) node = node !== null && typeof node === "object" ? (node as Record<string, unknown>)[key] : undefined;
+  return first(node);
+}
+
+/** Tells onValidity whether a form holds a usable value each time that changes, and "valid" when the form closes. */
+export function useReportValidity(valid: boolean, onValidity?: (valid: boolean) => void) {
+  const report = useRef(onValidity);
+  report.current = onValidity;
+  useEffect(() => {
+    report.current?.(valid);
+  }, [valid]);
+  useEffect(() => () => report.current?.(true), []);
 }
 
 /** A field's label, with its unit in brackets when it has one. */
@@ -39,23 +68,34 @@ export function FieldMessage({ id, message }: { id?: string; message?: string })
 
 const fieldId = (name: string) => `spec-${name.replace(/\./g, "-")}`;
 
-/** A number input; empty reads as NaN (refused by the schema) or, when optional, as absent. */
-export function NumberField({ name, label, unit, optional = false, step = "any" }: { name: string; label: string; unit?: string; optional?: boolean; step?: string }) {
+/**
+ * A number typed as text (so the browser never rewrites it); empty reads as NaN (refused by the schema) or,
+ * when optional, as absent. A decimal comma or other text that is not a number is refused with its own
+ * message and reads as NaN, so nothing else is applied or saved in its place.
+ */
+export function NumberField({ name, label, unit, optional = false }: { name: string; label: string; unit?: string; optional?: boolean }) {
   const { register, formState } = useFormContext();
-  const message = errorAt(formState.errors, name);
+  const [textError, setTextError] = useState<string | null>(null);
+  const message = textError ?? errorAt(formState.errors, name);
   const id = fieldId(name);
+  const reg = register(name, { setValueAs: (v: unknown) => readNumberText(v, optional) });
   return (
     <div>
       <FieldLabel id={id} label={label} unit={unit} />
       <input
         id={id}
-        type="number"
-        step={step}
+        type="text"
         inputMode="decimal"
+        autoComplete="off"
+        spellCheck={false}
         aria-invalid={message ? true : undefined}
         aria-describedby={message ? `${id}-error` : undefined}
         className="field num"
-        {...register(name, { setValueAs: (v: unknown) => (v === "" || v === undefined || v === null ? (optional ? undefined : NaN) : Number(v)) })}
+        {...reg}
+        onChange={(e) => {
+          setTextError(numberTextError(e.target.value));
+          void reg.onChange(e);
+        }}
       />
       <FieldMessage id={`${id}-error`} message={message} />
     </div>
@@ -101,7 +141,7 @@ export function ListField({ name, label, rows = false, lines = 2, hint }: { name
   const { control, formState } = useFormContext();
   const [parseError, setParseError] = useState<string | null>(null);
   const id = fieldId(name);
-  const message = parseError ?? errorAt(formState.errors, name);
+  const message = parseError ?? errorUnder(formState.errors, name);
   return (
     <Controller
       control={control}
@@ -134,6 +174,8 @@ export function ListField({ name, label, rows = false, lines = 2, hint }: { name
                 else field.onChange(parsed);
                 setParseError(null);
               } catch (err) {
+                // The form must not keep the last list that parsed while the box shows text that does not.
+                field.onChange(rows ? [[Number.NaN]] : [Number.NaN]);
                 setParseError(err instanceof Error ? err.message : String(err));
               }
             }}

@@ -23,7 +23,7 @@ export function HarmonicSeriesForm({ sampleRateHz, disabled, onAdd }: { sampleRa
     <FormProvider {...form}>
       <form className="grid grid-cols-3 items-start gap-3" aria-label="Harmonic series" noValidate onSubmit={form.handleSubmit((v) => onAdd(seriesOf(v)))}>
         <NumberField name="fundamentalHz" label="Fundamental" unit="Hz" />
-        {upToNyquist ? <p className="self-end pb-2 text-xs text-slate-500">Every harmonic below {sampleRateHz / 2} Hz</p> : <NumberField name="count" label="Count" step="1" optional />}
+        {upToNyquist ? <p className="self-end pb-2 text-xs text-slate-500">Every harmonic below {sampleRateHz / 2} Hz</p> : <NumberField name="count" label="Count" optional />}
         <NumberField name="notchQ" label="Q" />
         <label className="col-span-2 flex items-center gap-1.5 text-sm">
           <input type="checkbox" {...form.register("upToNyquist")} /> Up to Nyquist

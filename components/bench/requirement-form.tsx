@@ -7,7 +7,7 @@ import { IIR_FAMILIES, IIR_RESPONSES, orderRequirementSchema, type OrderRequirem
 import { defaultRequirement, specFromRequirement } from "@/lib/bench/requirement";
 import { FAMILY_LABELS } from "@/lib/bench/spec-defaults";
 import { hz } from "@/lib/bench/format";
-import { NumberField, SelectField } from "./form-fields";
+import { NumberField, SelectField, useReportValidity } from "./form-fields";
 
 function edges(response: string, current: unknown, wider: boolean): number | [number, number] {
   const band = response === "bandpass" || response === "bandstop";
@@ -23,7 +23,7 @@ function edges(response: string, current: unknown, wider: boolean): number | [nu
  * An IIR requirement (pass and stop edges, ripple, attenuation) checked by lib/dsp's orderRequirementSchema;
  * each valid requirement is turned into a design at the order estimateOrder finds.
  */
-export function RequirementForm({ sampleRateHz, onValid }: { sampleRateHz: number; onValid: (spec: StageSpec) => void }) {
+export function RequirementForm({ sampleRateHz, onValid, onValidity }: { sampleRateHz: number; onValid: (spec: StageSpec) => void; onValidity?: (valid: boolean) => void }) {
   const form = useForm<OrderRequirement>({
     resolver: zodResolver(orderRequirementSchema) as unknown as Resolver<OrderRequirement>,
     mode: "onChange",
@@ -33,6 +33,7 @@ export function RequirementForm({ sampleRateHz, onValid }: { sampleRateHz: numbe
   const [estimate, setEstimate] = useState<{ text: string; error: boolean } | null>(null);
   const onValidRef = useRef(onValid);
   onValidRef.current = onValid;
+  useReportValidity(orderRequirementSchema.safeParse(values).success && estimate?.error !== true, onValidity);
 
   useEffect(() => {
     const parsed = orderRequirementSchema.safeParse(values);

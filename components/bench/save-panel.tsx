@@ -20,6 +20,9 @@ export function SavePanel({ channel, spec, suggestedName }: { channel: string; s
   const queryClient = useQueryClient();
   const sets = useQuery({ queryKey: ["sets", channel], queryFn: () => fetchSets(channel), enabled: mode === "revision" });
   const chosen = sets.data?.find((s) => String(s.id) === setId);
+  // The design the last save stored: "Saved" is said only while the design shown is still that one.
+  const [savedText, setSavedText] = useState<string | null>(null);
+  const changedSinceSave = savedText !== null && savedText !== JSON.stringify(spec);
 
   const save = useMutation<SavedRevision, Error, void>({
     mutationFn: async () => {
@@ -32,7 +35,10 @@ export function SavePanel({ channel, spec, suggestedName }: { channel: string; s
       if (!chosen) throw new Error("Pick the set to add a revision to.");
       return createRevision(chosen.id, { spec, notes: trimmedNotes, expectedLatestRevision: chosen.latestRevision });
     },
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ["sets", channel] }),
+    onSuccess: () => {
+      setSavedText(JSON.stringify(spec));
+      return queryClient.invalidateQueries({ queryKey: ["sets", channel] });
+    },
   });
 
   const fieldErrors = save.error instanceof ApiError ? save.error.fields : [];
@@ -97,9 +103,10 @@ export function SavePanel({ channel, spec, suggestedName }: { channel: string; s
       <button type="button" className="btn-primary" disabled={save.isPending || !spec} onClick={() => save.mutate()}>
         {save.isPending ? "Saving…" : mode === "set" ? "Save as a new set" : "Save as a new revision"}
       </button>
+      {!spec && <p className="text-xs text-slate-500">Save waits for a valid design: fix the values marked in red first.</p>}
       {save.isSuccess && (
-        <p role="status" className="text-sm text-emerald-800 dark:text-emerald-300">
-          Saved as revision {save.data.revision}.{" "}
+        <p role="status" className={`text-sm ${changedSinceSave ? "text-slate-600 dark:text-slate-300" : "text-emerald-800 dark:text-emerald-300"}`}>
+          {changedSinceSave ? `The design changed after it was saved as revision ${save.data.revision}; the one shown now is not saved.` : `Saved as revision ${save.data.revision}.`}{" "}
           <Link className="font-medium underline" href={`/sets/${save.data.setId}`}>
             Open the set
           </Link>

@@ -16,7 +16,7 @@ import {
   type StageSpec,
 } from "@/lib/dsp";
 import { DesignFields } from "./design-fields";
-import { ListField, NumberField, SelectField } from "./form-fields";
+import { ListField, NumberField, SelectField, useReportValidity } from "./form-fields";
 
 const opts = (values: readonly string[], labels: Record<string, string> = {}) => values.map((v) => ({ value: v, label: labels[v] ?? v }));
 /** Moves a cutoff between one frequency (low/high-pass) and a pair (band designs) when the response changes. */
@@ -33,8 +33,9 @@ function cutoffFor(response: string, current: unknown): number | [number, number
 /**
  * The fields of one stage's design kind, validated with lib/dsp's stageSpecSchema through react-hook-form;
  * every valid edit is handed to onValid at once (the charts re-plot within a frame). Errors sit beside their field.
+ * onValidity hears whether the fields hold a usable design (true again once the form closes).
  */
-export function SpecForm({ initial, onValid }: { initial: StageSpec; onValid: (spec: StageSpec) => void }) {
+export function SpecForm({ initial, onValid, onValidity }: { initial: StageSpec; onValid: (spec: StageSpec) => void; onValidity?: (valid: boolean) => void }) {
   const form = useForm<StageSpec>({
     resolver: zodResolver(stageSpecSchema) as unknown as Resolver<StageSpec>,
     mode: "onChange",
@@ -48,6 +49,9 @@ export function SpecForm({ initial, onValid }: { initial: StageSpec; onValid: (s
   useEffect(() => {
     void form.trigger();
   }, [form]);
+
+  const valid = stageSpecSchema.safeParse(values).success;
+  useReportValidity(valid, onValidity);
 
   useEffect(() => {
     const parsed = stageSpecSchema.safeParse(values);
@@ -68,7 +72,7 @@ export function SpecForm({ initial, onValid }: { initial: StageSpec; onValid: (s
           <>
             <SelectField name="family" label="Family" options={opts(IIR_FAMILIES, FAMILY_LABELS)} />
             <SelectField name="response" label="Response" options={opts(IIR_RESPONSES)} onPicked={setCutoffs} />
-            <NumberField name="order" label="Order" step="1" />
+            <NumberField name="order" label="Order" />
             <div />
             {band ? (
               <>
@@ -99,7 +103,7 @@ export function SpecForm({ initial, onValid }: { initial: StageSpec; onValid: (s
               options={opts(firWindows)}
               onPicked={(w) => form.setValue("stopbandAttenuationDb", w === "kaiser" ? 60 : undefined, { shouldValidate: true })}
             />
-            <NumberField name="taps" label="Taps" step="1" />
+            <NumberField name="taps" label="Taps" />
             {values.window === "kaiser" ? <NumberField name="stopbandAttenuationDb" label="Stopband attenuation" unit="dB" optional /> : <div />}
             {band ? (
               <>
@@ -111,7 +115,7 @@ export function SpecForm({ initial, onValid }: { initial: StageSpec; onValid: (s
             )}
           </>
         )}
-        {values.kind === "moving-average" && <NumberField name="length" label="Length" unit="samples" step="1" />}
+        {values.kind === "moving-average" && <NumberField name="length" label="Length" unit="samples" />}
         {values.kind === "differentiator" && (
           <p className="col-span-2 text-sm text-slate-500">First difference scaled by fs: y[n] = fs·(x[n] − x[n−1]). Nothing to set.</p>
         )}

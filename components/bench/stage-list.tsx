@@ -6,6 +6,7 @@ import { chainIssues, MAX_STAGES, stageSpecOf } from "@/lib/bench/chain-edit";
 import { type SpecKind } from "@/lib/bench/spec-defaults";
 import { stageSummary } from "@/lib/bench/spec-text";
 import type { FilterSpec } from "@/lib/dsp";
+import { useReportValidity } from "./form-fields";
 import { HarmonicSeriesForm } from "./harmonic-form";
 import { KindSelect } from "./kind-select";
 import { RequirementForm } from "./requirement-form";
@@ -20,8 +21,23 @@ const alertText = "text-xs text-red-700 dark:text-red-300";
  * edit goes to onSpec at once; a design error shows beside the stage it belongs to. `resetKey` changes
  * when the spec was changed from outside (a spectrum click), so the open form starts afresh.
  */
-export function StageList({ spec, onSpec, designError, resetKey = 0 }: { spec: FilterSpec; onSpec: (spec: FilterSpec) => void; designError: string | null; resetKey?: number }) {
+export function StageList({
+  spec,
+  onSpec,
+  designError,
+  resetKey = 0,
+  onValidity,
+}: {
+  spec: FilterSpec;
+  onSpec: (spec: FilterSpec) => void;
+  designError: string | null;
+  resetKey?: number;
+  /** Hears whether the open form holds a usable value (Save waits for one). */
+  onValidity?: (valid: boolean) => void;
+}) {
   const chain = useChain(spec, onSpec);
+  const [formValid, setFormValid] = useState(true);
+  useReportValidity(formValid, onValidity);
   const { stages, open } = chain;
   const issues = chainIssues(spec, designError);
   const full = stages.length >= MAX_STAGES;
@@ -116,9 +132,14 @@ export function StageList({ spec, onSpec, designError, resetKey = 0 }: { spec: F
                     />
                   )}
                   {stage.kind === "iir" && chain.mode === "requirement" ? (
-                    <RequirementForm key={`${i}-req-${chain.layout}`} sampleRateHz={spec.sampleRateHz} onValid={(s) => chain.update(i, s)} />
+                    <RequirementForm key={`${i}-req-${chain.layout}`} sampleRateHz={spec.sampleRateHz} onValid={(s) => chain.update(i, s)} onValidity={setFormValid} />
                   ) : (
-                    <SpecForm key={`${i}-${stage.kind}-${chain.layout}-${resetKey}`} initial={stageSpecOf(stage)} onValid={(s) => chain.update(i, s)} />
+                    <SpecForm key={`${i}-${stage.kind}-${chain.layout}-${resetKey}`} initial={stageSpecOf(stage)} onValid={(s) => chain.update(i, s)} onValidity={setFormValid} />
+                  )}
+                  {!formValid && (
+                    <p role="status" className="text-xs text-amber-800 dark:text-amber-300">
+                      Not applied: the plots, the stream and Save keep the design in the summary above until this form holds valid values.
+                    </p>
                   )}
                 </div>
               )}

@@ -16,6 +16,9 @@ interface Props {
 /** Promotion of an approved revision to channels of the same sample rate, behind the cautions. */
 export function PromoteForm({ action, revisionId, revision, channels, defaultChannel }: Props) {
   const [state, formAction, pending] = useActionState<ActionState, FormData>(action, { ok: true });
+  // "Waiting for the device" holds only while a deployment waits; once none does, the table below tells what the device did.
+  const answered = state.ok && !channels.some((c) => c.pending);
+  const message = answered && state.message ? "The device has answered: the deployments on this page show what runs now." : state.message;
   return (
     <form action={formAction} className="space-y-3" data-testid="promote-form">
       <input type="hidden" name="revisionId" value={revisionId} />
@@ -41,9 +44,9 @@ export function PromoteForm({ action, revisionId, revision, channels, defaultCha
         <span>I have read the cautions, and this revision went through our review for these channels.</span>
       </label>
       <button className="btn-primary" disabled={pending}>{pending ? "Sending…" : "Promote"}</button>
-      {state.message && (
+      {message && (
         <p role="status" className={`text-sm ${state.ok ? "text-brand-600" : "text-fault"}`}>
-          {state.message}
+          {message}
         </p>
       )}
     </form>

@@ -18,12 +18,21 @@ export const CAUTION_LIMITS = {
   quantizationDb: 1,
   /** Design frequencies above this fraction of fs sit close to Nyquist. */
   nyquistFraction: 0.45,
+  /** A pole radius within this of 1 counts as on the unit circle (rounding of an exact 1; product choice). */
+  unitCircleTolerance: 1e-9,
 } as const;
+
+/** How loudly a caution speaks: "danger" (red) for a filter that does not settle, "warning" (amber) for a risk, "note" (quiet) for advice. */
+export type CautionLevel = "danger" | "warning" | "note";
+
+/** A pole of this radius lies on or outside the unit circle (within CAUTION_LIMITS.unitCircleTolerance): the filter is unstable or marginal. */
+export const onOrOutsideUnitCircle = (radius: number) => !(radius < 1 - CAUTION_LIMITS.unitCircleTolerance);
 
 export type CautionKind = "poles" | "loop" | "quantization" | "nyquist" | "notch";
 
 export interface Caution {
   kind: CautionKind;
+  level: CautionLevel;
   title: string;
   /** What the risk is, with the numbers; REVIEW_LINE is appended by the caller's display. */
   text: string;
@@ -46,15 +55,23 @@ export function phaseLagDeg(design: FilterDesign, freqHz: number): number {
   return (-(phaseRad[steps] - phaseRad[0]) * 180) / Math.PI;
 }
 
-function poleCaution(design: FilterDesign): Caution | null {
-  const { stable, maxPoleRadius } = stability(design);
+function poleCaution(maxPoleRadius: number): Caution | null {
   const r = withUnit(maxPoleRadius, "", 4);
-  if (!stable) {
-    return { kind: "poles", title: "Unstable filter", text: `A pole lies at radius ${r}, on or outside the unit circle: the output grows without bound.` };
+  if (maxPoleRadius > 1 + CAUTION_LIMITS.unitCircleTolerance) {
+    return { kind: "poles", level: "danger", title: "Unstable filter", text: `A pole lies at radius ${r}, outside the unit circle: the output grows without bound.` };
+  }
+  if (onOrOutsideUnitCircle(maxPoleRadius)) {
+    return {
+      kind: "poles",
+      level: "danger",
+      title: "Marginally stable filter",
+      text: `A pole lies on the unit circle (radius ${r}), as in an integrator: the output does not settle, and any offset or rounding error in the input makes it drift without bound.`,
+    };
   }
   if (maxPoleRadius < CAUTION_LIMITS.nearUnitCircle) return null;
   return {
     kind: "poles",
+    level: "warning",
     title: "Poles close to the unit circle",
     text: `The largest pole radius is ${r}, within 1 % of the unit circle. The filter rings for a long time, and small coefficient errors can make it unstable.`,
   };
@@ -69,6 +86,7 @@ function loopCaution(design: FilterDesign, crossoverHz: number | null | undefine
     if (lag < CAUTION_LIMITS.loopPhaseDeg) return null;
     return {
       kind: "loop",
+      level: "warning",
       title: "Delay inside a control loop",
       text: `If this filter sits inside a control loop, it delays the signal by about ${delay} and costs ${withUnit(lag, "", 2)}° of phase at the ${hz(crossoverHz)} crossover, which comes straight off the phase margin.`,
     };
@@ -76,6 +94,7 @@ function loopCaution(design: FilterDesign, crossoverHz: number | null | undefine
   if (delayMs < CAUTION_LIMITS.loopDelayMs) return null;
   return {
     kind: "loop",
+    level: "note",
     title: "Delay inside a control loop",
     text: `This filter delays low frequencies by about ${delay}. If it sits inside a control loop, enter the loop's crossover frequency to see the phase it costs there.`,
   };
@@ -87,11 +106,12 @@ function quantizationCaution(design: FilterDesign, format: QuantFormat): Caution
   try {
     q = quantizeDesign(design, format);
   } catch (err) {
-    return { kind: "quantization", title: `Not representable in ${name}`, text: err instanceof Error ? err.message : String(err) };
+    return { kind: "quantization", level: "danger", title: `Not representable in ${name}`, text: err instanceof Error ? err.message : String(err) };
   }
   if (!q.stable) {
     return {
       kind: "quantization",
+      level: "danger",
       title: `Unstable in ${name}`,
       text: `Rounded to the device's ${name} format, a pole moves to radius ${withUnit(q.maxPoleRadius, "", 5)}: the filter that runs on the device is unstable.`,
     };
@@ -99,6 +119,7 @@ function quantizationCaution(design: FilterDesign, format: QuantFormat): Caution
   if (q.maxDeviationDb <= CAUTION_LIMITS.quantizationDb) return null;
   return {
     kind: "quantization",
+    level: "warning",
     title: `Response moves in ${name}`,
     text: `Rounded to the device's ${name} format, the magnitude response moves by up to ${withUnit(q.maxDeviationDb, "dB")} (more than ${CAUTION_LIMITS.quantizationDb} dB): the device would not run the filter shown here.`,
   };
@@ -110,6 +131,7 @@ function nyquistCaution(spec: FilterSpec): Caution | null {
   if (high.length === 0) return null;
   return {
     kind: "nyquist",
+    level: "warning",
     title: "Close to Nyquist",
     text: `${high.map((f) => hz(f)).join(" and ")} lies above ${CAUTION_LIMITS.nyquistFraction}·fs = ${hz(limit)}. The bilinear warping is strong there, the response differs from the analog intent, and aliased content cannot be removed by any digital filter.`,
   };
@@ -122,17 +144,24 @@ function notchCaution(spec: FilterSpec): Caution | null {
   const removed = list.length === 1 ? list[0] : `${list.slice(0, -1).join(", ")} and ${list[list.length - 1]}`;
   return {
     kind: "notch",
+    level: "warning",
     title: bands.length === 1 ? "A notch may hide a fault" : "Notches may hide a fault",
     text: `This filter removes ${removed}. A running-speed harmonic, a bearing or gear-mesh tone or a structural resonance in ${bands.length === 1 ? "that band" : "those bands"} would vanish from the filtered signal. Keep protection and alarm paths on the raw signal.`,
   };
 }
 
-/** Every caution that applies to a candidate, most severe kinds first. */
+/**
+ * Every caution that applies to a candidate, most severe kinds first. A filter with a pole on or outside
+ * the unit circle has no steady delay or quantized response to judge, so it gets only the pole caution
+ * and the ones read from its spec.
+ */
 export function cautionsFor(input: CautionInput): Caution[] {
+  const { maxPoleRadius } = stability(input.design);
+  const settles = !onOrOutsideUnitCircle(maxPoleRadius);
   const found = [
-    poleCaution(input.design),
-    quantizationCaution(input.design, input.deviceFormat),
-    loopCaution(input.design, input.crossoverHz),
+    poleCaution(maxPoleRadius),
+    settles ? quantizationCaution(input.design, input.deviceFormat) : null,
+    settles ? loopCaution(input.design, input.crossoverHz) : null,
     nyquistCaution(input.spec),
     notchCaution(input.spec),
   ];

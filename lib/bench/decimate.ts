@@ -7,7 +7,8 @@ export type PlotColumns = [number[], ...(number | null)[][]];
  * Min/max decimation of rows [from, to) of a view into at most `buckets` buckets: each bucket gives two
  * rows, at its first and middle sample times, holding each series' minimum and maximum in the order
  * they occurred, so every extreme survives (common practice for plotting long series; the perf notes
- * use about 2 points per pixel). NaN becomes null. Ranges no longer than 2·buckets are copied as they are.
+ * use about 2 points per pixel). A value that is not finite (NaN, or ±∞ from a diverging filter) becomes
+ * null in its own series only, so it cannot stretch the shared axis and blank the other traces. Ranges no longer than 2·buckets are copied as they are.
  */
 export function decimateMinMax(view: ColumnView, from: number, to: number, buckets: number): PlotColumns {
   if (!Number.isInteger(buckets) || buckets < 1) throw new Error(`buckets must be an integer ≥ 1 (got ${buckets})`);
@@ -16,7 +17,7 @@ export function decimateMinMax(view: ColumnView, from: number, to: number, bucke
   const n = Math.max(0, hi - lo);
   const xs: number[] = [];
   const ys: (number | null)[][] = Array.from({ length: view.series }, () => []);
-  const orNull = (v: number) => (Number.isNaN(v) ? null : v);
+  const orNull = (v: number) => (Number.isFinite(v) ? v : null);
   if (n <= 2 * buckets) {
     for (let i = lo; i < hi; i++) {
       xs.push(view.x(i));
@@ -35,7 +36,7 @@ export function decimateMinMax(view: ColumnView, from: number, to: number, bucke
       let iMax = -1;
       for (let i = start; i < end; i++) {
         const v = view.y(s, i);
-        if (Number.isNaN(v)) continue;
+        if (!Number.isFinite(v)) continue;
         if (iMin < 0 || v < view.y(s, iMin)) iMin = i;
         if (iMax < 0 || v > view.y(s, iMax)) iMax = i;
       }

@@ -36,6 +36,9 @@ test("engineer submits, lead approves and promotes, the device acknowledges", as
   await sets.promote(1, [CHANNEL]);
   await expect(sets.deployment(CHANNEL)).toHaveAttribute("data-state", "active", { timeout: 20_000 });
   await expect(sets.deployment(CHANNEL)).toContainText("Active");
+  // Once the device has answered, nothing still says it is waiting.
+  await expect(page.getByText(/waiting for the device/i)).toHaveCount(0);
+  await expect(page.getByTestId("promote-form").getByRole("status")).toHaveText("The device has answered: the deployments on this page show what runs now.");
 
   const production = await page.request.get(`/api/v1/channels/${CHANNEL}/production`);
   expect(production.status()).toBe(200);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { CAUTION_LIMITS, cautionsFor, phaseLagDeg, REVIEW_LINE } from "@/lib/bench/cautions";
+import { CAUTION_LIMITS, cautionsFor, onOrOutsideUnitCircle, phaseLagDeg, REVIEW_LINE } from "@/lib/bench/cautions";
 import { designFilter, type FilterSpec } from "@/lib/dsp";
 
 const fs = 1000;
@@ -22,6 +22,27 @@ describe("cautions", () => {
     expect(found.map((c) => c.kind)).toEqual(["poles", "notch"]);
     expect(found[0].text).toContain("0.9949");
     expect(found[1].text).toContain("49.17 Hz–50.83 Hz");
+  });
+
+  it("flag an integrator (b = 1, a = 1, −1; its pole sits at z = 1) as marginal, in red, and nothing that needs it to settle", () => {
+    // The pole of 1/(1 − z⁻¹) is z = 1 (Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed., §3.3: from memory).
+    const spec: FilterSpec = { kind: "coefficients", b: [1], a: [1, -1], sampleRateHz: fs };
+    const found = cautionsFor({ spec, design: designFilter(spec), deviceFormat: "q15", crossoverHz: 5 });
+    expect(found.map((c) => [c.kind, c.level, c.title])).toEqual([["poles", "danger", "Marginally stable filter"]]);
+  });
+
+  it("flag a pole outside the unit circle as unstable, in red, and a pole a rounding error short of it as marginal", () => {
+    const outside: FilterSpec = { kind: "coefficients", b: [1], a: [1, -1.01], sampleRateHz: fs };
+    expect(cautionsFor({ spec: outside, design: designFilter(outside), deviceFormat: "f32" }).map((c) => [c.level, c.title])).toEqual([["danger", "Unstable filter"]]);
+    expect(onOrOutsideUnitCircle(1 - 1e-12)).toBe(true);
+    expect(onOrOutsideUnitCircle(0.9999)).toBe(false);
+  });
+
+  it("give levels: a pole near the circle and a notch amber, the loop delay without a crossover a quiet note", () => {
+    const notch: FilterSpec = { kind: "biquad", shape: "notch", centerHz: 50, q: 30, sampleRateHz: fs };
+    expect(cautionsFor({ spec: notch, design: designFilter(notch), deviceFormat: "f32" }).map((c) => c.level)).toEqual(["warning", "warning"]);
+    const slow: FilterSpec = { kind: "moving-average", length: 200, sampleRateHz: fs };
+    expect(cautionsFor({ spec: slow, design: designFilter(slow), deviceFormat: "f32" }).map((c) => [c.kind, c.level])).toEqual([["loop", "note"]]);
   });
 
   it("flag a quantization to the device format that moves the response by more than 1 dB", () => {

@@ -46,6 +46,19 @@ describe("min/max decimation", () => {
     expect(b).toEqual([null, null, 1, -1]);
   });
 
+  it("drops the ±∞ of a diverging trace in that trace only, copied or decimated, so the axis stays finite", () => {
+    const ys = [
+      [1, 2, 3, 4, 5, 6, 7, 8],
+      [1, 10, Infinity, -Infinity, Infinity, 1e300, NaN, 2],
+    ];
+    const [, a, b] = decimateMinMax(view(ys), 0, 8, 2);
+    expect(a).toEqual([1, 4, 5, 8]);
+    expect(b).toEqual([1, 10, 1e300, 2]);
+    const [, rawCopy, divergingCopy] = decimateMinMax(view(ys), 0, 8, 4);
+    expect(rawCopy).toEqual(ys[0]);
+    expect(divergingCopy).toEqual([1, 10, null, null, null, 1e300, null, 2]);
+  });
+
   it("refuses a bucket count below 1", () => {
     expect(() => decimateMinMax(view([[1, 2]]), 0, 2, 0)).toThrow(/buckets must be an integer ≥ 1/);
   });
