@@ -4,7 +4,7 @@ import { listReviews, type RevisionView } from "@/db/queries/revisions";
 import { userForToken } from "@/db/queries/tokens";
 import { requireRole, type SessionUser } from "@/lib/auth/guard";
 import { AppError } from "@/lib/errors";
-import { ExportRefusal, prepareExport, renderExport, type ExportSource, type ExportTarget } from "@/lib/export";
+import { defaultTarget, ExportRefusal, prepareExport, renderExport, type ExportSource, type ExportTarget } from "@/lib/export";
 import type { ExportQuery } from "./schema";
 
 /**
@@ -38,9 +38,9 @@ export async function revisionSource(rev: RevisionView, channel = rev.channel): 
 }
 
 /** Renders the export as a download; a refusal (unstable, cannot quantize) is a 422 with the reason. */
-export async function exportResponse(source: ExportSource, query: ExportQuery, defaultTarget: ExportTarget): Promise<Response> {
+export async function exportResponse(source: ExportSource, query: ExportQuery, deviceFormat: ExportTarget): Promise<Response> {
   try {
-    const prepared = await prepareExport(source, query.target ?? defaultTarget, query.prefix);
+    const prepared = await prepareExport(source, query.target ?? defaultTarget(query.format, deviceFormat), query.prefix);
     const file = renderExport(prepared, query.format);
     return new Response(file.body, {
       headers: {
