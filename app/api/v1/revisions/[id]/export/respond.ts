@@ -1,24 +1,8 @@
-import { currentUser } from "@/app/_lib/auth";
 import { db } from "@/db";
 import { listReviews, type RevisionView } from "@/db/queries/revisions";
-import { userForToken } from "@/db/queries/tokens";
-import { requireRole, type SessionUser } from "@/lib/auth/guard";
 import { AppError } from "@/lib/errors";
 import { defaultTarget, ExportRefusal, prepareExport, renderExport, type ExportSource, type ExportTarget } from "@/lib/export";
 import type { ExportQuery } from "./schema";
-
-/**
- * Who is asking: a `Bearer tw_…` token with the export:read scope when an Authorization header is
- * sent (never falling back to the cookie then), otherwise the session cookie. 401 either way when invalid.
- */
-export async function exportCaller(req: Request): Promise<SessionUser> {
-  const header = req.headers.get("authorization");
-  if (header === null) return requireRole(await currentUser(), "operator");
-  const match = /^Bearer +(\S+)$/i.exec(header.trim());
-  const user = match ? await userForToken(db(), match[1], "export:read") : null;
-  if (!user) throw new AppError("unauthorized", "The API token is missing, unknown or revoked, or its owner is disabled.");
-  return user;
-}
 
 /** An export source for a stored revision, with its latest approval. */
 export async function revisionSource(rev: RevisionView, channel = rev.channel): Promise<ExportSource> {

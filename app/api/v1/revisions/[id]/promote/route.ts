@@ -1,15 +1,18 @@
-import { requireUser } from "@/app/_lib/auth";
+import { requireCaller } from "@/app/_lib/api-caller";
 import { db } from "@/db";
 import { requestPromotion } from "@/db/queries/deployments";
 import { handler, parseBody, parseWith } from "@/lib/http/handler";
 import { idParam } from "../../../sets/schema";
 import { promoteSchema } from "../../schema";
 
-/** Records pending deployments; the sidecar's worker sends them and the device's ack makes them active (202). */
+/**
+ * Records pending deployments; the sidecar's worker sends them and the device's ack makes them active
+ * (202). A lead's session, or a promote token of a lead (audited with the token's name).
+ */
 export const POST = handler(async (req, ctx: { params: Promise<{ id: string }> }) => {
   const id = parseWith(idParam, (await ctx.params).id);
   const body = await parseBody(req, promoteSchema);
-  const user = await requireUser("lead");
-  const result = await db().transaction().execute((trx) => requestPromotion(trx, user, id, body.channels));
+  const caller = await requireCaller(req, "lead", "promote");
+  const result = await db().transaction().execute((trx) => requestPromotion(trx, caller.user, id, body.channels, caller.token?.name));
   return Response.json(result, { status: 202 });
 });
