@@ -32,3 +32,5 @@ export const listSetsSchema = z.object({
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
 });
+
+export const retireSchema = z.object({ expectedVersion: z.number().int().min(1) });
