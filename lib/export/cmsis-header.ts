@@ -66,36 +66,71 @@ function conventionLines(p: PreparedExport, structure: CmsisStructure, names: Cm
   return lines;
 }
 
-/** Set-up and per-block lines of the usage comment; they compile as written inside a function. */
-function usageLines(n: string, instances: CmsisInstance[], names: CmsisNames): string[] {
-  const N = n.toUpperCase();
-  const kernel = (i: CmsisInstance) => (i.kind === "fir" ? names.fir : names.biquad);
-  const declare = instances.map((i) => `  static ${kernel(i).instance} ${ids(n, i).low};`);
+/** The library calls of one header: each instance's init, and the per-block runs from in[] to out[] through tmp[]. */
+function calls(p: PreparedExport, instances: CmsisInstance[], names: CmsisNames, fast: boolean): { init: string[]; run: string[] } {
+  const n = p.name;
+  const B = `${p.stem.toUpperCase()}_BLOCK_SIZE`;
   const init = instances.map((i) => {
     const { low, up } = ids(n, i);
-    if (i.kind === "fir") return `  ${names.fir.init}(&${low}, ${up}_NUM_TAPS, ${low}_coeffs, ${low}_state, ${N}_BLOCK_SIZE);`;
+    if (i.kind === "fir") return `${names.fir.init}(&${low}, ${up}_NUM_TAPS, ${low}_coeffs, ${low}_state, ${B});`;
     const shift = names.type === "float32_t" ? "" : `, ${up}_POST_SHIFT`;
-    return `  ${names.biquad.init}(&${low}, ${up}_NUM_STAGES, ${low}_coeffs, ${low}_state${shift});`;
+    return `${names.biquad.init}(&${low}, ${up}_NUM_STAGES, ${low}_coeffs, ${low}_state${shift});`;
   });
   const last = instances.length - 1;
-  const dst = (k: number) => ((last - k) % 2 === 0 ? "out" : "tmp");
-  const run = instances.map((i, k) => `  ${kernel(i).run}(&${ids(n, i).low}, ${k === 0 ? "in" : dst(k - 1)}, ${dst(k)}, ${N}_BLOCK_SIZE);`);
+  const dst = (k: number) => ((last - k) % 2 === 0 ? "out" : `${n}_tmp`);
+  const kernel = (i: CmsisInstance) => (i.kind === "fir" ? names.fir : names.biquad);
+  const run = instances.map((i, k) => `${(fast && kernel(i).fast) || kernel(i).run}(&${ids(n, i).low}, ${k === 0 ? "in" : dst(k - 1)}, ${dst(k)}, ${B});`);
+  return { init, run };
+}
+
+/** The usage comment: the stable wrappers, and the library calls they make. */
+function usageLines(p: PreparedExport, instances: CmsisInstance[], names: CmsisNames): string[] {
+  const { init, run } = calls(p, instances, names, false);
+  const B = `${p.stem.toUpperCase()}_BLOCK_SIZE`;
   const fast = [names.biquad.fast, names.fir.fast].filter((f) => f !== null);
   return [
-    "Use (C99 with the library's arm_math.h). Set-up, once:",
-    ...declare,
-    ...init,
-    `Each block of ${N}_BLOCK_SIZE samples, in[] to out[]${last > 0 ? " through tmp[]" : ""} (${names.type} arrays of ${N}_BLOCK_SIZE):`,
-    ...run,
-    ...(fast.length ? [`The fast kernels (${fast.join(", ")}) take the same instances.`] : []),
-    `Define ${N}_BLOCK_SIZE before including this header to change it (default ${DEFAULT_BLOCK_SIZE}; FIR state depends on it).`,
-    "Include this header in the one C file that runs the filter: it defines the arrays.",
+    `Use (C99 with the library's arm_math.h), names stable from revision to revision:`,
+    `  ${p.stem}_init();            once: initialises every instance (zeroes the state)`,
+    `  ${p.stem}_run(in, out);      each block of ${B} samples (${names.type} arrays)`,
+    ...(fast.length ? [`  ${p.stem}_run_fast(in, out); the same with the fast kernels (${fast.join(", ")})`] : []),
+    `Define ${B} before including this header to change it (default ${DEFAULT_BLOCK_SIZE}; FIR state depends on it).`,
+    "Include this header in the one C file that runs the filter: it defines the arrays and instances.",
+    `${p.stem}_init() makes these init calls:`,
+    ...init.map((l) => `  ${l}`),
+    `${p.stem}_run(in, out) makes these calls${instances.length > 1 ? ` (${p.name}_tmp holds a block between instances)` : ""}:`,
+    ...run.map((l) => `  ${l}`),
   ];
 }
 
-function arrays(n: string, i: CmsisInstance, names: CmsisNames): string[] {
-  const { low, up } = ids(n, i);
-  const N = n.toUpperCase();
+/** Static instances and the stable wrappers that initialise and run them. */
+function wrappers(p: PreparedExport, instances: CmsisInstance[], names: CmsisNames): string[] {
+  const kernel = (i: CmsisInstance) => (i.kind === "fir" ? names.fir : names.biquad);
+  const B = `${p.stem.toUpperCase()}_BLOCK_SIZE`;
+  const body = (lines: string[]) => lines.map((l) => `    ${l}`);
+  const run = (suffix: string, fast: boolean) => [
+    "",
+    `static inline void ${p.stem}_run${suffix}(const ${names.type} *in, ${names.type} *out)`,
+    "{",
+    ...body(calls(p, instances, names, fast).run),
+    "}",
+  ];
+  const { init } = calls(p, instances, names, false);
+  return [
+    ...instances.map((i) => `static ${kernel(i).instance} ${ids(p.name, i).low};`),
+    ...(instances.length > 1 ? [`static ${names.type} ${p.name}_tmp[${B}];`] : []),
+    "",
+    `static inline void ${p.stem}_init(void)`,
+    "{",
+    ...body(init),
+    "}",
+    ...run("", false),
+    ...(names.biquad.fast ? run("_fast", true) : []),
+  ];
+}
+
+function arrays(p: PreparedExport, i: CmsisInstance, names: CmsisNames): string[] {
+  const { low, up } = ids(p.name, i);
+  const B = `${p.stem.toUpperCase()}_BLOCK_SIZE`;
   if (i.kind === "fir") {
     const rows = Array.from({ length: Math.ceil(i.coeffs.length / 8) }, (_, r) => `    ${i.coeffs.slice(8 * r, 8 * r + 8).join(", ")},`);
     return [
@@ -104,7 +139,7 @@ function arrays(n: string, i: CmsisInstance, names: CmsisNames): string[] {
       `static const ${names.type} ${low}_coeffs[${up}_NUM_TAPS] = {`,
       ...rows,
       "};",
-      `static ${names.type} ${low}_state[${up}_NUM_TAPS + ${N}_BLOCK_SIZE - 1];`,
+      `static ${names.type} ${low}_state[${up}_NUM_TAPS + ${B} - 1];`,
     ];
   }
   const b = names.biquad;
@@ -123,7 +158,8 @@ function arrays(n: string, i: CmsisInstance, names: CmsisNames): string[] {
 /**
  * A C header in the layouts of the CMSIS-DSP library's kernels (cmsis-layout.ts): provenance, the
  * documented conventions with their sources, a usage comment with the init calls, then per instance its
- * size constants, coefficient array and state array, in the order the instances run.
+ * size constants, coefficient array and state array, in the order the instances run, and the library
+ * instances with wrappers of stable names (<stem>_init, <stem>_run, <stem>_run_fast) that make those calls.
  */
 export function renderCmsisHeader(p: PreparedExport, structure: CmsisStructure): string {
   const instances = cmsisInstances(p, structure);
@@ -141,7 +177,7 @@ export function renderCmsisHeader(p: PreparedExport, structure: CmsisStructure):
     "",
     ...conventionLines(p, structure, names),
     "",
-    ...usageLines(n, instances, names),
+    ...usageLines(p, instances, names),
     "",
     "Design inputs (spec):",
     ...specLines(p).map((l) => `  ${l}`),
@@ -155,13 +191,15 @@ export function renderCmsisHeader(p: PreparedExport, structure: CmsisStructure):
     "",
     '#include "arm_math.h"',
     "",
-    `#ifndef ${N}_BLOCK_SIZE`,
-    `#define ${N}_BLOCK_SIZE ${DEFAULT_BLOCK_SIZE}`,
+    `#ifndef ${p.stem.toUpperCase()}_BLOCK_SIZE`,
+    `#define ${p.stem.toUpperCase()}_BLOCK_SIZE ${DEFAULT_BLOCK_SIZE}`,
     "#endif",
     `#define ${N}_INSTANCES ${instances.length}`,
     `#define ${N}_SAMPLE_RATE_HZ ${rateLiteral(p.quantized.sampleRateHz)}`,
     "",
-    ...instances.flatMap((i, k) => [...(k ? [""] : []), ...arrays(n, i, names)]),
+    ...instances.flatMap((i, k) => [...(k ? [""] : []), ...arrays(p, i, names)]),
+    "",
+    ...wrappers(p, instances, names),
     "",
     `#endif /* ${guard} */`,
     "",

@@ -60,6 +60,8 @@ export interface PreparedExport {
   contentHash: string;
   /** C identifier stem, lowercase, unique per set name, revision and target (e.g. hum_notch_r3_q15). */
   name: string;
+  /** The same stem without revision and target (e.g. hum_notch): the stable names of the CMSIS headers' wrappers. */
+  stem: string;
   /** Per stage of the content, its index in the spec's stages (0 for a single spec; bypassed stages are not run). */
   specStages: number[];
 }

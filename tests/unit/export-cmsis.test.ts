@@ -24,9 +24,11 @@ describe("cmsis-df1 / cmsis-df2t layouts (CMSIS-DSP documentation, from memory)"
     expect(body).toContain(`#define TORQUE_LP_R3_Q15_I0_NUM_STAGES ${rows.length}\n#define TORQUE_LP_R3_Q15_I0_POST_SHIFT ${shifts[0]}\n`);
     expect(arrayWords(body, "torque_lp_r3_q15_i0_coeffs")).toEqual(rows.flatMap(([b0, b1, b2, a1, a2]) => [b0, 0, b1, b2, -a1, -a2]));
     expect(body).toContain("static q15_t torque_lp_r3_q15_i0_state[4 * TORQUE_LP_R3_Q15_I0_NUM_STAGES];");
-    expect(body).toContain(
-      " *   arm_biquad_cascade_df1_init_q15(&torque_lp_r3_q15_i0, TORQUE_LP_R3_Q15_I0_NUM_STAGES, torque_lp_r3_q15_i0_coeffs, torque_lp_r3_q15_i0_state, TORQUE_LP_R3_Q15_I0_POST_SHIFT);",
-    );
+    const init = "arm_biquad_cascade_df1_init_q15(&torque_lp_r3_q15_i0, TORQUE_LP_R3_Q15_I0_NUM_STAGES, torque_lp_r3_q15_i0_coeffs, torque_lp_r3_q15_i0_state, TORQUE_LP_R3_Q15_I0_POST_SHIFT);";
+    expect(body).toContain(` *   ${init}`); // in the comment …
+    expect(body).toContain(`static inline void torque_lp_init(void)\n{\n    ${init}\n}`); // … and in the stable wrapper
+    expect(body).toContain("static arm_biquad_casd_df1_inst_q15 torque_lp_r3_q15_i0;");
+    expect(body).toContain("static inline void torque_lp_run_fast(const q15_t *in, q15_t *out)\n{\n    arm_biquad_cascade_df1_fast_q15(&torque_lp_r3_q15_i0, in, out, TORQUE_LP_BLOCK_SIZE);");
     expect(body).toContain('"Biquad Cascade IIR Filters Using Direct Form I Structure"');
   });
 
@@ -41,6 +43,7 @@ describe("cmsis-df1 / cmsis-df2t layouts (CMSIS-DSP documentation, from memory)"
     expect(body).toContain("static float32_t torque_lp_r3_f32_i0_state[2 * TORQUE_LP_R3_F32_I0_NUM_STAGES];");
     expect(body).not.toContain("POST_SHIFT");
     expect(body).toContain("arm_biquad_cascade_df2T_init_f32(&torque_lp_r3_f32_i0,");
+    expect(body).not.toContain("_run_fast"); // the library has no fast float kernels
   });
 
   it("FIR stages: taps time-reversed, Q15 padded to an even count of at least 4, state numTaps + blockSize − 1", async () => {
@@ -50,12 +53,12 @@ describe("cmsis-df1 / cmsis-df2t layouts (CMSIS-DSP documentation, from memory)"
     expect(taps).toHaveLength(5);
     expect(arrayWords(body, "chain_r3_q15_i0_coeffs")).toEqual([0, ...[...taps].reverse()]);
     expect(body).toContain("#define CHAIN_R3_Q15_I0_NUM_TAPS 6\n");
-    expect(body).toContain("static q15_t chain_r3_q15_i0_state[CHAIN_R3_Q15_I0_NUM_TAPS + CHAIN_R3_Q15_BLOCK_SIZE - 1];");
-    expect(body).toContain("#ifndef CHAIN_R3_Q15_BLOCK_SIZE\n#define CHAIN_R3_Q15_BLOCK_SIZE 32\n#endif");
+    expect(body).toContain("static q15_t chain_r3_q15_i0_state[CHAIN_R3_Q15_I0_NUM_TAPS + CHAIN_BLOCK_SIZE - 1];");
+    expect(body).toContain("#ifndef CHAIN_BLOCK_SIZE\n#define CHAIN_BLOCK_SIZE 32\n#endif");
     const q31 = await prepareExport(sourceFor(chainAsymmetric, "q31", "Chain"), "q31");
     expect(cmsisInstances(q31, "df1")[0]).toMatchObject({ kind: "fir", numTaps: 5, padded: 0 });
-    // The block runs in[] → instance 0 → tmp[] → instance 1 → out[].
-    expect(body).toContain(" *   arm_fir_q15(&chain_r3_q15_i0, in, tmp, CHAIN_R3_Q15_BLOCK_SIZE);\n *   arm_biquad_cascade_df1_q15(&chain_r3_q15_i1, tmp, out, CHAIN_R3_Q15_BLOCK_SIZE);");
+    // The block runs in[] → instance 0 → tmp → instance 1 → out[].
+    expect(body).toContain("    arm_fir_q15(&chain_r3_q15_i0, in, chain_r3_q15_tmp, CHAIN_BLOCK_SIZE);\n    arm_biquad_cascade_df1_q15(&chain_r3_q15_i1, chain_r3_q15_tmp, out, CHAIN_BLOCK_SIZE);");
   });
 
   it("refuses what the library cannot hold, with the reason", async () => {

@@ -61,26 +61,12 @@ export function compileAndRun(dir: string, name: string, header: string, inputs:
 /** The stand-in arm_math.h and the documented kernel arithmetic (tests/unit/cmsis-harness). */
 const HARNESS = join(import.meta.dirname, "cmsis-harness");
 
-/** The code lines of a CMSIS export's usage comment after `heading` (lines of ` *   …;`), uncommented. */
-function usage(header: string, heading: string): string[] {
-  const lines = header.split("\n");
-  const start = lines.findIndex((l) => l.includes(heading));
-  if (start < 0) throw new Error(`the header's usage comment has no "${heading}"`);
-  const out: string[] = [];
-  for (const line of lines.slice(start + 1)) {
-    const m = /^ \* {3}(.*;)$/.exec(line);
-    if (!m) break;
-    out.push(`    ${m[1]}`);
-  }
-  return out;
-}
-
 /**
- * Compiles a cmsis-df1/df2t header exactly as its usage comment says (the set-up and per-block lines
- * pasted from the comment into main) against the stand-in library, with gcc -std=c99 -pedantic -Wall
- * -Wextra -Werror and the address and undefined-behaviour sanitizers (so a state or coefficient array
- * too small for what the init functions touch fails the run). Feeds `inputs` block by block (their
- * count a multiple of the block size) and returns every output. `fast` swaps in the fast kernels.
+ * Compiles a cmsis-df1/df2t header as firmware would use it (its `<stem>_init()` once, then
+ * `<stem>_run(in, out)` or `<stem>_run_fast(in, out)` per block) against the stand-in library, with gcc
+ * -std=c99 -pedantic -Wall -Wextra -Werror and the address and undefined-behaviour sanitizers (so a
+ * state or coefficient array too small for what the init functions touch fails the run). Feeds
+ * `inputs` block by block (their count a multiple of the block size) and returns every output.
  */
 export function compileAndRunCmsis(
   dir: string,
@@ -88,27 +74,27 @@ export function compileAndRunCmsis(
   header: string,
   opts: { inputs: string[]; cType: string; printf: string; cast: string; fast?: boolean; blockSize?: number },
 ): string[] {
-  const name = /#define (\w+)_INSTANCES /.exec(header)?.[1];
-  if (!name) throw new Error("not a CMSIS export header");
+  const STEM = /#ifndef (\w+)_BLOCK_SIZE/.exec(header)?.[1];
+  if (!STEM) throw new Error("not a CMSIS export header");
+  const stem = STEM.toLowerCase();
   const block = opts.blockSize ?? Number(/#define \w+_BLOCK_SIZE (\d+)/.exec(header)?.[1]);
   if (opts.inputs.length % block !== 0) throw new Error(`${opts.inputs.length} inputs are not whole blocks of ${block}`);
-  const run = usage(header, "Each block of").map((l) => (opts.fast ? l.replace(/\b(arm_biquad_cascade_df1|arm_fir)_(q15|q31)\(/, "$1_fast_$2(") : l));
   const base = join(dir, `${file}${opts.fast ? "_fast" : ""}`);
   writeFileSync(join(dir, `${file}.h`), header);
   writeFileSync(
     `${base}_driver.c`,
     [
       "#include <stdio.h>",
-      ...(opts.blockSize ? [`#define ${name}_BLOCK_SIZE ${opts.blockSize}`] : []),
+      ...(opts.blockSize ? [`#define ${STEM}_BLOCK_SIZE ${opts.blockSize}`] : []),
       `#include "${file}.h"`,
       `static const ${opts.cType} input[] = { ${opts.inputs.join(", ")} };`,
       "int main(void) {",
-      ...usage(header, "Set-up, once:"),
-      `    ${opts.cType} in[${name}_BLOCK_SIZE], out[${name}_BLOCK_SIZE]${run.some((l) => l.includes("tmp")) ? `, tmp[${name}_BLOCK_SIZE]` : ""};`,
-      `    for (unsigned start = 0; start < sizeof input / sizeof input[0]; start += ${name}_BLOCK_SIZE) {`,
-      `        for (unsigned i = 0; i < ${name}_BLOCK_SIZE; i++) in[i] = input[start + i];`,
-      ...run.map((l) => `    ${l}`),
-      `        for (unsigned i = 0; i < ${name}_BLOCK_SIZE; i++) printf("${opts.printf}\\n", (${opts.cast})out[i]);`,
+      `    ${opts.cType} in[${STEM}_BLOCK_SIZE], out[${STEM}_BLOCK_SIZE];`,
+      `    ${stem}_init();`,
+      `    for (unsigned start = 0; start < sizeof input / sizeof input[0]; start += ${STEM}_BLOCK_SIZE) {`,
+      `        for (unsigned i = 0; i < ${STEM}_BLOCK_SIZE; i++) in[i] = input[start + i];`,
+      `        ${stem}_run${opts.fast ? "_fast" : ""}(in, out);`,
+      `        for (unsigned i = 0; i < ${STEM}_BLOCK_SIZE; i++) printf("${opts.printf}\\n", (${opts.cast})out[i]);`,
       "    }",
       "    return 0;",
       "}",
