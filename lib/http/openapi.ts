@@ -40,14 +40,42 @@ export interface ApiDocumentInput {
 
 type JsonSchema = Record<string, unknown>;
 
+/** One parameter of an operation, as the document holds it. */
+export interface ApiParameter {
+  name: string;
+  in: "path" | "query";
+  required: boolean;
+  schema: JsonSchema;
+}
+
+/** One operation of the document (the parts the API page reads). */
+export interface ApiOperationObject {
+  operationId: string;
+  summary: string;
+  description?: string;
+  tags: string[];
+  security: JsonSchema[];
+  parameters?: ApiParameter[];
+  requestBody?: { required: true; content: { "application/json": { schema: JsonSchema } } };
+  responses: Record<string, { description: string; content?: Record<string, { schema: JsonSchema }> }>;
+}
+
+/** The generated OpenAPI 3.1 document. */
+export interface ApiDocument {
+  openapi: "3.1.0";
+  info: { title: string; version: string; description: string };
+  paths: Record<string, Partial<Record<ApiOperation["method"], ApiOperationObject>>>;
+  components: { schemas: Record<string, JsonSchema>; securitySchemes: Record<string, JsonSchema> };
+}
+
 /** A standalone JSON Schema 2020-12 of a zod schema as the client sends it (defaults optional), without `$schema`. */
 function inlineSchema(schema: z.ZodType): JsonSchema {
   const { $schema: _s, ...rest } = z.toJSONSchema(schema, { io: "input", unrepresentable: "any" }) as JsonSchema;
   return rest;
 }
 
-function parameters(op: ApiOperation): JsonSchema[] {
-  const out: JsonSchema[] = Object.entries(op.path_params ?? {}).map(([name, schema]) => ({ name, in: "path", required: true, schema: inlineSchema(schema) }));
+function parameters(op: ApiOperation): ApiParameter[] {
+  const out: ApiParameter[] = Object.entries(op.path_params ?? {}).map(([name, schema]) => ({ name, in: "path", required: true, schema: inlineSchema(schema) }));
   if (op.query) {
     const query = inlineSchema(op.query) as { properties?: Record<string, JsonSchema>; required?: string[] };
     for (const [name, schema] of Object.entries(query.properties ?? {})) {
@@ -85,7 +113,7 @@ class Components {
 
 const pascal = (id: string) => id.charAt(0).toUpperCase() + id.slice(1);
 
-function responses(op: ApiOperation, components: Components): JsonSchema {
+function responses(op: ApiOperation, components: Components): ApiOperationObject["responses"] {
   return Object.fromEntries(
     Object.entries(op.responses).map(([status, r]) => {
       if ("json" in r) {
@@ -109,10 +137,10 @@ const SECURITY: Record<ApiAuth, JsonSchema[]> = {
  * schema once under components.schemas and referenced by `$ref` wherever it occurs, request bodies and
  * query parameters as the handler parses them (input side: a field with a default is optional).
  */
-export function openApiDocument(input: ApiDocumentInput): JsonSchema {
+export function openApiDocument(input: ApiDocumentInput): ApiDocument {
   const components = new Components();
   for (const [id, schema] of Object.entries(input.named)) components.ref(schema, id);
-  const paths: Record<string, Record<string, JsonSchema>> = {};
+  const paths: ApiDocument["paths"] = {};
   for (const op of input.operations) {
     const params = parameters(op);
     paths[op.path] ??= {};

@@ -12,7 +12,6 @@ vi.mock("@/lib/auth/session", () => ({
 }));
 
 const { apiDocument } = await import("@/app/api/v1/openapi.json/document");
-type Doc = { paths: Record<string, Record<string, { responses: Record<string, { content?: Record<string, unknown> }> }>> };
 
 /** A route module: its handlers by HTTP method (and, for some, `dynamic`). */
 type RouteModule = { GET?: (req: Request, ctx: never) => Promise<Response>; POST?: (req: Request, ctx: never) => Promise<Response> };
@@ -147,7 +146,7 @@ function calls(): Record<string, { user: SessionUser | null; req: Request; ctx?:
 
 describe("every documented route answers as documented", () => {
   it("one call each: a documented status, and a body of the documented media type and schema", async () => {
-    const doc = apiDocument() as Doc;
+    const doc = apiDocument();
     const ajv = new Ajv2020({ strict: false, validateFormats: false });
     ajv.addSchema(doc, "openapi.json");
     const pointer = (...parts: string[]) => parts.map((p) => p.replace(/~/g, "~0").replace(/\//g, "~1")).join("/");
@@ -157,10 +156,10 @@ describe("every documented route answers as documented", () => {
     for (const [key, c] of Object.entries(table)) {
       const [method, path] = key.split(" ");
       const res = await call(c.user, path, method, c.req, c.ctx);
-      const answer = doc.paths[path][method].responses[String(res.status)];
+      const answer = doc.paths[path][method === "get" ? "get" : "post"]?.responses[String(res.status)];
       expect({ key, status: res.status, documented: answer !== undefined }).toEqual({ key, status: c.status, documented: true });
       const type = (res.headers.get("content-type") ?? "").split(";")[0];
-      const content = answer.content ?? {};
+      const content = answer?.content ?? {};
       expect({ key, type, documentedTypes: Object.keys(content) }).toMatchObject({ key, documentedTypes: expect.arrayContaining([type]) });
       if (type !== "application/json") continue;
       const validate = ajv.getSchema(`openapi.json#/${pointer("paths", path, method, "responses", String(res.status), "content", "application/json", "schema")}`);

@@ -21,7 +21,7 @@ describe("the OpenAPI document", () => {
   it("is a valid OpenAPI 3.1 document (@apidevtools/swagger-parser)", async () => {
     const doc = apiDocument();
     expect(doc.openapi).toBe("3.1.0");
-    await expect(SwaggerParser.validate(structuredClone(doc) as never)).resolves.toBeTruthy();
+    await expect(SwaggerParser.validate(JSON.parse(JSON.stringify(doc)))).resolves.toBeTruthy();
   });
 
   it("documents every API route but the listed app-only ones, and nothing that does not exist", () => {
@@ -32,11 +32,11 @@ describe("the OpenAPI document", () => {
   });
 
   it("carries the handlers' own request schemas, with FilterSpec once as a component", () => {
-    const doc = apiDocument() as { components: { schemas: Record<string, Record<string, unknown>> } };
-    const body = doc.components.schemas.CreateSetBody as { properties: Record<string, unknown>; required: string[] };
-    const own = z.toJSONSchema(createSetSchema, { io: "input", unrepresentable: "any" }) as { required: string[] };
+    const doc = apiDocument();
+    const body = doc.components.schemas.CreateSetBody;
+    const own = z.toJSONSchema(createSetSchema, { io: "input", unrepresentable: "any" });
     expect(body.required).toEqual(own.required);
-    expect(body.properties.spec).toEqual({ $ref: "#/components/schemas/FilterSpec" });
+    expect(body.properties).toMatchObject({ spec: { $ref: "#/components/schemas/FilterSpec" } });
     expect(JSON.stringify(doc)).not.toContain("$defs");
   });
 });

@@ -1,11 +1,11 @@
 import { filterSpecSchema } from "@/lib/dsp";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
-import { openApiDocument } from "@/lib/http/openapi";
+import { openApiDocument, type ApiDocument } from "@/lib/http/openapi";
 import { API_OPERATIONS } from "./operations";
 import { errorBody } from "./responses";
 
 /** The OpenAPI 3.1 document of the HTTP API, generated from the handlers' zod schemas (lib/http/openapi.ts). */
-export function apiDocument(): Record<string, unknown> {
+export function apiDocument(): ApiDocument {
   return openApiDocument({
     title: "Tapwright HTTP API",
     version: "1",
