@@ -20,7 +20,7 @@ export const CAUTION_LIMITS = {
   nyquistFraction: 0.45,
 } as const;
 
-export type CautionKind = "poles" | "loop" | "quantization" | "nyquist" | "notch";
+export type CautionKind = "poles" | "loop" | "quantization" | "arithmetic" | "nyquist" | "notch";
 
 export interface Caution {
   kind: CautionKind;
