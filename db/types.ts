@@ -1,6 +1,7 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
 import type { Role } from "@/lib/auth/roles";
 import type { AlarmKind, AlarmSeverity, AlarmSignal, AlarmState, LimitSide } from "@/lib/protocol";
+import type { TokenScope } from "@/lib/auth/token-scope";
 import type { DeploymentState, RevisionState } from "@/lib/workflow/states";
 
 type CreatedAt = ColumnType<Date, Date | string | undefined, never>;
@@ -167,7 +168,7 @@ export interface MailboxTable {
   raw: string;
 }
 
-export type TokenScope = "export:read";
+export type { TokenScope };
 
 /** API tokens for build pipelines: only the SHA-256 of the token is kept. */
 export interface ApiTokensTable {
@@ -179,6 +180,11 @@ export interface ApiTokensTable {
   created_at: CreatedAt;
   last_used_at: ColumnType<Date | null, never, Date | string | null>;
   revoked_at: ColumnType<Date | null, never, Date | string | null>;
+  /** Why it was revoked: by a person, or with its owner's disabling (never undone). */
+  revoked_reason: ColumnType<"revoked" | "owner_disabled" | null, never, "revoked" | "owner_disabled" | null>;
+  /** The current one-minute rate window of its requests: when it started and how many it holds. */
+  window_start: ColumnType<Date | null, never, Date | string | null>;
+  window_count: ColumnType<number, never, number>;
 }
 
 /** Stored samples of a channel; `samples` is float64 little-endian (lib/recordings/samples.ts), NaN for missing. */

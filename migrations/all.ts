@@ -8,6 +8,7 @@ import * as m0006 from "./20261201_0006_recordings";
 import * as m0007 from "./20261203_0007_channel_capacity";
 import * as m0008 from "./20261203_0008_sessions_throttle";
 import * as m0009 from "./20261203_0009_alarms_annotations";
+import * as m0010 from "./20261203_0010_token_scopes";
 
 /** Every migration in order; a static list so tsx, vitest and bundlers load them alike. */
 export const migrations: Record<string, Migration> = {
@@ -20,6 +21,7 @@ export const migrations: Record<string, Migration> = {
   "20261203_0007_channel_capacity": m0007,
   "20261203_0008_sessions_throttle": m0008,
   "20261203_0009_alarms_annotations": m0009,
+  "20261203_0010_token_scopes": m0010,
 };
 
 export const migrationProvider: MigrationProvider = { getMigrations: async () => migrations };

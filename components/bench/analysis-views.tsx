@@ -23,6 +23,7 @@ import { levelDb, withUnit } from "@/lib/bench/format";
 import { freqGrid, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
 import { PoleZeroMap } from "./pole-zero-map";
 import { useDesignZeros, type ZerosState } from "./use-design-zeros";
+import { ArithmeticPanel } from "./arithmetic-panel";
 
 /** One filter shown in the analysis views: a candidate or the production filter. */
 export interface AnalysisItem {
@@ -366,6 +367,7 @@ export function FixedView({ items, freqs, deviceFormat }: { items: AnalysisItem[
           ))}
         </tbody>
       </table>
+      <ArithmeticPanel design={item.design} quantized={result.formats.find((f) => f.format === deviceFormat)?.quantized ?? null} format={deviceFormat} />
       {result.levels.length > 0 && <StageHeadroomTable levels={result.levels} format={deviceFormat} />}
     </div>
   );

@@ -1,9 +1,16 @@
 "use client";
 
 import { useState } from "react";
-import { EXPORT_FORMATS, EXPORT_TARGETS, FIRMWARE_FORMATS, type ExportFormat, type ExportTarget } from "@/lib/export/types";
+import { defaultTarget as targetFor, EXPORT_FORMATS, FIRMWARE_FORMATS, FORMAT_TARGETS, type ExportFormat, type ExportTarget } from "@/lib/export/types";
 
-const FORMAT_LABEL: Record<ExportFormat, string> = { "c-header": "C header", json: "JSON", scipy: "scipy sos" };
+const FORMAT_LABEL: Record<ExportFormat, string> = {
+  "c-header": "C header",
+  json: "JSON",
+  scipy: "scipy sos",
+  csv: "CSV (spreadsheet)",
+  "cmsis-df1": "CMSIS-DSP DF1 header",
+  "cmsis-df2t": "CMSIS-DSP DF2T header",
+};
 
 interface Props {
   revisionId: number;
@@ -18,7 +25,9 @@ interface Props {
 /** Format and number-format pickers with a download link to the revision's export route. */
 export function ExportControl({ revisionId, defaultTarget, refusal, designStable }: Props) {
   const [format, setFormat] = useState<ExportFormat>("c-header");
-  const [target, setTarget] = useState<ExportTarget>(defaultTarget);
+  const [chosen, setTarget] = useState<ExportTarget>(defaultTarget);
+  const targets = FORMAT_TARGETS[format];
+  const target = targets.includes(chosen) ? chosen : targetFor(format, defaultTarget);
   const refused = refusal !== undefined && FIRMWARE_FORMATS.includes(format) && (target === defaultTarget || !designStable);
   const href = `/api/v1/revisions/${revisionId}/export?format=${format}&target=${target}`;
   return (
@@ -28,7 +37,7 @@ export function ExportControl({ revisionId, defaultTarget, refusal, designStable
         {EXPORT_FORMATS.map((f) => <option key={f} value={f}>{FORMAT_LABEL[f]}</option>)}
       </select>
       <select aria-label="Number format" className="field w-auto" value={target} onChange={(e) => setTarget(e.target.value as ExportTarget)}>
-        {EXPORT_TARGETS.map((t) => <option key={t} value={t}>{t}{t === defaultTarget ? " (device)" : ""}</option>)}
+        {targets.map((t) => <option key={t} value={t}>{t}{t === defaultTarget ? " (device)" : ""}</option>)}
       </select>
       {refused ? (
         <p className="text-xs text-fault">Not exported for firmware: {refusal}</p>

@@ -1,5 +1,20 @@
+import { compareArithmetic } from "@/lib/bench/arithmetic";
 import type { RevisionContent } from "@/lib/coefficients";
+import type { FixedArithmetic } from "@/lib/dsp";
 import { formatHz, trim } from "@/lib/format/units";
+
+/** What the stored quantized form computes in an arithmetic, against the float design (the bench's fixed-point view runs the same). */
+function arithmeticFact(rev: RevisionContent, arithmetic: FixedArithmetic): [string, string] | null {
+  const q = rev.quantized;
+  if (!q || q.format === "f32") return null;
+  try {
+    const c = compareArithmetic(rev.design, q, arithmetic);
+    const worst = c.worstDbfs === null ? "no difference" : `worst ${c.worstDbfs.toFixed(1)} dBFS (${c.worstLsb.toPrecision(3)} LSB)`;
+    return [`Arithmetic: ${c.label.split(":")[0]}`, `${worst} vs the float design on half-scale steps and a chirp, ${c.overflows} saturations or wraps`];
+  } catch (err) {
+    return [`Arithmetic: ${arithmetic}`, `not runnable: ${err instanceof Error ? err.message : String(err)}`];
+  }
+}
 
 /** The stored analysis of a revision in one line of facts, each with its unit. */
 export function RevisionSummary({ rev }: { rev: RevisionContent & { format: string } }) {
@@ -15,6 +30,7 @@ export function RevisionSummary({ rev }: { rev: RevisionContent & { format: stri
         ? `${rev.quantized.stable ? "stable" : "UNSTABLE"}, pole radius ${trim(rev.quantized.maxPoleRadius, 6)}, worst deviation ${trim(rev.quantized.maxDeviationDb, 3)} dB`
         : "could not be quantized",
     ],
+    ...(["tapwright", "cmsis"] as const).map((a) => arithmeticFact(rev, a)).filter((f): f is [string, string] => f !== null),
   ];
   return (
     <dl className="grid gap-x-4 gap-y-0.5 text-xs sm:grid-cols-[auto_1fr]">

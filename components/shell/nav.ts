@@ -9,6 +9,7 @@ export const NAV: { href: string; label: string; role: Role }[] = [
   { href: "/reviews", label: "Reviews", role: "lead" },
   { href: "/audit", label: "Audit", role: "lead" },
   { href: "/tokens", label: "API tokens", role: "engineer" },
+  { href: "/api-docs", label: "API", role: "operator" },
   { href: "/admin/users", label: "Users", role: "admin" },
   { href: "/admin/mail", label: "Mailbox", role: "admin" },
 ];

@@ -232,6 +232,7 @@ export async function requestPromotion(
   actor: SessionUser,
   revisionId: number,
   channelPaths: string[],
+  viaToken?: string,
 ): Promise<PromotionResult> {
   const locked = await trx.selectFrom("revisions").select("id").where("id", "=", revisionId).forShare().executeTakeFirst();
   if (!locked) throw new AppError("not_found", "No such revision.");
@@ -258,7 +259,7 @@ export async function requestPromotion(
       entity: "deployment",
       entityId: id,
       before: active ? { activeDeployment: active.id, revisionId: active.revisionId } : null,
-      after: { revisionId: rev.id, setId: rev.setId, revision: rev.revision, channel: path, format: config.format, checksum },
+      after: { revisionId: rev.id, setId: rev.setId, revision: rev.revision, channel: path, format: config.format, checksum, ...(viaToken ? { viaToken } : {}) },
     });
     deployments.push({ id, channel: path });
   }

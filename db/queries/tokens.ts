@@ -2,6 +2,7 @@ import { createHash, randomBytes } from "node:crypto";
 import { sql, type Transaction } from "kysely";
 import type { SessionUser } from "@/lib/auth/guard";
 import { roleAtLeast } from "@/lib/auth/roles";
+import { requireScopeCreator, TOKEN_RATE } from "@/lib/auth/token-scope";
 import { AppError } from "@/lib/errors";
 import type { Db } from "../client";
 import type { Database, TokenScope } from "../types";
@@ -35,6 +36,7 @@ export interface TokenView {
   createdAt: Date;
   lastUsedAt: Date | null;
   revokedAt: Date | null;
+  revokedReason: "revoked" | "owner_disabled" | null;
 }
 
 function tokenQuery(db: Conn) {
@@ -50,6 +52,7 @@ function tokenQuery(db: Conn) {
       "t.created_at as createdAt",
       "t.last_used_at as lastUsedAt",
       "t.revoked_at as revokedAt",
+      "t.revoked_reason as revokedReason",
     ]);
 }
 
@@ -59,16 +62,24 @@ export function listTokens(db: Conn, actor: SessionUser): Promise<TokenView[]> {
   return roleAtLeast(actor.role, "lead") ? q.execute() : q.where("t.user_id", "=", actor.id).execute();
 }
 
-/** Creates a token for the actor (engineer or higher) and audits it; the token text is returned once and never stored. */
-export async function createToken(trx: Transaction<Database>, actor: SessionUser, name: string): Promise<{ token: string; view: TokenView }> {
-  if (!roleAtLeast(actor.role, "engineer")) throw new AppError("forbidden", "API tokens need the engineer role or higher.");
+/**
+ * Creates a token of a scope for the actor (read: engineer or higher; promote: lead or higher) and
+ * audits it; the token text is returned once and never stored.
+ */
+export async function createToken(
+  trx: Transaction<Database>,
+  actor: SessionUser,
+  name: string,
+  scope: TokenScope,
+): Promise<{ token: string; view: TokenView }> {
+  requireScopeCreator(actor.role, scope);
   const token = generateToken();
   const row = await trx
     .insertInto("api_tokens")
-    .values({ user_id: actor.id, name, token_hash: hashToken(token) })
+    .values({ user_id: actor.id, name, token_hash: hashToken(token), scope })
     .returning("id")
     .executeTakeFirstOrThrow();
-  await appendAudit(trx, { actorId: actor.id, action: "token.create", entity: "api_token", entityId: row.id, after: { name, scope: "export:read" } });
+  await appendAudit(trx, { actorId: actor.id, action: "token.create", entity: "api_token", entityId: row.id, after: { name, scope } });
   const view = await tokenQuery(trx).where("t.id", "=", row.id).executeTakeFirstOrThrow();
   return { token, view };
 }
@@ -80,7 +91,7 @@ export async function revokeToken(trx: Transaction<Database>, actor: SessionUser
   if (found.revokedAt) throw new AppError("conflict", `Token "${found.name}" is already revoked.`);
   const revoked = await trx
     .updateTable("api_tokens")
-    .set({ revoked_at: sql`now()` })
+    .set({ revoked_at: sql`now()`, revoked_reason: "revoked" })
     .where("id", "=", id)
     .where("revoked_at", "is", null)
     .returning("revoked_at")
@@ -97,27 +108,51 @@ export async function revokeToken(trx: Transaction<Database>, actor: SessionUser
   return { ...found, revokedAt: revoked.revoked_at };
 }
 
+/** A token that authenticated a request: who it acts for, which token, and whether it is over its rate. */
+export interface TokenUse {
+  user: SessionUser;
+  token: { id: number; name: string; scope: TokenScope };
+  /** More than TOKEN_RATE.maxPerWindow requests inside the current window (answer 429). */
+  limited: boolean;
+}
+
 /**
- * The user a bearer token acts for, or null when the token is malformed, unknown, revoked, lacks
- * the scope, or its owner is disabled. Records the use (last_used_at, at most once a minute).
+ * The use of a bearer token, or null when it is malformed, unknown, revoked or its owner is disabled
+ * (disabling revokes it for good, see migration 0010). Counts the request in the token's one-minute
+ * window and records it as the last use, in one atomic update.
  */
-export async function userForToken(db: Conn, token: string, scope: TokenScope): Promise<SessionUser | null> {
+export async function useToken(db: Conn, token: string): Promise<TokenUse | null> {
   if (!TOKEN_PATTERN.test(token)) return null;
+  const fresh = sql<boolean>`t.window_start is null or t.window_start <= now() - ${TOKEN_RATE.windowMs} * interval '1 millisecond'`;
   const row = await db
-    .selectFrom("api_tokens as t")
-    .innerJoin("users as u", "u.id", "t.user_id")
-    .select(["t.id as tokenId", "u.id", "u.email", "u.display_name as name", "u.role"])
+    .updateTable("api_tokens as t")
+    .from("users as u")
+    .whereRef("u.id", "=", "t.user_id")
     .where("t.token_hash", "=", hashToken(token))
     .where("t.revoked_at", "is", null)
-    .where("t.scope", "=", scope)
     .where("u.disabled", "=", false)
+    .set({
+      window_start: sql`case when ${fresh} then now() else t.window_start end`,
+      window_count: sql`case when ${fresh} then 1 else t.window_count + 1 end`,
+      last_used_at: sql`now()`,
+    })
+    .returning(["t.id as tokenId", "t.name as tokenName", "t.scope", "t.window_count as count", "u.id", "u.email", "u.display_name as name", "u.role"])
     .executeTakeFirst();
   if (!row) return null;
-  await db
-    .updateTable("api_tokens")
-    .set({ last_used_at: sql`now()` })
-    .where("id", "=", row.tokenId)
-    .where((eb) => eb.or([eb("last_used_at", "is", null), eb("last_used_at", "<", sql<Date>`now() - interval '1 minute'`)]))
-    .execute();
-  return { id: row.id, email: row.email, name: row.name, role: row.role };
+  return {
+    user: { id: row.id, email: row.email, name: row.name, role: row.role },
+    token: { id: row.tokenId, name: row.tokenName, scope: row.scope },
+    limited: row.count > TOKEN_RATE.maxPerWindow,
+  };
+}
+
+/** Audits one use of a token (every use of a promote token is audited, with its name); `what` says what it did. */
+export async function auditTokenUse(db: Conn, use: Pick<TokenUse, "user" | "token">, what: Record<string, unknown>): Promise<void> {
+  await appendAudit(db, {
+    actorId: use.user.id,
+    action: "token.use",
+    entity: "api_token",
+    entityId: use.token.id,
+    after: { token: use.token.name, scope: use.token.scope, ...what },
+  });
 }

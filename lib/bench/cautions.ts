@@ -28,7 +28,7 @@ export type CautionLevel = "danger" | "warning" | "note";
 /** A pole of this radius lies on or outside the unit circle (within CAUTION_LIMITS.unitCircleTolerance): the filter is unstable or marginal. */
 export const onOrOutsideUnitCircle = (radius: number) => !(radius < 1 - CAUTION_LIMITS.unitCircleTolerance);
 
-export type CautionKind = "poles" | "loop" | "quantization" | "nyquist" | "notch";
+export type CautionKind = "poles" | "loop" | "quantization" | "arithmetic" | "nyquist" | "notch";
 
 export interface Caution {
   kind: CautionKind;

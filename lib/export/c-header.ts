@@ -1,5 +1,5 @@
 import { DIFFERENCE_EQUATION, SIGN_CONVENTION, describeExport, specLines, stageSource } from "./describe";
-import { floatLiteral, wordLiteral } from "./literals";
+import { floatLiteral, rateLiteral, wordLiteral } from "./literals";
 import type { PreparedExport } from "./types";
 
 const FIXED = {
@@ -87,12 +87,11 @@ function defines(p: PreparedExport, N: string, stages: StageLayout[], fixed: Fix
   const sections = stages.reduce((n, s) => n + (s.kind === "sections" ? s.count : 0), 0);
   const firs = stages.filter((s) => s.kind === "fir");
   const history = firs.map((s) => `(${N}_STAGE_${s.k}_TAPS - 1)`);
-  const rate = p.quantized.sampleRateHz;
   return [
     `#define ${N}_STAGES ${stages.length}`,
     `#define ${N}_SECTIONS ${sections}`,
     `#define ${N}_TAPS ${firs.reduce((n, s) => n + s.count, 0)}`,
-    `#define ${N}_SAMPLE_RATE_HZ ${Number.isInteger(rate) ? rate.toFixed(1) : rate}`,
+    `#define ${N}_SAMPLE_RATE_HZ ${rateLiteral(p.quantized.sampleRateHz)}`,
     `#define ${N}_STATE_WORDS (${[`${fixed ? 4 : 2} * ${N}_SECTIONS`, ...history].join(" + ")})`,
     ...(fixed ? [`#define ${N}_FRACTION_BITS ${fixed.bits}`] : []),
     ...stages.flatMap((s) =>

@@ -27,8 +27,8 @@ const STRUCTURE_TEXT: Record<ExportTarget, string> = {
 
 const utc = (d: Date) => `${d.toISOString().slice(0, 19).replace("T", " ")} UTC`;
 
-/** Name-value lines describing an export, for the comment block of the C header and the scipy file. */
-export function describeExport(p: PreparedExport): string[] {
+/** Name-value lines describing an export, for the comment blocks of the C headers and the scipy file. */
+export function describeExport(p: PreparedExport, structure = STRUCTURE_TEXT[p.target]): string[] {
   const s = p.source;
   const q = p.quantized;
   const parts = quantizedParts(q);
@@ -38,7 +38,7 @@ export function describeExport(p: PreparedExport): string[] {
     `Revision:     r${s.revision} (revision id ${s.revisionId})`,
     `Channel:      ${commentSafe(s.channel)}`,
     `Sample rate:  ${q.sampleRateHz} Hz`,
-    `Structure:    ${STRUCTURE_TEXT[p.target]}`,
+    `Structure:    ${structure}`,
     `Format:       ${FORMAT_TEXT[p.target]}`,
     `Stages:       ${parts.length}`,
     `Sections:     ${sections}`,

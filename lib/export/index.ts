@@ -1,7 +1,10 @@
 export { renderCHeader } from "./c-header";
+export { cmsisInstances, cmsisNames, type CmsisInstance, type CmsisStructure } from "./cmsis-layout";
+export { DEFAULT_BLOCK_SIZE, renderCmsisHeader } from "./cmsis-header";
+export { renderCsv } from "./csv";
 export { DIFFERENCE_EQUATION, SIGN_CONVENTION } from "./describe";
 export { renderJson } from "./json";
-export { floatLiteral, pythonFloat, wordLiteral } from "./literals";
+export { floatLiteral, pythonFloat, rateLiteral, wordLiteral } from "./literals";
 export { commentSafe, exportName, identifierStem } from "./names";
 export { assertFirmwareSafe, coefficientContent, contentHash, prepareExport } from "./prepare";
 export { renderExport } from "./render";

@@ -21,3 +21,9 @@ export function pythonFloat(v: number): string {
   if (!Number.isFinite(v)) throw new Error(`a Python float literal must be finite (got ${v})`);
   return Number.isInteger(v) && Math.abs(v) < 1e21 ? v.toFixed(1) : String(v);
 }
+
+/** A C double constant for a rate in Hz: integers with `.0` (so the macro is a floating constant), others as JavaScript writes them. */
+export function rateLiteral(hz: number): string {
+  if (!Number.isFinite(hz)) throw new Error(`a rate must be finite (got ${hz})`);
+  return Number.isInteger(hz) ? hz.toFixed(1) : String(hz);
+}

@@ -1,7 +1,7 @@
 import { deployability, fixedConfigStage, floatConfigStage, quantizationFor } from "@/lib/coefficients";
 import { quantizedParts, stability, type QuantizedDesign, type QuantizedPart } from "@/lib/dsp";
 import { canonicalJson } from "@/lib/protocol";
-import { exportName } from "./names";
+import { exportName, identifierStem } from "./names";
 import {
   ExportRefusal,
   type CoefficientContent,
@@ -60,6 +60,7 @@ export async function prepareExport(source: ExportSource, target: ExportTarget, 
     content,
     contentHash: await contentHash(content),
     name: exportName(source.setName, source.revision, target, prefix),
+    stem: identifierStem(prefix ?? source.setName),
     specStages: quantized.stages?.map((s) => s.stage) ?? [0],
   };
 }

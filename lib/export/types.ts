@@ -1,15 +1,31 @@
 import type { FilterDesign, FilterSpec, QuantFormat, QuantizedDesign } from "@/lib/dsp";
 
-/** The export file formats. */
-export const EXPORT_FORMATS = ["c-header", "json", "scipy"] as const;
+/** The export file formats: ours (c-header, json, scipy, csv) and the CMSIS-DSP library's layouts. */
+export const EXPORT_FORMATS = ["c-header", "json", "scipy", "csv", "cmsis-df1", "cmsis-df2t"] as const;
 export type ExportFormat = (typeof EXPORT_FORMATS)[number];
 
 /** Number formats an export can target (the device formats). */
 export const EXPORT_TARGETS = ["f32", "q15", "q31"] as const satisfies readonly QuantFormat[];
 export type ExportTarget = (typeof EXPORT_TARGETS)[number];
 
-/** Formats loaded into firmware: refused for unstable designs. scipy arrays are for analysis. */
-export const FIRMWARE_FORMATS: readonly ExportFormat[] = ["c-header", "json"];
+/** Formats loaded into firmware: refused for unstable designs. scipy arrays and CSV are for analysis. */
+export const FIRMWARE_FORMATS: readonly ExportFormat[] = ["c-header", "json", "cmsis-df1", "cmsis-df2t"];
+
+/** The targets each format takes: the library's transposed form II biquad is floating-point only. */
+export const FORMAT_TARGETS: Record<ExportFormat, readonly ExportTarget[]> = {
+  "c-header": EXPORT_TARGETS,
+  json: EXPORT_TARGETS,
+  scipy: EXPORT_TARGETS,
+  csv: EXPORT_TARGETS,
+  "cmsis-df1": ["q15", "q31", "f32"],
+  "cmsis-df2t": ["f32"],
+};
+
+/** The target of an export when none is asked for: the device's format, or the format's first target when it takes no other. */
+export function defaultTarget(format: ExportFormat, deviceFormat: ExportTarget): ExportTarget {
+  const allowed = FORMAT_TARGETS[format];
+  return allowed.includes(deviceFormat) ? deviceFormat : allowed[0];
+}
 
 /** Everything an export needs to know about one revision; the caller reads it from the database. */
 export interface ExportSource {
@@ -44,6 +60,8 @@ export interface PreparedExport {
   contentHash: string;
   /** C identifier stem, lowercase, unique per set name, revision and target (e.g. hum_notch_r3_q15). */
   name: string;
+  /** The same stem without revision and target (e.g. hum_notch): the stable names of the CMSIS headers' wrappers. */
+  stem: string;
   /** Per stage of the content, its index in the spec's stages (0 for a single spec; bypassed stages are not run). */
   specStages: number[];
 }

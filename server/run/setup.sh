@@ -17,6 +17,9 @@ export NEXT_TELEMETRY_DISABLED=1
 need=()
 [ "$WITH_BROWSER" = 1 ] && [ ! -x /usr/bin/chromium ] && need+=(chromium)
 [ "$WITH_BROWSER" = 1 ] && ! command -v mosquitto >/dev/null && [ ! -x /usr/sbin/mosquitto ] && need+=(mosquitto)
+# gcc (with the C library headers) compiles every exported C header in the tests; never skipped.
+[ "$WITH_BROWSER" = 1 ] && [ ! -x /usr/bin/gcc ] && need+=(gcc)
+[ "$WITH_BROWSER" = 1 ] && [ ! -f /usr/include/stdio.h ] && need+=(libc6-dev)
 if [ ${#need[@]} -gt 0 ]; then
   if [ "$(id -u)" = 0 ]; then
     echo "Installing Debian packages: ${need[*]}"

@@ -10,7 +10,7 @@ import { channelConfigChecksum as storedHash } from "@/server/devices/checksum";
 import { PRODUCTION } from "@/server/pipeline/pipeline";
 import type { Sidecar } from "@/server/sidecar";
 import { firLowpass255, humChain, legacyFirRevision } from "../unit/coefficients-support";
-import { compileAndRun, hasGcc, inputWords, scratch } from "../unit/gcc-support";
+import { compileAndRun, inputWords, scratch } from "../unit/gcc-support";
 import { actAs, jsonRequest, params, setUpLab, type Accounts } from "./sets-fixture";
 import { memoryLogger, retainedDocument, testSidecar, until } from "./sidecar-support";
 
@@ -153,7 +153,7 @@ describe("a filter chain from the API to the device, the production trace and th
     expect(drop(150)).toBeLessThan(-20);
   });
 
-  it.skipIf(!hasGcc)("exports the revision as a C header that holds every section and compiles with gcc, bit-true with simulateFixed", async () => {
+  it("exports the revision as a C header that holds every section and compiles with gcc, bit-true with simulateFixed", async () => {
     actAs(users.operator);
     const res = await exportRoute.GET(new Request(`http://test.local/api/v1/revisions/${revisionId}/export?format=c-header`), params({ id: String(revisionId) }));
     expect(res.status).toBe(200);

@@ -35,7 +35,7 @@ function exportRequest(revisionId: number, query: string, token?: string) {
   return exportRoute.GET(new Request(`http://test.local/api/v1/revisions/${revisionId}/export?${query}`, { headers }), params({ id: String(revisionId) }));
 }
 
-const newToken = (user: SessionUser, name: string) => lab.db.transaction().execute((trx) => createToken(trx, user, name));
+const newToken = (user: SessionUser, name: string) => lab.db.transaction().execute((trx) => createToken(trx, user, name, "read"));
 
 describe("export with API tokens", () => {
   it("exports a q15 header with a Bearer token and no session, recording the use and the audit entry", async () => {
@@ -72,6 +72,23 @@ describe("export with API tokens", () => {
     expect((await exportRequest(revisionId, "format=pdf")).status).toBe(400);
     actAs(null);
     expect((await exportRequest(revisionId, "format=json")).status).toBe(401);
+  });
+
+  it("serves the CMSIS-DSP layouts and CSV; a target the format does not take is a 400 naming it", async () => {
+    const { revisionId } = await createSet("Torque LP cmsis");
+    actAs(users.operator);
+    const df1 = await exportRequest(revisionId, "format=cmsis-df1");
+    expect(df1.status).toBe(200);
+    expect(df1.headers.get("content-disposition")).toBe('attachment; filename="torque_lp_cmsis_r1_q15_cmsis_df1.h"');
+    expect(await df1.text()).toContain("static const q15_t torque_lp_cmsis_r1_q15_i0_coeffs[6 * TORQUE_LP_CMSIS_R1_Q15_I0_NUM_STAGES]");
+    const df2t = await exportRequest(revisionId, "format=cmsis-df2t");
+    expect(df2t.headers.get("content-disposition")).toBe('attachment; filename="torque_lp_cmsis_r1_f32_cmsis_df2t.h"');
+    const bad = await exportRequest(revisionId, "format=cmsis-df2t&target=q31");
+    expect(bad.status).toBe(400);
+    expect((await bad.json()).error.details).toEqual([{ path: "target", message: "format cmsis-df2t takes target f32 (got q31)" }]);
+    const csv = await exportRequest(revisionId, "format=csv&target=q31");
+    expect(csv.headers.get("content-type")).toMatch(/^text\/csv/);
+    expect((await csv.text()).split("\r\n")[0]).toBe("stage,spec_stage,kind,section,coefficient,value,word,shift");
   });
 
   it("answers 401 to a revoked token, a disabled owner's token and a malformed header", async () => {

@@ -230,7 +230,7 @@ beforeAll(async () => {
   revoked = signedOut.cookie;
   forged = (await sessionCookie(fresh.db, "admin@tapwright.test", "another-secret-of-at-least-32-characters!")).cookie;
   const engineer = (await findUserByEmail(fresh.db, "engineer@tapwright.test"))!;
-  token = (await fresh.db.transaction().execute((trx) => createToken(trx, { id: engineer.id, email: engineer.email, name: engineer.display_name, role: "engineer" }, "matrix"))).token;
+  token = (await fresh.db.transaction().execute((trx) => createToken(trx, { id: engineer.id, email: engineer.email, name: engineer.display_name, role: "engineer" }, "matrix", "read"))).token;
   routes = await discoverRoutes();
   actions = await discoverActions();
 }, 120_000);

@@ -35,3 +35,13 @@ export const chainWithFir: FilterSpec = {
     { kind: "iir", family: "butterworth", response: "lowpass", order: 4, cutoffHz: 300, sampleRateHz: 1000 },
   ],
 };
+
+/** A chain with an asymmetric FIR (a pasted 5-tap minimum-phase-like smoother), so reversed taps would show; then a notch. */
+export const chainAsymmetric: FilterSpec = {
+  kind: "chain",
+  sampleRateHz: 1000,
+  stages: [
+    { kind: "coefficients", b: [0.4, 0.3, 0.15, 0.1, 0.05], sampleRateHz: 1000 },
+    { kind: "biquad", shape: "notch", centerHz: 50, q: 5, sampleRateHz: 1000 },
+  ],
+};

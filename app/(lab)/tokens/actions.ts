@@ -16,15 +16,18 @@ function fail(err: unknown): ActionState {
   return { ok: false, message: body.error.message };
 }
 
-/** Creates a token for the signed-in engineer (or higher); its text goes back once, in this answer only. */
+/** Creates a token for the signed-in engineer (or higher; promote tokens: lead or higher); its text goes back once, in this answer only. */
 export async function createTokenAction(_prev: TokenCreateState, form: FormData): Promise<TokenCreateState> {
   const parsed = safeParseInput(createTokenSchema, Object.fromEntries(form));
-  if (!parsed.success) return { ok: false, message: parsed.error.issues[0]?.message, fieldErrors: { name: parsed.error.issues[0]?.message ?? "" } };
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    return { ok: false, message: issue?.message, fieldErrors: { [String(issue?.path[0] ?? "name")]: issue?.message ?? "" } };
+  }
   try {
     const user = await requireActionUser("engineer");
-    const { token, view } = await db().transaction().execute((trx) => createToken(trx, user, parsed.data.name));
+    const { token, view } = await db().transaction().execute((trx) => createToken(trx, user, parsed.data.name, parsed.data.scope));
     revalidatePath("/tokens");
-    return { ok: true, message: `Token "${view.name}" created.`, token };
+    return { ok: true, message: `Token "${view.name}" (${view.scope}) created.`, token };
   } catch (err) {
     return fail(err);
   }

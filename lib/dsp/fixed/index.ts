@@ -17,4 +17,6 @@ export {
   type QuantizedPart,
   type QuantizedStage,
 } from "./quantize-design";
-export { MAX_Q15_TAPS, simulateFixed, type FixedSimulation } from "./simulate-fixed";
+export { arithmeticLabel, FIXED_ARITHMETICS, libraryKernels, type FixedArithmetic } from "./arithmetic";
+export { MAX_Q15_TAPS } from "./fixed-stages";
+export { simulateFixed, type FixedSimulation } from "./simulate-fixed";

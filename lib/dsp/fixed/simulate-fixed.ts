@@ -27,61 +27,24 @@
  *   one guard bit); products reach 2^62, beyond float64's 53 bits, so this model uses BigInt.
  *   The exact sum, rounding constant included, is wrapped to 64 bits (BigInt.asIntN) like the
  *   hardware would, and each wrap counts as an overflow.
+ * This is the `tapwright` arithmetic; the CMSIS-DSP library's kernels (`cmsis`, `cmsis-fast`) are
+ * modelled in library-kernels.ts, on the same input words.
  */
-import { fractionBits, toWord, wordLimits, type FixedFormat } from "./q-format";
-import { maxShift } from "./coefficient-quantizer";
-import { quantizedParts, type QuantizedDesign, type QuantizedPart } from "./quantize-design";
+import type { FixedArithmetic } from "./arithmetic";
+import { fixedStages, type FixedStage } from "./fixed-stages";
+import { runLibraryKernels } from "./library-kernels";
+import { fractionBits, toWord, wordLimits } from "./q-format";
+import type { QuantizedDesign } from "./quantize-design";
 
 export interface FixedSimulation {
   /** Output samples as real values (last section's words · 2^−F). */
   y: Float64Array;
-  /** Saturations of inputs and section outputs, plus Q31 accumulator wraps. */
+  /** Saturations of inputs and section outputs, plus accumulator wraps (and, for the library's kernels, wrapped outputs). */
   overflows: number;
 }
 
-/** Largest FIR length for which the float64 Q15 accumulator is provably exact (see header). */
-export const MAX_Q15_TAPS = 2 ** 22;
-
-interface Stage {
-  /** Numerator words, newest input first. */
-  b: number[];
-  /** Denominator words a1, a2 (empty for FIR). */
-  a: number[];
-  shift: number;
-}
-
-/** Every part's stages in order: a chain's parts run one after the other, like their sections. */
-function stagesOf(q: QuantizedDesign, format: FixedFormat): Stage[] {
-  return quantizedParts(q).flatMap((part) => partStages(part, format));
-}
-
-function partStages(q: QuantizedPart, format: FixedFormat): Stage[] {
-  const words = q.integers;
-  if (!words) throw new Error(`the quantized design has no ${format} words`);
-  if (words.length !== q.shifts.length) throw new Error(`need one shift per row of words (${words.length} rows, ${q.shifts.length} shifts)`);
-  q.shifts.forEach((shift, i) => {
-    if (!Number.isInteger(shift) || shift < 0 || shift > maxShift(format)) {
-      throw new Error(`shift ${i} must be an integer in 0…${maxShift(format)} (got ${shift})`);
-    }
-  });
-  const { min, max } = wordLimits(format);
-  words.flat().forEach((w) => {
-    if (!Number.isInteger(w) || w < min || w > max) throw new Error(`words must be integers in ${min}…${max} (got ${w})`);
-  });
-  if (q.taps) {
-    if (format === "q15" && words[0].length > MAX_Q15_TAPS) {
-      throw new Error(`a Q15 FIR may have at most ${MAX_Q15_TAPS} taps (got ${words[0].length})`);
-    }
-    return [{ b: words[0], a: [], shift: q.shifts[0] }];
-  }
-  return words.map((row, i) => {
-    if (row.length !== 5) throw new Error(`section ${i} needs 5 words [b0, b1, b2, a1, a2] (got ${row.length})`);
-    return { b: row.slice(0, 3), a: row.slice(3, 5), shift: q.shifts[i] };
-  });
-}
-
 /** Q15 in exact float64 integer arithmetic. */
-function runQ15(stages: Stage[], inputs: number[], count: { overflows: number }): number[] {
+function runQ15(stages: FixedStage[], inputs: number[], count: { overflows: number }): number[] {
   const { min, max } = wordLimits("q15");
   const xs = stages.map((s) => new Array<number>(s.b.length).fill(0));
   const ys = stages.map(() => [0, 0]);
@@ -108,7 +71,7 @@ function runQ15(stages: Stage[], inputs: number[], count: { overflows: number })
 }
 
 /** Q31 with BigInt: exact products, 64-bit wrapping accumulator. */
-function runQ31(stages: Stage[], inputs: number[], count: { overflows: number }): number[] {
+function runQ31(stages: FixedStage[], inputs: number[], count: { overflows: number }): number[] {
   const { min, max } = wordLimits("q31");
   const [lo, hi] = [BigInt(min), BigInt(max)];
   const big = stages.map((s) => ({ b: s.b.map(BigInt), a: s.a.map(BigInt), s: BigInt(31 - s.shift) }));
@@ -137,20 +100,28 @@ function runQ31(stages: Stage[], inputs: number[], count: { overflows: number })
   });
 }
 
-/** Run a Q15 or Q31 quantized design on x (real values, full scale ±1) exactly as firmware would (see header). */
-export function simulateFixed(q: QuantizedDesign, x: Float64Array): FixedSimulation {
+/**
+ * Run a Q15 or Q31 quantized design on x (real values, full scale ±1) exactly as firmware would: in
+ * our arithmetic (see header), or in the CMSIS-DSP library's standard or fast kernels (library-kernels.ts).
+ */
+export function simulateFixed(q: QuantizedDesign, x: Float64Array, arithmetic: FixedArithmetic = "tapwright"): FixedSimulation {
   if (q.format === "f32") {
     throw new Error("simulateFixed models Q15/Q31 words; an f32 design has none (run its sos with filterSignal)");
   }
   const format = q.format;
-  const stages = stagesOf(q, format);
+  const stages = fixedStages(q, format);
   const count = { overflows: 0 };
   const inputs = Array.from(x, (v) => {
     const { word, saturated } = toWord(v, format);
     if (saturated) count.overflows++;
     return word;
   });
-  const words = format === "q15" ? runQ15(stages, inputs, count) : runQ31(stages, inputs, count);
+  const words =
+    arithmetic !== "tapwright"
+      ? runLibraryKernels(stages, format, inputs, arithmetic === "cmsis-fast", count)
+      : format === "q15"
+        ? runQ15(stages, inputs, count)
+        : runQ31(stages, inputs, count);
   const scale = 2 ** fractionBits(format);
   return { y: Float64Array.from(words, (w) => w / scale), overflows: count.overflows };
 }

@@ -1,4 +1,4 @@
-import { requireUser } from "@/app/_lib/auth";
+import { requireCaller } from "@/app/_lib/api-caller";
 import { db } from "@/db";
 import { exportAudit, listAudit } from "@/db/queries/audit-read";
 import { handler, parseWith } from "@/lib/http/handler";
@@ -11,7 +11,7 @@ const EXPORT_LIMIT = 50_000;
 /** The audit trail for leads and admins: JSON pages, or every match as CSV (`format=csv`). */
 export const GET = handler(async (req) => {
   const { page, pageSize, format, ...filters } = parseWith(auditQuerySchema, Object.fromEntries(new URL(req.url).searchParams));
-  await requireUser("lead");
+  await requireCaller(req, "lead");
   if (format === "json") return Response.json(await listAudit(db(), filters, page, pageSize));
   const csv = auditCsv(await exportAudit(db(), filters, EXPORT_LIMIT));
   return new Response(csv, {

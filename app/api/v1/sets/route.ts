@@ -1,3 +1,4 @@
+import { requireCaller } from "@/app/_lib/api-caller";
 import { requireUser } from "@/app/_lib/auth";
 import { db } from "@/db";
 import { findChannelByPath } from "@/db/queries/channels";
@@ -9,7 +10,7 @@ import { createSetSchema, listSetsSchema } from "./schema";
 
 export const GET = handler(async (req) => {
   const filters = parseWith(listSetsSchema, Object.fromEntries(new URL(req.url).searchParams));
-  await requireUser();
+  await requireCaller(req, "operator");
   return Response.json(await listSets(db(), filters));
 });
 

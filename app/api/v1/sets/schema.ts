@@ -32,3 +32,4 @@ export const listSetsSchema = z.object({
   page: pageNumber,
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
 });
+

@@ -1,4 +1,4 @@
-import { requireUser } from "@/app/_lib/auth";
+import { requireCaller } from "@/app/_lib/api-caller";
 import { db } from "@/db";
 import { findDeployment } from "@/db/queries/deployments";
 import { AppError } from "@/lib/errors";
@@ -6,9 +6,9 @@ import { dbId } from "@/lib/http/fields";
 import { handler, parseWith } from "@/lib/http/handler";
 
 /** One deployment with the exact config sent to the device (for polling its outcome). */
-export const GET = handler(async (_req, ctx: { params: Promise<{ id: string }> }) => {
+export const GET = handler(async (req, ctx: { params: Promise<{ id: string }> }) => {
+  await requireCaller(req, "operator");
   const id = parseWith(dbId, (await ctx.params).id);
-  await requireUser();
   const d = await findDeployment(db(), id);
   if (!d) throw new AppError("not_found", "No such deployment.");
   const { design: _d, spec: _s, ...rest } = d;

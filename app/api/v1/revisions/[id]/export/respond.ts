@@ -1,25 +1,10 @@
-import { currentUser } from "@/app/_lib/auth";
 import { db } from "@/db";
 import { listReviews, type RevisionView } from "@/db/queries/revisions";
-import { userForToken } from "@/db/queries/tokens";
-import { requireRole, type SessionUser } from "@/lib/auth/guard";
 import { AppError } from "@/lib/errors";
-import { ExportRefusal, renderExport, type ExportSource, type ExportTarget } from "@/lib/export";
+import { defaultTarget, ExportRefusal, renderExport, type ExportSource, type ExportTarget } from "@/lib/export";
 import { computeForRequest } from "@/lib/workers";
+import type { SessionUser } from "@/lib/auth/guard";
 import type { ExportQuery } from "./schema";
-
-/**
- * Who is asking: a `Bearer tw_…` token with the export:read scope when an Authorization header is
- * sent (never falling back to the cookie then), otherwise the session cookie. 401 either way when invalid.
- */
-export async function exportCaller(req: Request): Promise<SessionUser> {
-  const header = req.headers.get("authorization");
-  if (header === null) return requireRole(await currentUser(), "operator");
-  const match = /^Bearer +(\S+)$/i.exec(header.trim());
-  const user = match ? await userForToken(db(), match[1], "export:read") : null;
-  if (!user) throw new AppError("unauthorized", "The API token is missing, unknown or revoked, or its owner is disabled.");
-  return user;
-}
 
 /** An export source for a stored revision, with its latest approval. */
 export async function revisionSource(rev: RevisionView, channel = rev.channel): Promise<ExportSource> {
@@ -42,9 +27,9 @@ export async function revisionSource(rev: RevisionView, channel = rev.channel): 
  * Renders the export as a download; quantizing for the target runs on a design thread (with its time
  * limit). A refusal (unstable, cannot quantize) is a 422 with the reason.
  */
-export async function exportResponse(source: ExportSource, query: ExportQuery, defaultTarget: ExportTarget, caller: SessionUser): Promise<Response> {
+export async function exportResponse(source: ExportSource, query: ExportQuery, deviceFormat: ExportTarget, caller: SessionUser): Promise<Response> {
   try {
-    const job = { kind: "export", source, target: query.target ?? defaultTarget, prefix: query.prefix } as const;
+    const job = { kind: "export", source, target: query.target ?? defaultTarget(query.format, deviceFormat), prefix: query.prefix } as const;
     const prepared = await computeForRequest(job, `user:${caller.id}`, "The export could not be prepared");
     const file = renderExport(prepared, query.format);
     return new Response(file.body, {

@@ -1,4 +1,4 @@
-import { requireUser } from "@/app/_lib/auth";
+import { requireCaller } from "@/app/_lib/api-caller";
 import { db } from "@/db";
 import { findChannelByPath } from "@/db/queries/channels";
 import { findActiveDeployment } from "@/db/queries/deployments";
@@ -9,10 +9,10 @@ import { handler } from "@/lib/http/handler";
  * The channel's production filter: the revision its device acknowledged last. Three dynamic segments,
  * not `[...path]`, because Next allows nothing after a catch-all segment.
  */
-export const GET = handler(async (_req, ctx: { params: Promise<{ rig: string; device: string; channel: string }> }) => {
+export const GET = handler(async (req, ctx: { params: Promise<{ rig: string; device: string; channel: string }> }) => {
   const { rig, device, channel: key } = await ctx.params;
   const path = `${rig}/${device}/${key}`;
-  await requireUser();
+  await requireCaller(req, "operator");
   const channel = await findChannelByPath(db(), path);
   if (!channel) throw new AppError("not_found", `No channel ${path}.`);
   const active = await findActiveDeployment(db(), channel.id);

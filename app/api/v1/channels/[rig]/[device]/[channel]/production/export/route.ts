@@ -1,4 +1,5 @@
-import { exportCaller, exportResponse, revisionSource } from "@/app/api/v1/revisions/[id]/export/respond";
+import { requireCaller } from "@/app/_lib/api-caller";
+import { exportResponse, revisionSource } from "@/app/api/v1/revisions/[id]/export/respond";
 import { exportQuerySchema, queryOf } from "@/app/api/v1/revisions/[id]/export/schema";
 import { db } from "@/db";
 import { findChannelByPath } from "@/db/queries/channels";
@@ -15,7 +16,7 @@ export const GET = handler(async (req, ctx: { params: Promise<{ rig: string; dev
   const { rig, device, channel: key } = await ctx.params;
   const path = `${rig}/${device}/${key}`;
   const query = parseWith(exportQuerySchema, queryOf(req));
-  const caller = await exportCaller(req);
+  const { user: caller } = await requireCaller(req, "operator");
   const channel = await findChannelByPath(db(), path);
   if (!channel) throw new AppError("not_found", `No channel ${path}.`);
   const active = await findActiveDeployment(db(), channel.id);
