@@ -9,6 +9,9 @@ vi.mock("@/db", async () => (await import("./sets-fixture")).dbModule);
 vi.mock("@/app/_lib/auth", async () => (await import("./sets-fixture")).authModule);
 vi.mock("@/lib/auth/session", () => ({
   getSession: async () => ({ userId: undefined, sessionVersion: undefined, save: async () => undefined, destroy: () => undefined }),
+  // No sign-in cookie of an earlier success on this client.
+  knownDevice: async () => null,
+  rememberDevice: async () => undefined,
 }));
 
 const { apiDocument } = await import("@/app/api/v1/openapi.json/document");

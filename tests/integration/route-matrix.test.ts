@@ -27,8 +27,10 @@ import { request, sessionCookie, state } from "./support/request-context";
 type Access = "public" | Role;
 interface RoutePolicy {
   access: Access;
-  /** Export routes also take an API token (Authorization: Bearer, scope export:read). */
+  /** The route also takes an API token (Authorization: Bearer; the matrix's token is an engineer's read token). */
   token?: true;
+  /** A token needs this scope beyond read (a read token is refused with 403). */
+  scope?: "promote";
   /** A query that gets the request past parsing to the guard. */
   query?: string;
 }
@@ -39,6 +41,7 @@ const ROUTES: Record<string, RoutePolicy> = {
   "POST /api/auth/logout": { access: "public" },
   "GET /api/auth/me": { access: "operator" },
   "GET /api/health": { access: "public" },
+  "GET /api/v1/openapi.json": { access: "public" },
   "GET /api/v1/alarm-events": { access: "operator" },
   "POST /api/v1/alarm-events/[id]/acknowledge": { access: "operator" },
   "GET /api/v1/alarm-rules": { access: "operator" },
@@ -49,12 +52,12 @@ const ROUTES: Record<string, RoutePolicy> = {
   "POST /api/v1/annotations": { access: "operator" },
   // Any role reaches the resource check (the author or a lead); an unknown id is 404 for all of them.
   "DELETE /api/v1/annotations/[id]": { access: "operator" },
-  "GET /api/v1/audit": { access: "lead" },
-  "GET /api/v1/channels": { access: "operator" },
-  "GET /api/v1/channels/[rig]/[device]/[channel]/production": { access: "operator" },
+  "GET /api/v1/audit": { access: "lead", token: true },
+  "GET /api/v1/channels": { access: "operator", token: true },
+  "GET /api/v1/channels/[rig]/[device]/[channel]/production": { access: "operator", token: true },
   "GET /api/v1/channels/[rig]/[device]/[channel]/production/export": { access: "operator", token: true },
-  "GET /api/v1/deployments": { access: "operator", query: `channel=${CHANNEL}` },
-  "GET /api/v1/deployments/[id]": { access: "operator" },
+  "GET /api/v1/deployments": { access: "operator", query: `channel=${CHANNEL}`, token: true },
+  "GET /api/v1/deployments/[id]": { access: "operator", token: true },
   "POST /api/v1/deployments/rollback": { access: "lead" },
   "GET /api/v1/live/overview": { access: "operator" },
   "GET /api/v1/recordings": { access: "operator" },
@@ -63,13 +66,13 @@ const ROUTES: Record<string, RoutePolicy> = {
   // Any role reaches the resource check (the author or a lead); an unknown id is 404 for all of them.
   "DELETE /api/v1/recordings/[id]": { access: "operator" },
   "GET /api/v1/recordings/[id]/samples": { access: "operator" },
-  "GET /api/v1/revisions/[id]": { access: "operator" },
+  "GET /api/v1/revisions/[id]": { access: "operator", token: true },
   "GET /api/v1/revisions/[id]/export": { access: "operator", token: true },
-  "POST /api/v1/revisions/[id]/promote": { access: "lead" },
+  "POST /api/v1/revisions/[id]/promote": { access: "lead", token: true, scope: "promote" },
   "POST /api/v1/revisions/[id]/transitions": { access: "engineer" },
-  "GET /api/v1/sets": { access: "operator" },
+  "GET /api/v1/sets": { access: "operator", token: true },
   "POST /api/v1/sets": { access: "engineer" },
-  "GET /api/v1/sets/[id]": { access: "operator" },
+  "GET /api/v1/sets/[id]": { access: "operator", token: true },
   "POST /api/v1/sets/[id]/retire": { access: "lead" },
   "POST /api/v1/sets/[id]/revisions": { access: "engineer" },
 };
@@ -167,6 +170,8 @@ async function discoverActions(): Promise<FoundAction[]> {
 // ---- Credentials. -------------------------------------------------------------------------------
 
 type Credential = "none" | "forged" | "revoked" | Role | "token";
+/** Who owns the matrix's API token. */
+const TOKEN_OWNER: Role = "engineer";
 let token = "";
 let revoked = "";
 
@@ -230,7 +235,7 @@ beforeAll(async () => {
   revoked = signedOut.cookie;
   forged = (await sessionCookie(fresh.db, "admin@tapwright.test", "another-secret-of-at-least-32-characters!")).cookie;
   const engineer = (await findUserByEmail(fresh.db, "engineer@tapwright.test"))!;
-  token = (await fresh.db.transaction().execute((trx) => createToken(trx, { id: engineer.id, email: engineer.email, name: engineer.display_name, role: "engineer" }, "matrix", "read"))).token;
+  token = (await fresh.db.transaction().execute((trx) => createToken(trx, { id: engineer.id, email: engineer.email, name: engineer.display_name, role: TOKEN_OWNER }, "matrix", "read"))).token;
   routes = await discoverRoutes();
   actions = await discoverActions();
 }, 120_000);
@@ -255,11 +260,11 @@ describe("route × role × credential", () => {
       if (!policy) continue;
       for (const credential of ["none", "forged", "revoked", ...ROLES, "token"] as Credential[]) {
         const status = (await call(route, credential)).status;
-        const role = ROLES.find((r) => r === credential);
+        // The matrix's token acts as its owner (an engineer) with the read scope, on routes that take tokens.
+        const tokenRole = credential === "token" && policy.token === true ? TOKEN_OWNER : undefined;
+        const role = ROLES.find((r) => r === credential) ?? tokenRole;
         const allowed =
-          policy.access === "public" ||
-          (role !== undefined && roleAtLeast(role, policy.access)) ||
-          (credential === "token" && policy.token === true);
+          policy.access === "public" || (role !== undefined && roleAtLeast(role, policy.access) && !(tokenRole && policy.scope === "promote"));
         const expected = allowed ? "not 401/403" : role ? "403" : "401";
         const ok = allowed ? !GUARD.has(status) : status === (role ? 403 : 401);
         if (!ok) wrong.push(`${route.key} as ${credential}: ${status}, expected ${expected}`);

@@ -77,8 +77,12 @@ export interface TestSocket {
   ws: WebSocket;
   messages: ServerMessage[];
   send(message: unknown): void;
-  /** Waits for the next message (after those already seen) matching the predicate. */
-  next<T extends ServerMessage["type"]>(type: T, where?: (m: Extract<ServerMessage, { type: T }>) => boolean): Promise<Extract<ServerMessage, { type: T }>>;
+  /** Waits (up to timeoutMs, default 5 s) for the next message (after those already seen) matching the predicate. */
+  next<T extends ServerMessage["type"]>(
+    type: T,
+    where?: (m: Extract<ServerMessage, { type: T }>) => boolean,
+    timeoutMs?: number,
+  ): Promise<Extract<ServerMessage, { type: T }>>;
 }
 
 /** Opens a WebSocket to the sidecar; resolves once open, or rejects with the refusal status. */
@@ -95,7 +99,7 @@ export function openSocket(port: number, cookie?: string): Promise<TestSocket> {
         ws,
         messages,
         send: (m) => ws.send(JSON.stringify(m)),
-        async next(type, where) {
+        async next(type, where, timeoutMs = 5000) {
           let found: ServerMessage | undefined;
           await until(() => {
             for (; seen < messages.length; seen++) {
@@ -107,7 +111,7 @@ export function openSocket(port: number, cookie?: string): Promise<TestSocket> {
               }
             }
             return false;
-          }, 5000, `a ${type} message`);
+          }, timeoutMs, `a ${type} message`);
           return found as never;
         },
       }),
