@@ -1,5 +1,6 @@
 import type { Complex } from "./types";
 import { cAbs, cAdd, cConj, cDiv, cMul, cScale, cSub } from "./complex";
+import { refineMultipleRoots } from "./root-clusters";
 
 /**
  * Polynomials with real coefficients in DESCENDING powers: [a0, a1, …, an] is a0·xⁿ + … + an
@@ -72,7 +73,8 @@ const MAX_ABERTH_ITERATIONS = 500;
  * Leading zero coefficients are dropped; trailing zero coefficients are roots at exactly 0.
  * Method: Aberth–Ehrlich simultaneous iteration (Aberth 1973, Math. Comp. 27(122)) started from
  * Bini's Newton-polygon circles (Bini 1996, Numer. Algorithms 13:179–200); each root takes one last
- * correction once |p(z)| is within the Horner rounding bound; then conjugate pairs are made exactly conjugate and
+ * correction once |p(z)| is within the Horner rounding bound; roots scattered inside the rounding disc of a
+ * multiple root are replaced by that root (refineMultipleRoots); then conjugate pairs are made exactly conjugate and
  * near-real leftovers exactly real. Throws for the zero polynomial or non-finite coefficients.
  */
 export function polyRoots(coeffs: number[]): Complex[] {
@@ -95,7 +97,7 @@ function solveNonzeroConstant(a: number[]): Complex[] {
   if (n === 0) return [];
   if (n === 1) return [[-a[1] / a[0], 0]];
   if (n === 2) return quadraticRoots(a[0], a[1], a[2]);
-  return makeConjugateSymmetric(aberth(a, initialGuesses(a)));
+  return makeConjugateSymmetric(refineMultipleRoots(a, aberth(a, initialGuesses(a))));
 }
 
 /** Roots of a·x² + b·x + c without cancellation (Press et al., Numerical Recipes §5.6). */

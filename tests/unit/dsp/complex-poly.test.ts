@@ -112,4 +112,21 @@ describe("polynomials (descending powers)", () => {
     const roots = sortRoots(polyRoots(polyFromRoots(Array.from({ length: 10 }, (_, i): Complex => [i + 1, 0]))));
     roots.forEach((r, i) => expect(Math.abs(r[0] - (i + 1))).toBeLessThan(1e-6));
   });
+  it("polyRoots of a multiple root: the cluster's mean is the root itself, so |p| away from it keeps its accuracy", () => {
+    // (z + 1)³ and (z + 1)⁸: the computed members scatter by about ε^(1/m) (Wilkinson, Rounding Errors in
+    // Algebraic Processes, 1963, ch. 2; from memory), their mean must still be −1 (exact algebra).
+    for (const m of [3, 8]) {
+      const roots = polyRoots(polyFromRoots(Array.from({ length: m }, (): Complex => [-1, 0])));
+      const mean = cScale(roots.reduce((s, r) => cAdd(s, r), [0, 0] as Complex), 1 / m);
+      close(mean, [-1, 0], 1e-13);
+    }
+    // z³ − 3.0000001z² + 3.0000002z − 1.0000001 = (z − 1)²(z − 1 − 10⁻⁷) (exact algebra): mean 1 + 10⁻⁷/3
+    // up to the rounding of the decimal coefficients (ε · Σ|a_k| ≈ 2e-15, times the cluster's gain).
+    const near = polyRoots([1, -3.0000001, 3.0000002, -1.0000001]);
+    const nearMean = near.reduce((s, r) => s + r[0], 0) / 3;
+    expect(Math.abs(nearMean - (1 + 1e-7 / 3))).toBeLessThan(1e-12);
+    // Distinct close roots keep their own places: (z − 0.999)(z − 1)(z − 1.001).
+    const spread = sortRoots(polyRoots(polyFromRoots([[0.999, 0], [1, 0], [1.001, 0]])));
+    [0.999, 1, 1.001].forEach((e, i) => expect(Math.abs(spread[i][0] - e)).toBeLessThan(1e-9));
+  });
 });

@@ -192,6 +192,10 @@ describe("property: random valid specs of every kind design to finite coefficien
   it("analog with a stable H(s) via backward Euler, Tustin, prewarped Tustin, ZOH or matched (stability preserved)", () =>
     check(stableAnalog, true, 200));
   it("iir lowpass of every family (stable)", () => check(iirSpec, true, 60));
+  it("found case: a slow third-order H(s) through Tustin, whose triple zero at z = −1 once scattered enough to move |H| by 1.2e-6", () => {
+    const d = designFilter({ kind: "analog", num: [1], den: [1, 0.75, 3.4874415765074085, 0.8406103941268521], method: "tustin", sampleRateHz: 100 });
+    expectZpkMatchesRunForm(d);
+  });
   it("pasted b/a (finite; stability not guaranteed, designed as given)", () => check(pastedSpec, false, 150));
   it("forward Euler gives finite coefficients (stability not guaranteed: fast poles can leave the unit circle)", () =>
     check(
