@@ -18,6 +18,8 @@ const envSchema = z.object({
   MAIL_FROM: z.string().default("Tapwright <tapwright@tapwright.test>"),
   DEMO: z.enum(["0", "1"]).default("1"),
   DEMO_PASSWORD: z.string().min(8).default("tapwright-demo"),
+  /** 1: the seed also puts the demo's production filter on the supply pressure (`npm start` sets it; tests do not). */
+  DEMO_PRODUCTION: z.enum(["0", "1"]).default("0"),
   COOKIE_SECURE: z.enum(["0", "1"]).default("0"),
   /** Proxies whose X-Forwarded-For entries are believed: addresses or CIDR blocks, comma-separated. */
   TRUSTED_PROXIES: z.string().default(""),

@@ -1,3 +1,5 @@
+import type { FilterSpec } from "@/lib/dsp";
+
 /**
  * The invented demo lab (Cobalt Ridge Test Lab). Fictional rigs, devices and channels;
  * the seed writes them to the database and the demo rig simulator publishes them over MQTT.
@@ -105,6 +107,25 @@ export const DEMO_ALARM_RULES = [
     severity: "warning",
   },
 ] as const;
+
+/**
+ * The filter `npm start` puts into production on the demo supply pressure, so that the lab shows a
+ * filter hiding a fault from the first minutes: the 12 Hz pump-ripple notch followed by a 25 Hz
+ * Butterworth low-pass, which flattens the channel's 3 ms spikes below the seeded 240 bar limit.
+ */
+export const DEMO_PRODUCTION: { channel: string; name: string; notes: string; spec: FilterSpec } = {
+  channel: "hydraulic-press/supply-node/supply-pressure",
+  name: "Supply pressure: ripple notch and low-pass",
+  notes: "Demo: removes the 12 Hz pump ripple and the noise above 25 Hz. It also hides the short pressure spikes; see the Alarms page.",
+  spec: {
+    kind: "chain",
+    sampleRateHz: 1000,
+    stages: [
+      { kind: "biquad", shape: "notch", centerHz: 12, q: 2, sampleRateHz: 1000 },
+      { kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 25, sampleRateHz: 1000 },
+    ],
+  },
+};
 
 export const DEMO_ACCOUNTS = [
   { email: "operator@tapwright.test", displayName: "Demo Operator", role: "operator" },

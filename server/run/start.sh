@@ -4,6 +4,8 @@
 set -euo pipefail
 ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/../.." && pwd)
 cd "$ROOT"
+# The demo starts with a production filter on one channel (see DEMO_PRODUCTION in lib/demo/lab.ts).
+export DEMO_PRODUCTION=${DEMO_PRODUCTION:-1}
 source server/run/setup.sh tapwright
 export PORT=${PORT:-3000}
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { MASK_GRACE_MS, replayRules, type AlarmRule, type AlarmTransition } from "@/lib/alarms";
-import { DEMO_ALARM_RULES } from "@/lib/demo/lab";
+import { DEMO_ALARM_RULES, DEMO_PRODUCTION } from "@/lib/demo/lab";
 import { designFilter, filterSignal } from "@/lib/dsp";
 import { RECIPES } from "@/server/demo-rig/recipes";
 import { createSignalSource } from "@/server/demo-rig/signals";
@@ -9,15 +9,8 @@ const PATH = "hydraulic-press/supply-node/supply-pressure";
 const FS = 1000;
 const SECONDS = 15 * 60;
 
-/** The 12 Hz pump-ripple notch followed by a 25 Hz low-pass: what an engineer would put on this channel. */
-const chain = designFilter({
-  kind: "chain",
-  sampleRateHz: FS,
-  stages: [
-    { kind: "biquad", shape: "notch", centerHz: 12, q: 2, sampleRateHz: FS },
-    { kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 25, sampleRateHz: FS },
-  ],
-});
+/** The 12 Hz pump-ripple notch followed by a 25 Hz low-pass: the demo's production filter on this channel. */
+const chain = designFilter(DEMO_PRODUCTION.spec);
 
 const seeded = DEMO_ALARM_RULES.find((r) => r.channel === PATH)!;
 const rule: AlarmRule = { ...seeded, id: 1, enabled: true };
