@@ -5,7 +5,7 @@ import type { Clock, Logger } from "../clock";
 /**
  * Who published an acknowledgement: an authenticated device identity (the embedded broker knows
  * it), `topic` where the broker's own ACL binds topics to identities (an external broker configured
- * as the README shows, or device authentication switched off for development), or null for anyone
+ * as docs/operations.md shows, or device authentication switched off for development), or null for anyone
  * else (an internal client, an unauthenticated one).
  */
 export type AckPublisher = { kind: "device"; rig: string; device: string } | { kind: "topic" } | null;
