@@ -1,9 +1,10 @@
 "use client";
 
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useState } from "react";
 import { Controller, useFormContext, type FieldErrors, type FieldValues } from "react-hook-form";
 import { numberTextError, readNumberText } from "@/lib/bench/number-text";
 import { parseCoefficientText } from "@/lib/dsp";
+import { useLatest } from "@/components/hooks/use-latest";
 
 /** The message of the error at a dotted path (e.g. "cutoffHz.1"), or of its parent when the child has none. */
 export function errorAt(errors: FieldErrors<FieldValues>, path: string): string | undefined {
@@ -38,12 +39,11 @@ export function errorUnder(errors: FieldErrors<FieldValues>, path: string): stri
 
 /** Tells onValidity whether a form holds a usable value each time that changes, and "valid" when the form closes. */
 export function useReportValidity(valid: boolean, onValidity?: (valid: boolean) => void) {
-  const report = useRef(onValidity);
-  report.current = onValidity;
+  const report = useLatest(onValidity);
   useEffect(() => {
     report.current?.(valid);
-  }, [valid]);
-  useEffect(() => () => report.current?.(true), []);
+  }, [valid, report]);
+  useEffect(() => () => report.current?.(true), [report]);
 }
 
 /** A field's label, with its unit in brackets when it has one. */

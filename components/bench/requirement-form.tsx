@@ -1,13 +1,14 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useMemo } from "react";
 import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
 import { IIR_FAMILIES, IIR_RESPONSES, orderRequirementSchema, type OrderRequirement, type StageSpec } from "@/lib/dsp";
 import { defaultRequirement, specFromRequirement } from "@/lib/bench/requirement";
 import { FAMILY_LABELS } from "@/lib/bench/spec-defaults";
 import { hz } from "@/lib/bench/format";
 import { NumberField, SelectField, useReportValidity } from "./form-fields";
+import { useLatest } from "@/components/hooks/use-latest";
 
 function edges(response: string, current: unknown, wider: boolean): number | [number, number] {
   const band = response === "bandpass" || response === "bandstop";
@@ -17,6 +18,19 @@ function edges(response: string, current: unknown, wider: boolean): number | [nu
     return wider ? [f * 0.6, f * 1.6] : [f * 0.8, f * 1.25];
   }
   return Array.isArray(current) ? Math.sqrt(current[0] * current[1]) : (current as number);
+}
+
+/** The order estimate shown under the form, with the design it gives, or null while the requirement does not parse. */
+function estimateFor(values: OrderRequirement): { text: string; error: boolean; spec: StageSpec | null } | null {
+  const parsed = orderRequirementSchema.safeParse(values);
+  if (!parsed.success) return null;
+  try {
+    const spec = specFromRequirement(parsed.data);
+    const cut = typeof spec.cutoffHz === "number" ? hz(spec.cutoffHz) : `${hz(spec.cutoffHz[0])}–${hz(spec.cutoffHz[1])}`;
+    return { text: `Estimated order ${spec.order}, natural cutoff ${cut}.`, error: false, spec };
+  } catch (err) {
+    return { text: err instanceof Error ? err.message : String(err), error: true, spec: null };
+  }
 }
 
 /**
@@ -30,23 +44,12 @@ export function RequirementForm({ sampleRateHz, onValid, onValidity }: { sampleR
     defaultValues: defaultRequirement(sampleRateHz),
   });
   const values = useWatch({ control: form.control }) as OrderRequirement;
-  const [estimate, setEstimate] = useState<{ text: string; error: boolean } | null>(null);
-  const onValidRef = useRef(onValid);
-  onValidRef.current = onValid;
+  const estimate = useMemo(() => estimateFor(values), [values]);
+  const onValidRef = useLatest(onValid);
   useReportValidity(orderRequirementSchema.safeParse(values).success && estimate?.error !== true, onValidity);
-
   useEffect(() => {
-    const parsed = orderRequirementSchema.safeParse(values);
-    if (!parsed.success) return setEstimate(null);
-    try {
-      const spec = specFromRequirement(parsed.data);
-      const cut = typeof spec.cutoffHz === "number" ? hz(spec.cutoffHz) : `${hz(spec.cutoffHz[0])}–${hz(spec.cutoffHz[1])}`;
-      setEstimate({ text: `Estimated order ${spec.order}, natural cutoff ${cut}.`, error: false });
-      onValidRef.current(spec);
-    } catch (err) {
-      setEstimate({ text: err instanceof Error ? err.message : String(err), error: true });
-    }
-  }, [values]);
+    if (estimate?.spec) onValidRef.current(estimate.spec);
+  }, [estimate, onValidRef]);
 
   const band = Array.isArray(values.passbandHz);
   const onResponse = (r: string) => {

@@ -121,7 +121,7 @@ export interface TokenUse {
  * (disabling revokes it for good, see migration 0010). Counts the request in the token's one-minute
  * window and records it as the last use, in one atomic update.
  */
-export async function useToken(db: Conn, token: string): Promise<TokenUse | null> {
+export async function spendToken(db: Conn, token: string): Promise<TokenUse | null> {
   if (!TOKEN_PATTERN.test(token)) return null;
   const fresh = sql<boolean>`t.window_start is null or t.window_start <= now() - ${TOKEN_RATE.windowMs} * interval '1 millisecond'`;
   const row = await db

@@ -72,13 +72,13 @@ async function HiddenExcursionsCheck(props: CheckProps) {
   const production = active ? deployedDesign(active) : null;
   const fs = channel.sampleRateHz;
   const sources: Source[] = [];
-  let failure: string | null = null;
+  const failures: string[] = [];
   const add = async (label: string, samples: Float64Array) => {
     try {
       sources.push({ label, ...(await check(rules, props, production, samples, fs)) });
     } catch (err) {
       console.warn(`[hidden excursions] ${channel.path} over ${label}: ${err instanceof Error ? err.message : String(err)}`);
-      failure = err instanceof Error ? err.message : "The check could not be made.";
+      failures.push(err instanceof Error ? err.message : "The check could not be made.");
     }
   };
   const recent = await recentSamples(channel.path);
@@ -86,6 +86,7 @@ async function HiddenExcursionsCheck(props: CheckProps) {
   const [newest] = await listRecordings(db(), channel.id);
   const recorded = newest && newest.sampleRateHz === fs ? await findRecordingSamples(db(), newest.id) : undefined;
   if (newest && recorded) await add(`the recording “${newest.name}” (${seconds(recorded.length, fs)})`, recorded);
+  const failure = failures.at(-1) ?? null;
   return (
     <div className="rounded-md border border-dashed border-fault/60 p-2 text-xs" data-testid="hidden-excursions">
       <p className="font-medium">Would this filter hide a fault?</p>
