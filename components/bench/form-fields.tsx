@@ -5,6 +5,7 @@ import { Controller, useFormContext, type FieldErrors, type FieldValues } from "
 import { numberTextError, readNumberText } from "@/lib/bench/number-text";
 import { parseCoefficientText } from "@/lib/dsp";
 import { useLatest } from "@/components/hooks/use-latest";
+import { errorMessage } from "@/lib/errors";
 
 /** The message of the error at a dotted path (e.g. "cutoffHz.1"), or of its parent when the child has none. */
 export function errorAt(errors: FieldErrors<FieldValues>, path: string): string | undefined {
@@ -176,7 +177,7 @@ export function ListField({ name, label, rows = false, lines = 2, hint }: { name
               } catch (err) {
                 // The form must not keep the last list that parsed while the box shows text that does not.
                 field.onChange(rows ? [[Number.NaN]] : [Number.NaN]);
-                setParseError(err instanceof Error ? err.message : String(err));
+                setParseError(errorMessage(err));
               }
             }}
           />

@@ -9,6 +9,7 @@ import { FAMILY_LABELS } from "@/lib/bench/spec-defaults";
 import { hz } from "@/lib/bench/format";
 import { NumberField, SelectField, useReportValidity } from "./form-fields";
 import { useLatest } from "@/components/hooks/use-latest";
+import { errorMessage } from "@/lib/errors";
 
 function edges(response: string, current: unknown, wider: boolean): number | [number, number] {
   const band = response === "bandpass" || response === "bandstop";
@@ -29,7 +30,7 @@ function estimateFor(values: OrderRequirement): { text: string; error: boolean; 
     const cut = typeof spec.cutoffHz === "number" ? hz(spec.cutoffHz) : `${hz(spec.cutoffHz[0])}–${hz(spec.cutoffHz[1])}`;
     return { text: `Estimated order ${spec.order}, natural cutoff ${cut}.`, error: false, spec };
   } catch (err) {
-    return { text: err instanceof Error ? err.message : String(err), error: true, spec: null };
+    return { text: errorMessage(err), error: true, spec: null };
   }
 }
 

@@ -1,6 +1,7 @@
 import { ACK_FILTER, configTopic, deviceAckSchema, parseTopic, type DeviceAck, type DeviceConfig } from "@/lib/protocol";
 import type { MessageBus } from "../broker/bus";
 import type { Clock, Logger } from "../clock";
+import { errorMessage } from "@/lib/errors";
 
 /**
  * Who published an acknowledgement: an authenticated device identity (the embedded broker knows
@@ -73,7 +74,7 @@ export async function createConfigExchange(deps: {
         }
       }
     } catch (err) {
-      deps.logger.warn(`ack handler failed: ${err instanceof Error ? err.message : String(err)}`);
+      deps.logger.warn(`ack handler failed: ${errorMessage(err)}`);
     }
   });
 

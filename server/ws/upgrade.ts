@@ -9,6 +9,7 @@ import { SESSION_COOKIE, type SessionData } from "@/lib/auth/session-config";
 import { WS_PATH } from "@/lib/protocol";
 import type { Logger } from "../clock";
 import type { Hub } from "./hub";
+import { errorMessage } from "@/lib/errors";
 
 /** The path browsers connect to: ws://<sidecar>/ws. */
 
@@ -127,7 +128,7 @@ export function createWsEndpoint(deps: {
         attach(ws, signedIn.user, signedIn.session);
       });
     } catch (err) {
-      deps.logger.warn(`upgrade failed: ${err instanceof Error ? err.message : String(err)}`);
+      deps.logger.warn(`upgrade failed: ${errorMessage(err)}`);
       refuse(socket, 503, "Service Unavailable");
     }
   }

@@ -9,6 +9,7 @@ import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { env } from "@/lib/env";
 import { decodeSamples } from "@/lib/recordings/samples";
 import { computeForRequest } from "@/lib/workers";
+import { errorMessage } from "@/lib/errors";
 
 /** How long the live service may take to hand over its recent samples, ms. */
 const SIDECAR_TIMEOUT_MS = 1_500;
@@ -20,7 +21,7 @@ async function recentSamples(path: string): Promise<{ samples: Float64Array; sam
     if (!res.ok) return null;
     return { samples: decodeSamples(new Uint8Array(await res.arrayBuffer())), sampleRateHz: Number(res.headers.get("x-sample-rate-hz")) };
   } catch (err) {
-    console.warn(`[hidden excursions] recent samples of ${path} not available: ${err instanceof Error ? err.message : String(err)}`);
+    console.warn(`[hidden excursions] recent samples of ${path} not available: ${errorMessage(err)}`);
     return null;
   }
 }
@@ -77,7 +78,7 @@ async function HiddenExcursionsCheck(props: CheckProps) {
     try {
       sources.push({ label, ...(await check(rules, props, production, samples, fs)) });
     } catch (err) {
-      console.warn(`[hidden excursions] ${channel.path} over ${label}: ${err instanceof Error ? err.message : String(err)}`);
+      console.warn(`[hidden excursions] ${channel.path} over ${label}: ${errorMessage(err)}`);
       failures.push(err instanceof Error ? err.message : "The check could not be made.");
     }
   };
