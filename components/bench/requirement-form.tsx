@@ -2,7 +2,7 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useMemo } from "react";
-import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
+import { FormProvider, useForm, useWatch } from "react-hook-form";
 import { IIR_FAMILIES, IIR_RESPONSES, orderRequirementSchema, type OrderRequirement, type StageSpec } from "@/lib/dsp";
 import { defaultRequirement, specFromRequirement } from "@/lib/bench/requirement";
 import { FAMILY_LABELS } from "@/lib/bench/spec-defaults";
@@ -40,7 +40,7 @@ function estimateFor(values: OrderRequirement): { text: string; error: boolean; 
  */
 export function RequirementForm({ sampleRateHz, onValid, onValidity }: { sampleRateHz: number; onValid: (spec: StageSpec) => void; onValidity?: (valid: boolean) => void }) {
   const form = useForm<OrderRequirement>({
-    resolver: zodResolver(orderRequirementSchema) as unknown as Resolver<OrderRequirement>,
+    resolver: zodResolver(orderRequirementSchema),
     mode: "onChange",
     defaultValues: defaultRequirement(sampleRateHz),
   });

@@ -2,7 +2,7 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useRef } from "react";
-import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
+import { FormProvider, useForm, useWatch } from "react-hook-form";
 import { FAMILY_LABELS, METHOD_LABELS } from "@/lib/bench/spec-defaults";
 import {
   biquadShapes,
@@ -38,7 +38,7 @@ function cutoffFor(response: string, current: unknown): number | [number, number
  */
 export function SpecForm({ initial, onValid, onValidity }: { initial: StageSpec; onValid: (spec: StageSpec) => void; onValidity?: (valid: boolean) => void }) {
   const form = useForm<StageSpec>({
-    resolver: zodResolver(stageSpecSchema) as unknown as Resolver<StageSpec>,
+    resolver: zodResolver(stageSpecSchema),
     mode: "onChange",
     defaultValues: initial,
   });

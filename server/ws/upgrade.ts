@@ -1,4 +1,5 @@
 import type { IncomingMessage } from "node:http";
+import { Socket } from "node:net";
 import type { Duplex } from "node:stream";
 import { unsealData } from "iron-session";
 import { WebSocketServer, type WebSocket } from "ws";
@@ -86,8 +87,6 @@ export function createWsEndpoint(deps: {
 
   function attach(ws: WebSocket, user: SessionUser, session: SessionData): void {
     const id = `c${++next}`;
-    const socket = (ws as unknown as { _socket?: { setNoDelay?: (on: boolean) => void } })._socket;
-    socket?.setNoDelay?.(true);
     deps.hub.add({
       id,
       user,
@@ -125,6 +124,8 @@ export function createWsEndpoint(deps: {
       });
       wss.handleUpgrade(req, socket, head, (ws) => {
         opened = true;
+        // Frames go out as soon as they are written (Nagle's algorithm off), as on every broker socket.
+        if (socket instanceof Socket) socket.setNoDelay(true);
         attach(ws, signedIn.user, signedIn.session);
       });
     } catch (err) {
