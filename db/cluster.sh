@@ -55,6 +55,8 @@ DATA=$(resolve_dir)
 SECRETS=$(dirname "$DATA")
 
 running() { [ -n "$BIN" ] && as_pg "$BIN/pg_ctl" -D "$DATA" status >/dev/null 2>&1; }
+# Whether something already accepts connections on the cluster's port (another cluster, another program).
+port_taken() { (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null; }
 password_file() { echo "$SECRETS/pg-$1.password"; }
 password() {
   local f
@@ -171,9 +173,17 @@ case "${1:-}" in
     fi
     configured || configure
     if ! running; then
+      if port_taken; then
+        echo "PostgreSQL cannot start: another server already listens on 127.0.0.1:$PORT. Stop it, or choose a free port: PG_PORT=$((PORT + 1)) npm start (log: $DATA/server.log)" >&2
+        exit 1
+      fi
       # No Unix socket anywhere: a socket file inside the tree breaks the CSS build's file scan.
-      as_pg "$BIN/pg_ctl" -D "$DATA" -l "$DATA/server.log" -w -t 30 \
-        -o "-c listen_addresses=127.0.0.1 -p $PORT -c unix_socket_directories='' -c fsync=off -c password_encryption=scram-sha-256" start >/dev/null
+      if ! as_pg "$BIN/pg_ctl" -D "$DATA" -l "$DATA/server.log" -w -t 30 \
+        -o "-c listen_addresses=127.0.0.1 -p $PORT -c unix_socket_directories='' -c fsync=off -c password_encryption=scram-sha-256" start >/dev/null 2>&1; then
+        why=$(grep -E 'FATAL|ERROR' "$DATA/server.log" 2>/dev/null | tail -n 1 | sed -E 's/^.*(FATAL|ERROR): +//')
+        echo "PostgreSQL could not start on 127.0.0.1:$PORT: ${why:-see its log}. If the port is the problem, choose another: PG_PORT=$((PORT + 1)) npm start (log: $DATA/server.log)" >&2
+        exit 1
+      fi
     fi
     for db in "${@:2}"; do ensure_database "$db"; done
     echo "PostgreSQL running on 127.0.0.1:$PORT (data in $DATA, password authentication)"

@@ -1,10 +1,13 @@
 import { env } from "@/lib/env";
 import { createDb, type Db } from "./client";
 
-const holder = globalThis as unknown as { tapwrightDb?: Db };
+declare global {
+  // One handle per process, kept on globalThis so that Next's module reloads in development reuse it.
+  var tapwrightDb: Db | undefined;
+}
 
 /** The process-wide database handle (one pool per process). */
 export function db(): Db {
-  holder.tapwrightDb ??= createDb(env().DATABASE_URL);
-  return holder.tapwrightDb;
+  globalThis.tapwrightDb ??= createDb(env().DATABASE_URL);
+  return globalThis.tapwrightDb;
 }

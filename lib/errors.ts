@@ -63,10 +63,16 @@ export function isDatabaseDown(err: unknown): boolean {
     seen.add(e);
     const code = (e as { code?: unknown }).code;
     if (typeof code === "string" && DOWN_CODES.has(code)) return true;
+    // pg-pool throws these two as plain Errors without a code: their message is all there is to go by.
     if (e instanceof Error && /timeout exceeded when trying to connect|Connection terminated/i.test(e.message)) return true;
     const inner = (e as { errors?: unknown[] }).errors;
     if (Array.isArray(inner) && inner.some(isDatabaseDown)) return true;
     e = (e as { cause?: unknown }).cause;
   }
   return false;
+}
+
+/** The message of anything thrown, for a log line or a form: an Error's message, anything else as text. */
+export function errorMessage(err: unknown): string {
+  return err instanceof Error ? err.message : String(err);
 }

@@ -9,6 +9,7 @@ import { consoleLogger, systemClock } from "./clock";
 import { startDeploymentWorker, type DeploymentWorker } from "./deploy/worker";
 import { smtpTransport, startOutboxSender, type OutboxSender } from "./mail/outbox-sender";
 import { startSidecar, type Sidecar } from "./sidecar";
+import { errorMessage } from "@/lib/errors";
 
 /** Composition root: reads the environment once and starts the sidecar; SIGTERM/SIGINT stop it cleanly. */
 const e = env();
@@ -44,7 +45,7 @@ async function shutdown(signal: string): Promise<void> {
     await db.destroy();
     process.exit(0);
   } catch (err) {
-    consoleLogger.warn(`shutdown failed: ${err instanceof Error ? err.message : String(err)}`);
+    consoleLogger.warn(`shutdown failed: ${errorMessage(err)}`);
     process.exit(1);
   }
 }

@@ -3,6 +3,7 @@ import type { Db } from "@/db/client";
 import { listChannels } from "@/db/queries/channels";
 import { liveSessionAccounts } from "@/db/queries/sessions";
 import { demoDeviceCredential } from "@/lib/demo/device-credentials";
+import { errorMessage } from "@/lib/errors";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { filteredTopic, parseTopic, SAMPLES_FILTER, sharedFilter, type LiveOverview } from "@/lib/protocol";
 import type { MessageBus } from "./broker/bus";
@@ -17,6 +18,7 @@ import { createFaultLog, type FaultLog } from "./ingest/fault-log";
 import { createIngest, type Ingest } from "./ingest/ingest";
 import { trackDeviceStatus, type DeviceStatusTracker } from "./ingest/status";
 import { createPipeline, type Pipeline } from "./pipeline/pipeline";
+import { throttledWarn } from "./throttled-log";
 import { createHub, type Hub } from "./ws/hub";
 import { createWsEndpoint } from "./ws/upgrade";
 
@@ -102,15 +104,17 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
   // Each simulated device signs in as itself, with the credential the seed stored for it.
   const demoCredentials: DemoRigOptions["credentials"] = (rig, device) => demoDeviceCredential(opts.sessionSecret, rig, device);
 
+  const warnEvery = throttledWarn({ clock, logger });
   const pipeline = createPipeline({
     channels,
     now: () => clock.now(),
     onFiltered: opts.republishFiltered
       ? (path, batch, values) => {
           const payload = JSON.stringify({ seq: batch.seq, t0: batch.t0, sampleRateHz: batch.sampleRateHz, values: Array.from(values) });
-          bus.publish(filteredTopic(path), payload).catch(() => undefined);
+          bus.publish(filteredTopic(path), payload).catch((err: unknown) => warnEvery(`republish ${path}`, `republishing ${path} failed: ${errorMessage(err)}`));
         }
       : undefined,
+    onMetricsError: (path, id, err) => warnEvery(`metrics ${path} ${id}`, `metrics of candidate ${id} on ${path} failed: ${errorMessage(err)}`),
   });
   const ingest = createIngest({ channels, sink: pipeline, faults });
   const samplesFilter =
@@ -217,7 +221,7 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     overview,
     async close() {
       hub.stop();
-      await demo?.stop().catch((err: unknown) => logger.warn(`demo rig did not stop cleanly: ${err instanceof Error ? err.message : String(err)}`));
+      await demo?.stop().catch((err: unknown) => logger.warn(`demo rig did not stop cleanly: ${errorMessage(err)}`));
       await ws.close();
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));

@@ -1,5 +1,5 @@
 import { db } from "@/db";
-import { auditTokenUse, useToken, type TokenUse } from "@/db/queries/tokens";
+import { auditTokenUse, spendToken, type TokenUse } from "@/db/queries/tokens";
 import { requireRole, type SessionUser } from "@/lib/auth/guard";
 import type { Role } from "@/lib/auth/roles";
 import { requireScope, TOKEN_RATE, type TokenScope } from "@/lib/auth/token-scope";
@@ -23,7 +23,7 @@ export async function requireCaller(req: Request, role: Role, scope: TokenScope 
   const header = req.headers.get("authorization");
   if (header === null) return { user: await requireUser(role), token: null };
   const match = /^Bearer +(\S+)$/i.exec(header.trim());
-  const use = match ? await useToken(db(), match[1]) : null;
+  const use = match ? await spendToken(db(), match[1]) : null;
   if (!use) throw new AppError("unauthorized", "The API token is missing, unknown or revoked, or its owner is disabled.");
   if (use.limited) {
     throw new AppError("too_many_requests", `This token made more than ${TOKEN_RATE.maxPerWindow} requests within a minute. Wait a minute and try again.`);

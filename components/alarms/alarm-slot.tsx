@@ -4,6 +4,7 @@ import Link from "next/link";
 import { useMemo } from "react";
 import { worstSeverity } from "@/lib/alarms/view";
 import { useAlarmEvents } from "./alarm-feed";
+import { useClock } from "@/components/hooks/use-clock";
 
 const OPEN = { state: "open" } as const;
 const MASKED = { kind: "masked" } as const;
@@ -18,8 +19,9 @@ const RECENT_MS = 3_600_000;
 export function AlarmSlot({ path, ruleCount }: { path: string; ruleCount: number }) {
   const open = useAlarmEvents(OPEN);
   const masked = useAlarmEvents(MASKED, 100);
+  const now = useClock(60_000);
   const mine = useMemo(() => open.events.filter((e) => e.channel === path), [open.events, path]);
-  const hidden = masked.events.filter((e) => e.channel === path && Date.now() - Date.parse(e.raisedAt) < RECENT_MS).length;
+  const hidden = masked.events.filter((e) => e.channel === path && now - Date.parse(e.raisedAt) < RECENT_MS).length;
   const raised = mine.filter((e) => e.state === "raised");
   const unacknowledged = mine.filter((e) => e.acknowledgedAt === null).length;
   const href = `/alarms?channel=${encodeURIComponent(path)}`;

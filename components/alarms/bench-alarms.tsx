@@ -10,6 +10,7 @@ import { TraceMarks } from "@/components/annotations/trace-marks";
 import { traceMarks } from "@/lib/alarms/marks";
 import { AlarmFeed, useAlarmEvents } from "./alarm-feed";
 import { EventList } from "./event-row";
+import { useClock } from "@/components/hooks/use-clock";
 
 interface BenchChannelRef {
   path: string;
@@ -43,7 +44,8 @@ function useChannelNotes(path: string) {
 function ChannelMarks({ path, children }: { path: string; children: ReactNode }) {
   const notes = useChannelNotes(path);
   const alarms = useAlarmEvents({ channel: path }, RECENT);
-  return <TraceMarks marks={traceMarks(notes.data ?? [], alarms.events, 0, Date.now())}>{children}</TraceMarks>;
+  const now = useClock(1000);
+  return <TraceMarks marks={traceMarks(notes.data ?? [], alarms.events, 0, now)}>{children}</TraceMarks>;
 }
 
 /** One red line above the traces while something is open on the channel, pointing to the strip below. */

@@ -4,6 +4,7 @@ import { useMemo, useState } from "react";
 import { arithmeticCaution, compareArithmetic } from "@/lib/bench/arithmetic";
 import { FIXED_ARITHMETICS, type FilterDesign, type FixedArithmetic, type QuantFormat, type QuantizedDesign } from "@/lib/dsp";
 import { CautionsList } from "./cautions-list";
+import { errorMessage } from "@/lib/errors";
 
 const CHOICES: Record<FixedArithmetic, string> = {
   tapwright: "Tapwright (rounding, the C header export)",
@@ -22,7 +23,7 @@ export function ArithmeticPanel({ design, quantized, format }: { design: FilterD
     try {
       return { ok: true as const, comparison: compareArithmetic(design, quantized, arithmetic) };
     } catch (err) {
-      return { ok: false as const, message: err instanceof Error ? err.message : String(err) };
+      return { ok: false as const, message: errorMessage(err) };
     }
   }, [design, quantized, arithmetic]);
   if (format === "f32") {

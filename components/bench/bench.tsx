@@ -20,6 +20,7 @@ import { LivePanel, type TraceInfo } from "./live-panel";
 import { SpectrumPanel } from "./spectrum-panel";
 import { useCandidates } from "./use-candidates";
 import { useLiveChannel } from "./use-live-channel";
+import { useLatest } from "@/components/hooks/use-latest";
 
 export interface BenchChannel {
   path: string;
@@ -54,8 +55,7 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
   });
   const { candidates, designs, cautions, editingId, setEditingId, editing, addCandidate, removeCandidate, setCandidateVisible, seed } = candidateList;
   const sentRef = useRef(new Map<string, string>());
-  const candidatesRef = useRef(candidates);
-  candidatesRef.current = candidates;
+  const candidatesRef = useLatest(candidates);
 
   const production = useQuery({ queryKey: ["production", channel.path], queryFn: () => fetchProduction(channel.path) });
 
@@ -77,7 +77,7 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
       send({ type: "candidate.add", channel: channel.path, id: c.id, spec: c.spec });
       sent.set(c.id, text);
     }
-  }, [canEdit, channel.path]);
+  }, [canEdit, channel.path, candidatesRef]);
 
   const live = useLiveChannel({
     path: channel.path,

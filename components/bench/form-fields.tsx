@@ -1,9 +1,11 @@
 "use client";
 
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useState } from "react";
 import { Controller, useFormContext, type FieldErrors, type FieldValues } from "react-hook-form";
 import { numberTextError, readNumberText } from "@/lib/bench/number-text";
 import { parseCoefficientText } from "@/lib/dsp";
+import { useLatest } from "@/components/hooks/use-latest";
+import { errorMessage } from "@/lib/errors";
 
 /** The message of the error at a dotted path (e.g. "cutoffHz.1"), or of its parent when the child has none. */
 export function errorAt(errors: FieldErrors<FieldValues>, path: string): string | undefined {
@@ -38,12 +40,11 @@ export function errorUnder(errors: FieldErrors<FieldValues>, path: string): stri
 
 /** Tells onValidity whether a form holds a usable value each time that changes, and "valid" when the form closes. */
 export function useReportValidity(valid: boolean, onValidity?: (valid: boolean) => void) {
-  const report = useRef(onValidity);
-  report.current = onValidity;
+  const report = useLatest(onValidity);
   useEffect(() => {
     report.current?.(valid);
-  }, [valid]);
-  useEffect(() => () => report.current?.(true), []);
+  }, [valid, report]);
+  useEffect(() => () => report.current?.(true), [report]);
 }
 
 /** A field's label, with its unit in brackets when it has one. */
@@ -176,7 +177,7 @@ export function ListField({ name, label, rows = false, lines = 2, hint }: { name
               } catch (err) {
                 // The form must not keep the last list that parsed while the box shows text that does not.
                 field.onChange(rows ? [[Number.NaN]] : [Number.NaN]);
-                setParseError(err instanceof Error ? err.message : String(err));
+                setParseError(errorMessage(err));
               }
             }}
           />

@@ -1,7 +1,7 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
+import { FormProvider, useForm, useWatch } from "react-hook-form";
 import { harmonicFormSchema, seriesOf, SEED_NOTCH_Q, type HarmonicForm, type HarmonicSeries } from "@/lib/bench/chain-edit";
 import { NumberField } from "./form-fields";
 
@@ -14,7 +14,7 @@ const startingFundamental = (fs: number) => (fs > 120 ? 50 : Math.max(1, Math.ro
  */
 export function HarmonicSeriesForm({ sampleRateHz, disabled, onAdd }: { sampleRateHz: number; disabled: boolean; onAdd: (series: HarmonicSeries) => void }) {
   const form = useForm<HarmonicForm>({
-    resolver: zodResolver(harmonicFormSchema) as unknown as Resolver<HarmonicForm>,
+    resolver: zodResolver(harmonicFormSchema),
     mode: "onChange",
     defaultValues: { fundamentalHz: startingFundamental(sampleRateHz), upToNyquist: false, count: 3, notchQ: SEED_NOTCH_Q, sampleRateHz },
   });

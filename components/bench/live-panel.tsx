@@ -1,6 +1,6 @@
 "use client";
 
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useEffect, useMemo, useState } from "react";
 import { UPlotChart, type ChartSeries } from "@/components/charts/uplot-chart";
 import { liveSource } from "@/components/charts/sources";
 import { useTraceMarks } from "@/components/annotations/trace-marks";
@@ -10,6 +10,7 @@ import type { LiveStore } from "@/lib/bench/live-store";
 import { ConnectionBadge } from "./connection-badge";
 import { TraceToggles } from "./trace-toggles";
 import type { LiveStatus } from "./use-live-channel";
+import { useLatest } from "@/components/hooks/use-latest";
 
 export interface TraceInfo {
   /** Trace id in frames ("raw", "production" or a candidate id). */
@@ -45,11 +46,9 @@ export function LivePanel({
   const [manualY, setManualY] = useState(false);
   const [yMin, setYMin] = useState("");
   const [yMax, setYMax] = useState("");
-  const windowRef = useRef(windowSeconds);
-  windowRef.current = windowSeconds;
-  const slotsRef = useRef<number[]>([]);
-  slotsRef.current = traces.map((t) => t.slot);
-  const source = useMemo(() => liveSource(store, () => slotsRef.current, () => windowRef.current), [store]);
+  const windowRef = useLatest(windowSeconds);
+  const slotsRef = useLatest(traces.map((t) => t.slot));
+  const source = useMemo(() => liveSource(store, slotsRef, windowRef), [store, slotsRef, windowRef]);
   const series: ChartSeries[] = traces.map((t) => ({ label: t.label, color: t.color, unit, show: t.visible, width: 1 }));
   const lo = Number(yMin);
   const hi = Number(yMax);

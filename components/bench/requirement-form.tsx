@@ -1,13 +1,15 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useEffect, useRef, useState } from "react";
-import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
+import { useEffect, useMemo } from "react";
+import { FormProvider, useForm, useWatch } from "react-hook-form";
 import { IIR_FAMILIES, IIR_RESPONSES, orderRequirementSchema, type OrderRequirement, type StageSpec } from "@/lib/dsp";
 import { defaultRequirement, specFromRequirement } from "@/lib/bench/requirement";
 import { FAMILY_LABELS } from "@/lib/bench/spec-defaults";
 import { hz } from "@/lib/bench/format";
 import { NumberField, SelectField, useReportValidity } from "./form-fields";
+import { useLatest } from "@/components/hooks/use-latest";
+import { errorMessage } from "@/lib/errors";
 
 function edges(response: string, current: unknown, wider: boolean): number | [number, number] {
   const band = response === "bandpass" || response === "bandstop";
@@ -19,34 +21,36 @@ function edges(response: string, current: unknown, wider: boolean): number | [nu
   return Array.isArray(current) ? Math.sqrt(current[0] * current[1]) : (current as number);
 }
 
+/** The order estimate shown under the form, with the design it gives, or null while the requirement does not parse. */
+function estimateFor(values: OrderRequirement): { text: string; error: boolean; spec: StageSpec | null } | null {
+  const parsed = orderRequirementSchema.safeParse(values);
+  if (!parsed.success) return null;
+  try {
+    const spec = specFromRequirement(parsed.data);
+    const cut = typeof spec.cutoffHz === "number" ? hz(spec.cutoffHz) : `${hz(spec.cutoffHz[0])}–${hz(spec.cutoffHz[1])}`;
+    return { text: `Estimated order ${spec.order}, natural cutoff ${cut}.`, error: false, spec };
+  } catch (err) {
+    return { text: errorMessage(err), error: true, spec: null };
+  }
+}
+
 /**
  * An IIR requirement (pass and stop edges, ripple, attenuation) checked by lib/dsp's orderRequirementSchema;
  * each valid requirement is turned into a design at the order estimateOrder finds.
  */
 export function RequirementForm({ sampleRateHz, onValid, onValidity }: { sampleRateHz: number; onValid: (spec: StageSpec) => void; onValidity?: (valid: boolean) => void }) {
   const form = useForm<OrderRequirement>({
-    resolver: zodResolver(orderRequirementSchema) as unknown as Resolver<OrderRequirement>,
+    resolver: zodResolver(orderRequirementSchema),
     mode: "onChange",
     defaultValues: defaultRequirement(sampleRateHz),
   });
   const values = useWatch({ control: form.control }) as OrderRequirement;
-  const [estimate, setEstimate] = useState<{ text: string; error: boolean } | null>(null);
-  const onValidRef = useRef(onValid);
-  onValidRef.current = onValid;
+  const estimate = useMemo(() => estimateFor(values), [values]);
+  const onValidRef = useLatest(onValid);
   useReportValidity(orderRequirementSchema.safeParse(values).success && estimate?.error !== true, onValidity);
-
   useEffect(() => {
-    const parsed = orderRequirementSchema.safeParse(values);
-    if (!parsed.success) return setEstimate(null);
-    try {
-      const spec = specFromRequirement(parsed.data);
-      const cut = typeof spec.cutoffHz === "number" ? hz(spec.cutoffHz) : `${hz(spec.cutoffHz[0])}–${hz(spec.cutoffHz[1])}`;
-      setEstimate({ text: `Estimated order ${spec.order}, natural cutoff ${cut}.`, error: false });
-      onValidRef.current(spec);
-    } catch (err) {
-      setEstimate({ text: err instanceof Error ? err.message : String(err), error: true });
-    }
-  }, [values]);
+    if (estimate?.spec) onValidRef.current(estimate.spec);
+  }, [estimate, onValidRef]);
 
   const band = Array.isArray(values.passbandHz);
   const onResponse = (r: string) => {

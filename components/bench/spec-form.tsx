@@ -2,7 +2,7 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useRef } from "react";
-import { FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
+import { FormProvider, useForm, useWatch } from "react-hook-form";
 import { FAMILY_LABELS, METHOD_LABELS } from "@/lib/bench/spec-defaults";
 import {
   biquadShapes,
@@ -17,6 +17,7 @@ import {
 } from "@/lib/dsp";
 import { DesignFields } from "./design-fields";
 import { ListField, NumberField, SelectField, useReportValidity } from "./form-fields";
+import { useLatest } from "@/components/hooks/use-latest";
 
 const opts = (values: readonly string[], labels: Record<string, string> = {}) => values.map((v) => ({ value: v, label: labels[v] ?? v }));
 /** Moves a cutoff between one frequency (low/high-pass) and a pair (band designs) when the response changes. */
@@ -37,14 +38,13 @@ function cutoffFor(response: string, current: unknown): number | [number, number
  */
 export function SpecForm({ initial, onValid, onValidity }: { initial: StageSpec; onValid: (spec: StageSpec) => void; onValidity?: (valid: boolean) => void }) {
   const form = useForm<StageSpec>({
-    resolver: zodResolver(stageSpecSchema) as unknown as Resolver<StageSpec>,
+    resolver: zodResolver(stageSpecSchema),
     mode: "onChange",
     defaultValues: initial,
   });
   const values = useWatch({ control: form.control }) as StageSpec;
   const lastSent = useRef(JSON.stringify(initial));
-  const onValidRef = useRef(onValid);
-  onValidRef.current = onValid;
+  const onValidRef = useLatest(onValid);
 
   useEffect(() => {
     void form.trigger();
@@ -60,7 +60,7 @@ export function SpecForm({ initial, onValid, onValidity }: { initial: StageSpec;
     if (text === lastSent.current) return;
     lastSent.current = text;
     onValidRef.current(parsed.data);
-  }, [values]);
+  }, [values, onValidRef]);
 
   const setCutoffs = (response: string) => form.setValue("cutoffHz", cutoffFor(response, form.getValues("cutoffHz")), { shouldValidate: true });
   const band = (values.kind === "iir" || values.kind === "fir") && Array.isArray(values.cutoffHz);

@@ -5,6 +5,7 @@ import type uPlot from "uplot";
 import { UPlotChart } from "@/components/charts/uplot-chart";
 import { staticSource } from "@/components/charts/sources";
 import { Swatch } from "@/components/ui/swatch";
+import { useLatest } from "@/components/hooks/use-latest";
 import { hz } from "@/lib/bench/format";
 import type { LiveStore } from "@/lib/bench/live-store";
 import { levelAtDb, liveSpectrum, type LiveSpectrum } from "@/lib/bench/spectrum";
@@ -59,23 +60,28 @@ export function SpectrumPanel({
   const [computed, setComputed] = useState<Computed | null>(null);
   const [paused, setPaused] = useState(false);
   const key = traces.map((t) => `${t.id}:${t.slot}`).join(",");
+  const tracesRef = useLatest(traces);
+  const onPeaksRef = useLatest(onPeaks);
   useEffect(() => {
     if (paused) return;
     const tick = () => {
-      const c = compute(store, traces);
+      const c = compute(store, tracesRef.current);
       setComputed(c);
-      if (c) onPeaks?.(c.lead.peaks.map((p) => p.freqHz));
+      if (c) onPeaksRef.current?.(c.lead.peaks.map((p) => p.freqHz));
     };
     tick();
     const id = setInterval(tick, REFRESH_MS);
     return () => clearInterval(id);
-  }, [store, key, paused]);
+  }, [store, key, paused, tracesRef, onPeaksRef]);
 
   const source = useMemo(() => {
     if (!computed) return staticSource([[], ...traces.map(() => [])] as uPlot.AlignedData);
     const { freqsHz, psdDb } = computed.lead;
     const from = freqsHz[0] === 0 ? 1 : 0;
     return staticSource([freqsHz.slice(from), psdDb.slice(from), ...computed.others.map((o) => (o ? o.slice(from) : freqsHz.slice(from).map(() => null)))] as uPlot.AlignedData);
+    // A new source only with a new computation: the traces' identity changes on every render, and the
+    // computation follows their slots (`key`) within one refresh.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [computed]);
   const peaks = computed?.lead.peaks ?? [];
   const marks = peaks.map((p) => ({ x: p.freqHz, label: hz(p.freqHz, 3) }));

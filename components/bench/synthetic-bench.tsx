@@ -5,6 +5,7 @@ import { CANDIDATE_COLORS, PRODUCTION_COLOR, RAW_COLOR } from "@/lib/bench/color
 import { FIRST_CANDIDATE_SLOT, LiveStore, PRODUCTION_SLOT, PRODUCTION_TRACE, RAW_SLOT } from "@/lib/bench/live-store";
 import { LivePanel, type TraceInfo } from "./live-panel";
 import type { LiveStatus } from "./use-live-channel";
+import { useClock } from "@/components/hooks/use-clock";
 
 /** Frames per second of the synthetic feed: the sidecar's frame interval (33 ms). */
 const FEED_FPS = 30;
@@ -15,6 +16,7 @@ const CANDIDATES = 4;
  * 240 Hz tone and deterministic noise), production and four candidates, for the chart speed bench.
  */
 export function SyntheticBench({ sampleRateHz }: { sampleRateHz: number }) {
+  const now = useClock(1000);
   const store = useMemo(() => new LiveStore(sampleRateHz), [sampleRateHz]);
   const ids = useMemo(() => Array.from({ length: CANDIDATES }, (_, i) => `synthetic-${i}`), []);
   useEffect(() => {
@@ -48,6 +50,6 @@ export function SyntheticBench({ sampleRateHz }: { sampleRateHz: number }) {
     { id: PRODUCTION_TRACE, slot: PRODUCTION_SLOT, label: "Production", color: PRODUCTION_COLOR, visible: true },
     ...ids.map((id, i) => ({ id, slot: FIRST_CANDIDATE_SLOT + i, label: `Candidate ${String.fromCharCode(65 + i)}`, color: CANDIDATE_COLORS[i], visible: true })),
   ];
-  const status: LiveStatus = { link: "live", retryAt: null, mqtt: "connected", droppedFrames: 0, lastFrameAt: Date.now(), error: null };
+  const status: LiveStatus = { link: "live", retryAt: null, mqtt: "connected", droppedFrames: 0, lastFrameAt: now, error: null };
   return <LivePanel store={store} status={status} traces={traces} unit="V" onToggle={() => {}} />;
 }

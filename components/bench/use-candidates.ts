@@ -5,6 +5,7 @@ import { tryDesign, type Candidate, type Designed } from "@/lib/bench/candidates
 import { seedStage } from "@/lib/bench/chain-edit";
 import { cautionsFor, type Caution } from "@/lib/bench/cautions";
 import { freeColorIndex } from "@/lib/bench/colors";
+import { PassCache } from "@/lib/bench/pass-cache";
 import { defaultSpec } from "@/lib/bench/spec-defaults";
 import type { FilterSpec, QuantFormat } from "@/lib/dsp";
 import type { SeedMode } from "./spectrum-panel";
@@ -32,16 +33,14 @@ export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onA
 
   // Designs and cautions are kept per spec, so editing one candidate does not redo the others (a long
   // chain's quantization takes a few hundred ms).
-  const designCache = useRef(new Map<string, Designed>());
-  const cautionCache = useRef(new Map<string, Caution[]>());
+  const [designCache] = useState(() => new PassCache<Designed>());
+  const [cautionCache] = useState(() => new PassCache<Caution[]>());
   const designs = useMemo(() => {
-    const next = new Map<string, Designed>();
-    const out = new Map(candidates.map((c) => [c.id, reuse(designCache.current, next, JSON.stringify(c.spec), () => tryDesign(c.spec))]));
-    designCache.current = next;
+    const out = new Map(candidates.map((c) => [c.id, designCache.get(JSON.stringify(c.spec), () => tryDesign(c.spec))]));
+    designCache.endPass();
     return out;
-  }, [candidates]);
+  }, [candidates, designCache]);
   const cautions = useMemo(() => {
-    const next = new Map<string, Caution[]>();
     const out = new Map<string, Caution[]>();
     for (const c of candidates) {
       const design = designs.get(c.id)?.design;
@@ -49,7 +48,7 @@ export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onA
       const key = `${JSON.stringify(c.spec)}|${deviceFormat}|${crossoverHz}`;
       out.set(
         c.id,
-        reuse(cautionCache.current, next, key, () => {
+        cautionCache.get(key, () => {
           try {
             return cautionsFor({ spec: c.spec, design, deviceFormat, crossoverHz });
           } catch (err) {
@@ -59,9 +58,9 @@ export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onA
         }),
       );
     }
-    cautionCache.current = next;
+    cautionCache.endPass();
     return out;
-  }, [candidates, designs, deviceFormat, crossoverHz]);
+  }, [candidates, designs, deviceFormat, crossoverHz, cautionCache]);
 
   const addCandidate = (spec?: FilterSpec) => {
     const colorIndex = freeColorIndex(candidates.map((c) => c.colorIndex));
@@ -96,10 +95,3 @@ export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onA
 }
 
 export type CandidateList = ReturnType<typeof useCandidates>;
-
-/** The value under `key` from the last round, or computed now; either way kept in `next` for the next round. */
-function reuse<T>(last: Map<string, T>, next: Map<string, T>, key: string, compute: () => T): T {
-  const value = last.get(key) ?? compute();
-  next.set(key, value);
-  return value;
-}

@@ -3,6 +3,7 @@
 import { useEffect, useReducer, useRef } from "react";
 import type { Complex, FilterDesign } from "@/lib/dsp";
 import type { ZerosAnswer } from "./zeros-worker";
+import { errorMessage } from "@/lib/errors";
 
 /** Zeros found so far, per design object (designs are immutable; a new edit is a new object). */
 const found = new WeakMap<FilterDesign, ZerosAnswer>();
@@ -33,7 +34,7 @@ export function useDesignZeros(designs: FilterDesign[]): ZerosState[] {
         worker = new Worker(new URL("./zeros-worker.ts", import.meta.url), { type: "module" });
       } catch (err) {
         // A Content-Security-Policy without worker-src 'self' refuses it; the page says so instead of blocking.
-        found.set(design, { error: `the browser refused the worker that finds them (${err instanceof Error ? err.message : String(err)})` });
+        found.set(design, { error: `the browser refused the worker that finds them (${errorMessage(err)})` });
         refresh();
         continue;
       }

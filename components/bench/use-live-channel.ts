@@ -4,6 +4,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import { reconnectDelayMs } from "@/lib/bench/backoff";
 import { HISTORY_SECONDS, LiveStore } from "@/lib/bench/live-store";
 import { parseServerMessage, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
+import { useLatest } from "@/components/hooks/use-latest";
 
 export type LinkState = "connecting" | "live" | "reconnecting" | "signed-out";
 
@@ -50,8 +51,7 @@ export function useLiveChannel(opts: Options): LiveChannel {
   const [status, setStatus] = useState<LiveStatus>(INITIAL);
   const [metrics, setMetrics] = useState<Record<string, CandidateMetrics>>({});
   const socketRef = useRef<WebSocket | null>(null);
-  const onOpenRef = useRef(opts.onOpen);
-  onOpenRef.current = opts.onOpen;
+  const onOpenRef = useLatest(opts.onOpen);
 
   useEffect(() => {
     let attempt = 0;
@@ -124,7 +124,7 @@ export function useLiveChannel(opts: Options): LiveChannel {
       socketRef.current = null;
       ws?.close();
     };
-  }, [opts.path, opts.port, opts.wsPath, store]);
+  }, [opts.path, opts.port, opts.wsPath, store, onOpenRef]);
 
   const send = useMemo(
     () => (m: ClientMessage) => {

@@ -1,5 +1,6 @@
 /// <reference lib="webworker" />
 import { designZeros, type Complex, type FilterDesign } from "@/lib/dsp";
+import { errorMessage } from "@/lib/errors";
 
 /** Answer of the zeros worker: the zeros of the posted design, or why they could not be found. */
 export type ZerosAnswer = { zeros: Complex[] } | { error: string };
@@ -10,7 +11,7 @@ self.onmessage = (event: MessageEvent<FilterDesign>) => {
   try {
     answer = { zeros: designZeros(event.data) };
   } catch (err) {
-    answer = { error: err instanceof Error ? err.message : String(err) };
+    answer = { error: errorMessage(err) };
   }
   self.postMessage(answer);
 };

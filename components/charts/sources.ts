@@ -16,21 +16,21 @@ export function staticSource(data: uPlot.AlignedData): ChartSource {
 }
 
 /**
- * The last `windowSeconds()` s of a live store, min/max-decimated to about 2 points per pixel, with the
- * columns of `slots()` in order. Changes come from the store; the chart redraws once per frame.
+ * The last `windowSeconds.current` s of a live store, min/max-decimated to about 2 points per pixel, with the
+ * columns of `slots.current` in order (both refs, read at each snapshot). Changes come from the store; the chart redraws once per frame.
  */
-export function liveSource(store: LiveStore, slots: () => readonly number[], windowSeconds: () => number): ChartSource {
+export function liveSource(store: LiveStore, slots: { readonly current: readonly number[] }, windowSeconds: { readonly current: number }): ChartSource {
   return {
     subscribe: (onChange) => store.subscribe(onChange),
     snapshot(widthPx) {
       const ring = store.ring;
-      const from = ring.lowerBound(ring.lastX() - windowSeconds());
+      const from = ring.lowerBound(ring.lastX() - windowSeconds.current);
       const [x, ...ys] = decimateMinMax(ring, from, ring.length, Math.max(1, Math.round(widthPx)));
-      return [x, ...slots().map((s) => ys[s])] as uPlot.AlignedData;
+      return [x, ...slots.current.map((s) => ys[s])] as uPlot.AlignedData;
     },
     xRange() {
       const last = store.ring.lastX();
-      return Number.isNaN(last) ? null : [last - windowSeconds(), last];
+      return Number.isNaN(last) ? null : [last - windowSeconds.current, last];
     },
   };
 }

@@ -1,6 +1,6 @@
 "use client";
 
-import { useEffect, useRef } from "react";
+import { useEffect, useInsertionEffect, useRef } from "react";
 import uPlot from "uplot";
 import "uplot/dist/uPlot.min.css";
 import "./chart.css";
@@ -101,8 +101,11 @@ function seriesOptions(s: ChartSeries): uPlot.Series {
 export function UPlotChart(props: UPlotChartProps) {
   const hostRef = useRef<HTMLDivElement>(null);
   const plotRef = useRef<uPlot | null>(null);
+  // The latest props for the chart's callbacks, written before any effect of the commit reads them.
   const propsRef = useRef(props);
-  propsRef.current = props;
+  useInsertionEffect(() => {
+    propsRef.current = props;
+  });
   const zoomedRef = useRef(false);
   const scheduleRef = useRef<() => void>(() => {});
   const seriesKey = props.series.map((s) => `${s.label}|${s.color}|${s.scale ?? "y"}|${s.dash ?? ""}`).join(";");
@@ -322,7 +325,8 @@ export function UPlotChart(props: UPlotChartProps) {
     if (!plot) return;
     if (plot.height !== props.height) plot.setSize({ width: plot.width, height: props.height });
     if (!props.paused) zoomedRef.current = false;
-    if (props.yRange) plot.setScale("y", { min: props.yRange[0], max: props.yRange[1] });
+    const yRange = propsRef.current.yRange;
+    if (yRange) plot.setScale("y", { min: yRange[0], max: yRange[1] });
     else if (!zoomedRef.current) plot.setData(plot.data, true);
     scheduleRef.current();
   }, [yKey, props.paused, props.height]);

@@ -1,6 +1,6 @@
 "use client";
 
-import { useCallback, useDeferredValue, useEffect, useMemo, useState } from "react";
+import { useCallback, useDeferredValue, useMemo, useState, useSyncExternalStore } from "react";
 import { Notice } from "@/components/ui/notice";
 import { Segmented } from "@/components/ui/segmented";
 import { REVIEW_LINE } from "@/lib/bench/cautions";
@@ -14,6 +14,9 @@ import { BodeCharts, StepChart } from "./loop-charts";
 import { LoopInputsForm } from "./loop-inputs-form";
 import { MarginsTable } from "./margins-table";
 import { RootLocus, type LocusView } from "./root-locus";
+
+/** The analysis never re-subscribes: `useSyncExternalStore` only tells the server render (false) from the browser (true). */
+const NO_CHANGES = () => () => {};
 
 function attempt<T>(fn: () => T): { value: T } | { error: string } {
   try {
@@ -44,8 +47,7 @@ export function LoopCheck({ channel }: { channel: { path: string; name: string; 
   const [view, setView] = useState<LocusView>("near-one");
   const onPick = useCallback((f: PickedFilter) => setPicked(f), []);
   // The analysis runs in the browser only (the server's floating point may differ in the last bits, and it saves the server the work).
-  const [mounted, setMounted] = useState(false);
-  useEffect(() => setMounted(true), []);
+  const mounted = useSyncExternalStore(NO_CHANGES, () => true, () => false);
 
   const parsed = useMemo(() => parseInputs(inputs, fs), [inputs, fs]);
   const freqs = useMemo(() => bodeFrequencies(fs), [fs]);

@@ -5,6 +5,7 @@ import type { ReactNode } from "react";
 import { faultSummary, sampleAge } from "./format";
 import { Sparkline } from "./sparkline";
 import { useLiveOverview } from "./use-live-overview";
+import { useClock } from "@/components/hooks/use-clock";
 
 /** A production revision the page could name: its set and revision number. */
 export interface KnownRevision {
@@ -20,6 +21,7 @@ export interface KnownRevision {
  */
 export function ChannelLive({ path, unit, revisions }: { path: string; unit: string; revisions: Record<string, KnownRevision> }) {
   const query = useLiveOverview();
+  const clock = useClock(1000);
   if (query.isPending) {
     return <LiveShell state="loading">Loading live state…</LiveShell>;
   }
@@ -28,7 +30,7 @@ export function ChannelLive({ path, unit, revisions }: { path: string; unit: str
   }
   const live = query.data.channels[path];
   if (!live) return <LiveShell state="unavailable">The live service does not know this channel yet; it reads channels when it starts.</LiveShell>;
-  const ageMs = live.lastSampleAt === null ? null : query.data.now - live.lastSampleAt + (Date.now() - query.dataUpdatedAt);
+  const ageMs = live.lastSampleAt === null ? null : query.data.now - live.lastSampleAt + (Math.max(clock, query.dataUpdatedAt) - query.dataUpdatedAt);
   const age = sampleAge(ageMs);
   // Lost batches (sequence gaps) are counted apart: they are the link's loss, not a bad message.
   const { seq_gap: gaps = 0, ...refused } = live.faults;

@@ -3,6 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { deleteRecording } from "./api";
+import { errorMessage } from "@/lib/errors";
 
 /** Deletes a recording after a confirmation, then goes to `after` (or refreshes the page). */
 export function DeleteRecordingButton({ id, name, after }: { id: number; name: string; after?: string }) {
@@ -17,7 +18,7 @@ export function DeleteRecordingButton({ id, name, after }: { id: number; name: s
       if (after) router.push(after);
       else router.refresh();
     } catch (err) {
-      setError(err instanceof Error ? err.message : String(err));
+      setError(errorMessage(err));
       setPending(false);
     }
   };

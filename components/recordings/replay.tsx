@@ -1,7 +1,7 @@
 "use client";
 
 import { useQuery } from "@tanstack/react-query";
-import { useMemo, useRef, useState } from "react";
+import { useMemo, useState } from "react";
 import { AnalysisArea } from "@/components/bench/analysis-area";
 import type { AnalysisItem } from "@/components/bench/analysis-views";
 import { CandidateCards } from "@/components/bench/candidate-cards";
@@ -12,6 +12,7 @@ import { useCandidates } from "@/components/bench/use-candidates";
 import { Notice } from "@/components/ui/notice";
 import { candidateColor, candidateName } from "@/lib/bench/candidates";
 import { RAW_COLOR } from "@/lib/bench/colors";
+import { PassCache } from "@/lib/bench/pass-cache";
 import { liveSpectrum } from "@/lib/bench/spectrum";
 import type { QuantFormat } from "@/lib/dsp";
 import type { CandidateMetrics } from "@/lib/protocol";
@@ -60,26 +61,22 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
   const [crossoverHz, setCrossoverHz] = useState<number | null>(null);
   const candidateList = useCandidates({ sampleRateHz: fs, deviceFormat: recording.coefficientFormat, crossoverHz });
   const { candidates, designs, cautions, editingId, setEditingId, editing, addCandidate, removeCandidate, setCandidateVisible, seed } = candidateList;
-  const outputCache = useRef(new Map<string, Float64Array>());
+  const [outputCache] = useState(() => new PassCache<Float64Array>());
 
   const raw = samples.data ?? null;
   const run = useMemo(() => (raw ? longestRun(raw) : { from: 0, to: 0 }), [raw]);
   const outputs = useMemo(() => {
     const out = new Map<string, Float64Array>();
     if (!raw) return out;
-    const cache = outputCache.current;
-    const next = new Map<string, Float64Array>();
     for (const c of candidates) {
       const d = designs.get(c.id);
       if (!d?.design) continue;
-      const key = `${c.id}|${JSON.stringify(c.spec)}`;
-      const y = cache.get(key) ?? replayThrough(d.design, raw);
-      next.set(key, y);
-      out.set(c.id, y);
+      const design = d.design;
+      out.set(c.id, outputCache.get(`${c.id}|${JSON.stringify(c.spec)}`, () => replayThrough(design, raw)));
     }
-    outputCache.current = next;
+    outputCache.endPass();
     return out;
-  }, [raw, candidates, designs]);
+  }, [raw, candidates, designs, outputCache]);
 
   const traces: ReplayTrace[] = useMemo(() => {
     if (!raw) return [];

@@ -6,6 +6,7 @@ import { ApiError } from "@/components/bench/api";
 import { formatHz } from "@/lib/format/units";
 import { MAX_SAMPLES, MAX_UPLOAD_BYTES } from "@/lib/recordings/limits";
 import { uploadRecording, type FieldError, type UploadProgress } from "./api";
+import { errorMessage } from "@/lib/errors";
 
 export interface ChannelChoice {
   path: string;
@@ -57,7 +58,7 @@ export function UploadForm({ channels, defaultChannel }: { channels: ChannelChoi
     } catch (err) {
       const fields = err instanceof ApiError ? err.fields : [];
       setErrors(fields);
-      setMessage(fields.length ? null : err instanceof Error ? err.message : String(err));
+      setMessage(fields.length ? null : errorMessage(err));
       setPending(false);
       setProgress(null);
     }

@@ -2,6 +2,7 @@ import { compareArithmetic } from "@/lib/bench/arithmetic";
 import type { RevisionContent } from "@/lib/coefficients";
 import type { FixedArithmetic } from "@/lib/dsp";
 import { formatHz, trim } from "@/lib/format/units";
+import { errorMessage } from "@/lib/errors";
 
 /** What the stored quantized form computes in an arithmetic, against the float design (the bench's fixed-point view runs the same). */
 function arithmeticFact(rev: RevisionContent, arithmetic: FixedArithmetic): [string, string] | null {
@@ -12,7 +13,7 @@ function arithmeticFact(rev: RevisionContent, arithmetic: FixedArithmetic): [str
     const worst = c.worstDbfs === null ? "no difference" : `worst ${c.worstDbfs.toFixed(1)} dBFS (${c.worstLsb.toPrecision(3)} LSB)`;
     return [`Arithmetic: ${c.label.split(":")[0]}`, `${worst} vs the float design on half-scale steps and a chirp, ${c.overflows} saturations or wraps`];
   } catch (err) {
-    return [`Arithmetic: ${arithmetic}`, `not runnable: ${err instanceof Error ? err.message : String(err)}`];
+    return [`Arithmetic: ${arithmetic}`, `not runnable: ${errorMessage(err)}`];
   }
 }
 

@@ -49,6 +49,8 @@ export function SetsTable({ channels }: { channels: string[] }) {
   for (const [k, v] of Object.entries(typed)) if (v.trim()) params.set(k, v.trim());
 
   const query = useQuery({ queryKey: ["sets", params.toString()], queryFn: () => fetchSets(params), placeholderData: keepPreviousData, staleTime: 5_000 });
+  // TanStack Table hands back fresh functions on every render by design; nothing here is memoized by a compiler.
+  // eslint-disable-next-line react-hooks/incompatible-library
   const table = useReactTable({
     data: query.data?.items ?? [],
     columns,

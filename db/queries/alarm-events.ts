@@ -8,7 +8,6 @@ import { appendAudit } from "./audit";
 import { channelPathSql } from "./channels";
 import { enqueueMail, labAddresses } from "./mail";
 
-type Conn = Db | Transaction<Database>;
 
 /** NOTIFY channel (payload: the event id) the sidecar listens on to push an acknowledgement to every browser. */
 export const ALARM_EVENTS_CHANNEL = "tapwright_alarm_events";
@@ -58,7 +57,7 @@ const RECORD_COLUMNS = [
   "e.revision_id as revisionId",
 ] as const;
 
-function eventQuery(db: Conn) {
+function eventQuery(db: Db) {
   return db
     .selectFrom("alarm_events as e")
     .innerJoin("alarm_rules as a", "a.id", "e.rule_id")
@@ -91,7 +90,7 @@ function view(row: EventRow): AlarmEventView {
 }
 
 /** Events newest first (open ones: raised first, then newest), at most `limit`. */
-export async function listAlarmEvents(db: Conn, f: AlarmEventFilter): Promise<AlarmEventView[]> {
+export async function listAlarmEvents(db: Db, f: AlarmEventFilter): Promise<AlarmEventView[]> {
   let q = eventQuery(db);
   if (f.channelId !== undefined) q = q.where("e.channel_id", "=", f.channelId);
   if (f.rig !== undefined) q = q.where("r.key", "=", f.rig);
@@ -106,7 +105,7 @@ export async function listAlarmEvents(db: Conn, f: AlarmEventFilter): Promise<Al
   return rows.map(view);
 }
 
-export async function findAlarmEvent(db: Conn, id: string): Promise<AlarmEventView | undefined> {
+export async function findAlarmEvent(db: Db, id: string): Promise<AlarmEventView | undefined> {
   const row = await eventQuery(db).where("e.id", "=", id).executeTakeFirst();
   return row && view(row);
 }
@@ -154,7 +153,7 @@ export async function storeAlarmEvents(db: Db, records: readonly AlarmEventRecor
 }
 
 /** Raised events (limit and masked) of enabled rules, for the sidecar to carry on after a restart. */
-export async function listRaisedRecords(db: Conn): Promise<AlarmEventRecord[]> {
+export async function listRaisedRecords(db: Db): Promise<AlarmEventRecord[]> {
   const rows = await db
     .selectFrom("alarm_events as e")
     .innerJoin("alarm_rules as a", "a.id", "e.rule_id")

@@ -7,7 +7,6 @@ import type { Database } from "../types";
 import { appendAudit } from "./audit";
 import { channelPathSql } from "./channels";
 
-type Conn = Db | Transaction<Database>;
 
 /** NOTIFY channel the sidecar listens on to reload its rules after a change. */
 export const ALARM_RULES_CHANNEL = "tapwright_alarm_rules";
@@ -35,7 +34,7 @@ export interface AlarmRuleInput {
   enabled: boolean;
 }
 
-function ruleQuery(db: Conn) {
+function ruleQuery(db: Db) {
   return db
     .selectFrom("alarm_rules as a")
     .innerJoin("channels as c", "c.id", "a.channel_id")
@@ -63,14 +62,14 @@ function ruleQuery(db: Conn) {
 }
 
 /** Rules in lab order (rig, device, channel, then name); one channel's when channelId is given. */
-export function listAlarmRules(db: Conn, filter: { channelId?: number; enabledOnly?: boolean } = {}): Promise<AlarmRuleView[]> {
+export function listAlarmRules(db: Db, filter: { channelId?: number; enabledOnly?: boolean } = {}): Promise<AlarmRuleView[]> {
   let q = ruleQuery(db);
   if (filter.channelId !== undefined) q = q.where("a.channel_id", "=", filter.channelId);
   if (filter.enabledOnly) q = q.where("a.enabled", "=", true);
   return q.orderBy("r.key").orderBy("d.key").orderBy("c.key").orderBy("a.name").orderBy("a.id").execute();
 }
 
-export function findAlarmRule(db: Conn, id: number): Promise<AlarmRuleView | undefined> {
+export function findAlarmRule(db: Db, id: number): Promise<AlarmRuleView | undefined> {
   return ruleQuery(db).where("a.id", "=", id).executeTakeFirst();
 }
 

@@ -6,7 +6,6 @@ import { appendAudit } from "./audit";
 import { channelPathSql } from "./channels";
 import { escapeLike } from "./sets";
 
-type Conn = Db | Transaction<Database>;
 
 export interface AnnotationView {
   id: number;
@@ -29,7 +28,7 @@ export interface AnnotationFilter {
   limit: number;
 }
 
-function annotationQuery(db: Conn) {
+function annotationQuery(db: Db) {
   return db
     .selectFrom("annotations as n")
     .innerJoin("channels as c", "c.id", "n.channel_id")
@@ -49,7 +48,7 @@ function annotationQuery(db: Conn) {
 }
 
 /** Newest moment first; every word of `q` must appear in the text. */
-export function listAnnotations(db: Conn, f: AnnotationFilter): Promise<AnnotationView[]> {
+export function listAnnotations(db: Db, f: AnnotationFilter): Promise<AnnotationView[]> {
   let q = annotationQuery(db);
   if (f.channelId !== undefined) q = q.where("n.channel_id", "=", f.channelId);
   for (const word of f.q?.split(/\s+/).filter(Boolean) ?? []) q = q.where("n.text", "ilike", `%${escapeLike(word)}%`);
@@ -61,7 +60,7 @@ export function listAnnotations(db: Conn, f: AnnotationFilter): Promise<Annotati
   return q.orderBy("n.at", "desc").orderBy("n.id", "desc").limit(f.limit).execute();
 }
 
-export function findAnnotation(db: Conn, id: number): Promise<AnnotationView | undefined> {
+export function findAnnotation(db: Db, id: number): Promise<AnnotationView | undefined> {
   return annotationQuery(db).where("n.id", "=", id).executeTakeFirst();
 }
 

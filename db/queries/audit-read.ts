@@ -1,10 +1,7 @@
-import type { Transaction } from "kysely";
 import type { AuditRow } from "@/lib/audit";
 import type { Db } from "../client";
-import type { Database } from "../types";
 import { escapeLike } from "./sets";
 
-type Conn = Db | Transaction<Database>;
 
 export interface AuditFilters {
   /** Actor e-mail or name, substring; "system" for entries without a person. */
@@ -18,7 +15,7 @@ export interface AuditFilters {
 
 export type { AuditRow };
 
-function filtered(db: Conn, f: AuditFilters) {
+function filtered(db: Db, f: AuditFilters) {
   let q = db.selectFrom("audit_log as a").leftJoin("users as u", "u.id", "a.actor_id");
   if (f.actor === "system") q = q.where("a.actor_id", "is", null);
   else if (f.actor) {
@@ -45,7 +42,7 @@ const COLUMNS = [
 ] as const;
 
 /** Newest first, one page at a time, with the total count of matches. */
-export async function listAudit(db: Conn, f: AuditFilters, page: number, pageSize: number): Promise<{ items: AuditRow[]; total: number }> {
+export async function listAudit(db: Db, f: AuditFilters, page: number, pageSize: number): Promise<{ items: AuditRow[]; total: number }> {
   const { total } = await filtered(db, f).select((eb) => eb.fn.countAll<string>().as("total")).executeTakeFirstOrThrow();
   const items = await filtered(db, f)
     .select(COLUMNS)
@@ -57,12 +54,12 @@ export async function listAudit(db: Conn, f: AuditFilters, page: number, pageSiz
 }
 
 /** Every match, oldest first, up to `limit` rows (the CSV export). */
-export function exportAudit(db: Conn, f: AuditFilters, limit: number): Promise<AuditRow[]> {
+export function exportAudit(db: Db, f: AuditFilters, limit: number): Promise<AuditRow[]> {
   return filtered(db, f).select(COLUMNS).orderBy("a.id").limit(limit).execute();
 }
 
 /** Distinct entity kinds and actions, for the filter menus. */
-export async function auditVocabulary(db: Conn): Promise<{ entities: string[]; actions: string[] }> {
+export async function auditVocabulary(db: Db): Promise<{ entities: string[]; actions: string[] }> {
   const entities = await db.selectFrom("audit_log").select("entity").distinct().orderBy("entity").execute();
   const actions = await db.selectFrom("audit_log").select("action").distinct().orderBy("action").execute();
   return { entities: entities.map((r) => r.entity), actions: actions.map((r) => r.action) };

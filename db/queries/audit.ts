@@ -1,8 +1,5 @@
-import type { Transaction } from "kysely";
 import type { Db } from "../client";
-import type { Database } from "../types";
 
-type Conn = Db | Transaction<Database>;
 
 export interface AuditEntry {
   actorId: number | null;
@@ -14,7 +11,7 @@ export interface AuditEntry {
 }
 
 /** Appends one entry; call it inside the transaction of the change it records. */
-export async function appendAudit(db: Conn, entry: AuditEntry): Promise<void> {
+export async function appendAudit(db: Db, entry: AuditEntry): Promise<void> {
   await db
     .insertInto("audit_log")
     .values({

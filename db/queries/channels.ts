@@ -1,8 +1,6 @@
-import { sql, type Transaction } from "kysely";
+import { sql } from "kysely";
 import type { Db } from "../client";
-import type { Database } from "../types";
 
-type Conn = Db | Transaction<Database>;
 
 /** A channel with its place in the lab; `path` is `<rig>/<device>/<channel>` built from keys. */
 export interface ChannelRow {
@@ -29,7 +27,7 @@ export function channelPathSql(rig: string, device: string, channel: string) {
   return sql<string>`${sql.ref(`${rig}.key`)} || '/' || ${sql.ref(`${device}.key`)} || '/' || ${sql.ref(`${channel}.key`)}`;
 }
 
-function channelQuery(db: Conn) {
+function channelQuery(db: Db) {
   return db
     .selectFrom("channels as c")
     .innerJoin("devices as d", "d.id", "c.device_id")
@@ -53,11 +51,11 @@ function channelQuery(db: Conn) {
     ]);
 }
 
-export function listChannels(db: Conn): Promise<ChannelRow[]> {
+export function listChannels(db: Db): Promise<ChannelRow[]> {
   return channelQuery(db).orderBy("r.key").orderBy("d.key").orderBy("c.key").execute();
 }
 
-export function findChannelByPath(db: Conn, path: string): Promise<ChannelRow | undefined> {
+export function findChannelByPath(db: Db, path: string): Promise<ChannelRow | undefined> {
   const [rig, device, channel, ...rest] = path.split("/");
   // Only well-formed keys can exist (the tables' checks); anything else is not looked up at all.
   const key = /^[a-z0-9][a-z0-9-]{0,62}$/;

@@ -22,14 +22,13 @@ import { enqueueMail, leadAddresses, userAddress } from "./mail";
 import { findRevision } from "./revisions";
 import { enforce } from "./sets";
 
-type Conn = Db | Transaction<Database>;
 
 /** Channel the sidecar's deployment worker LISTENs on; the payload is the deployment id. */
 export const DEPLOY_CHANNEL = "tapwright_deploy";
 
 const pathExpr = channelPathSql("rg", "d", "c");
 
-function deploymentQuery(db: Conn) {
+function deploymentQuery(db: Db) {
   return db
     .selectFrom("deployments as p")
     .innerJoin("revisions as r", "r.id", "p.revision_id")
@@ -108,26 +107,26 @@ export interface DeploymentView {
   setChannel: string;
 }
 
-export async function findDeployment(db: Conn, id: number): Promise<DeploymentView | undefined> {
+export async function findDeployment(db: Db, id: number): Promise<DeploymentView | undefined> {
   return (await deploymentQuery(db).where("p.id", "=", id).executeTakeFirst()) as DeploymentView | undefined;
 }
 
-export async function listSetDeployments(db: Conn, setId: number): Promise<DeploymentView[]> {
+export async function listSetDeployments(db: Db, setId: number): Promise<DeploymentView[]> {
   return (await deploymentQuery(db).where("s.id", "=", setId).orderBy("p.id", "desc").execute()) as DeploymentView[];
 }
 
-export async function listChannelDeployments(db: Conn, channelId: number, limit = 50): Promise<DeploymentView[]> {
+export async function listChannelDeployments(db: Db, channelId: number, limit = 50): Promise<DeploymentView[]> {
   return (await deploymentQuery(db).where("p.channel_id", "=", channelId).orderBy("p.id", "desc").limit(limit).execute()) as DeploymentView[];
 }
 
 /** The active deployment of a channel: its production filter as the device acknowledged it. */
-export async function findActiveDeployment(db: Conn, channelId: number): Promise<DeploymentView | undefined> {
+export async function findActiveDeployment(db: Db, channelId: number): Promise<DeploymentView | undefined> {
   return (await deploymentQuery(db).where("p.channel_id", "=", channelId).where("p.state", "=", "active").executeTakeFirst()) as
     | DeploymentView
     | undefined;
 }
 
-export async function listActiveDeployments(db: Conn): Promise<DeploymentView[]> {
+export async function listActiveDeployments(db: Db): Promise<DeploymentView[]> {
   return (await deploymentQuery(db).where("p.state", "=", "active").execute()) as DeploymentView[];
 }
 
@@ -139,7 +138,7 @@ export interface DeviceChannelState {
 }
 
 /** Every channel of a device, ordered by key, each with its active deployment's config entry. */
-export async function listDeviceChannelStates(db: Conn, deviceId: number): Promise<DeviceChannelState[]> {
+export async function listDeviceChannelStates(db: Db, deviceId: number): Promise<DeviceChannelState[]> {
   const rows = await db
     .selectFrom("channels as c")
     .leftJoin("deployments as p", (join) => join.onRef("p.channel_id", "=", "c.id").on("p.state", "=", "active"))
@@ -154,7 +153,7 @@ export async function listDeviceChannelStates(db: Conn, deviceId: number): Promi
   }));
 }
 
-export async function listPendingDeploymentIds(db: Conn): Promise<number[]> {
+export async function listPendingDeploymentIds(db: Db): Promise<number[]> {
   const rows = await db.selectFrom("deployments").select("id").where("state", "=", "pending").orderBy("id").execute();
   return rows.map((r) => r.id);
 }
@@ -362,7 +361,7 @@ export async function failDeployment(trx: Transaction<Database>, id: number, rea
 }
 
 /** Per channel: the active revision's label and whether a deployment is pending (the promote form). */
-export async function channelDeploymentStates(db: Conn, channelIds: number[]): Promise<Map<number, { active: string | null; pending: boolean }>> {
+export async function channelDeploymentStates(db: Db, channelIds: number[]): Promise<Map<number, { active: string | null; pending: boolean }>> {
   const out = new Map(channelIds.map((id) => [id, { active: null as string | null, pending: false }]));
   if (channelIds.length === 0) return out;
   const rows = await deploymentQuery(db).where("p.channel_id", "in", channelIds).where("p.state", "in", ["active", "pending"]).execute();

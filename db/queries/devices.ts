@@ -1,8 +1,5 @@
-import type { Transaction } from "kysely";
 import type { Db } from "../client";
-import type { Database } from "../types";
 
-type Conn = Db | Transaction<Database>;
 
 /** A device credential with the device's place in the lab, for the broker's authentication. */
 export interface DeviceCredentialRow {
@@ -13,7 +10,7 @@ export interface DeviceCredentialRow {
   deviceKey: string;
 }
 
-export function findDeviceCredential(db: Conn, username: string): Promise<DeviceCredentialRow | undefined> {
+export function findDeviceCredential(db: Db, username: string): Promise<DeviceCredentialRow | undefined> {
   return db
     .selectFrom("device_credentials as k")
     .innerJoin("devices as d", "d.id", "k.device_id")
@@ -23,7 +20,7 @@ export function findDeviceCredential(db: Conn, username: string): Promise<Device
     .executeTakeFirst();
 }
 
-export async function findDeviceId(db: Conn, rigKey: string, deviceKey: string): Promise<number | undefined> {
+export async function findDeviceId(db: Db, rigKey: string, deviceKey: string): Promise<number | undefined> {
   const row = await db
     .selectFrom("devices as d")
     .innerJoin("rigs as r", "r.id", "d.rig_id")
@@ -36,7 +33,7 @@ export async function findDeviceId(db: Conn, rigKey: string, deviceKey: string):
 
 /** Creates a credential or replaces the password of an existing username (same device only). */
 export async function upsertDeviceCredential(
-  db: Conn,
+  db: Db,
   credential: { deviceId: number; username: string; passwordHash: string },
 ): Promise<void> {
   await db
@@ -53,7 +50,7 @@ export async function upsertDeviceCredential(
 
 /** Inserts a device's credential only when the device has none yet (so a rotated one is never reverted). */
 export async function insertDeviceCredentialIfAbsent(
-  db: Conn,
+  db: Db,
   credential: { deviceId: number; username: string; passwordHash: string },
 ): Promise<boolean> {
   const existing = await db.selectFrom("device_credentials").select("username").where("device_id", "=", credential.deviceId).executeTakeFirst();
@@ -67,7 +64,7 @@ export async function insertDeviceCredentialIfAbsent(
 
 /** Replaces every credential of a device by one new credential (rotation); returns how many were replaced. */
 export async function replaceDeviceCredential(
-  db: Conn,
+  db: Db,
   credential: { deviceId: number; username: string; passwordHash: string },
 ): Promise<number> {
   const removed = await db.deleteFrom("device_credentials").where("device_id", "=", credential.deviceId).executeTakeFirst();
@@ -79,7 +76,7 @@ export async function replaceDeviceCredential(
 }
 
 /** Every device with its rig's key, ordered by rig and device key. */
-export function listDevices(db: Conn): Promise<Array<{ id: number; rigKey: string; key: string }>> {
+export function listDevices(db: Db): Promise<Array<{ id: number; rigKey: string; key: string }>> {
   return db
     .selectFrom("devices as d")
     .innerJoin("rigs as r", "r.id", "d.rig_id")
@@ -90,7 +87,7 @@ export function listDevices(db: Conn): Promise<Array<{ id: number; rigKey: strin
 }
 
 /** Ids of devices with a deployment still waiting for its acknowledgement. */
-export async function listDevicesWithPendingDeployments(db: Conn): Promise<Set<number>> {
+export async function listDevicesWithPendingDeployments(db: Db): Promise<Set<number>> {
   const rows = await db
     .selectFrom("deployments as p")
     .innerJoin("channels as c", "c.id", "p.channel_id")

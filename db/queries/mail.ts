@@ -3,10 +3,9 @@ import type { MailMessage } from "@/lib/mail/templates";
 import type { Db } from "../client";
 import type { Database } from "../types";
 
-type Conn = Db | Transaction<Database>;
 
 /** Writes a message to the outbox; call it in the transaction of the event it announces. No-op without recipients. */
-export async function enqueueMail(db: Conn, recipients: string[], message: MailMessage): Promise<void> {
+export async function enqueueMail(db: Db, recipients: string[], message: MailMessage): Promise<void> {
   const to = [...new Set(recipients)].sort();
   if (to.length === 0) return;
   await db
@@ -17,18 +16,18 @@ export async function enqueueMail(db: Conn, recipients: string[], message: MailM
 }
 
 /** E-mail addresses of enabled leads (review requests and deployment news go to them). */
-export async function leadAddresses(db: Conn): Promise<string[]> {
+export async function leadAddresses(db: Db): Promise<string[]> {
   const rows = await db.selectFrom("users").select("email").where("role", "=", "lead").where("disabled", "=", false).execute();
   return rows.map((r) => r.email);
 }
 
 /** E-mail addresses of every enabled account (critical alarms go to the whole lab). */
-export async function labAddresses(db: Conn): Promise<string[]> {
+export async function labAddresses(db: Db): Promise<string[]> {
   const rows = await db.selectFrom("users").select("email").where("disabled", "=", false).execute();
   return rows.map((r) => r.email);
 }
 
-export async function userAddress(db: Conn, id: number): Promise<string[]> {
+export async function userAddress(db: Db, id: number): Promise<string[]> {
   const row = await db.selectFrom("users").select(["email", "disabled"]).where("id", "=", id).executeTakeFirst();
   return row && !row.disabled ? [row.email] : [];
 }
@@ -55,11 +54,11 @@ export function lockDueMail(trx: Transaction<Database>, now: Date, limit: number
     .execute();
 }
 
-export async function markMailSent(db: Conn, id: string, at: Date): Promise<void> {
+export async function markMailSent(db: Db, id: string, at: Date): Promise<void> {
   await db.updateTable("mail_outbox").set({ sent_at: at, attempts: sql<number>`attempts + 1`, last_error: null }).where("id", "=", id).execute();
 }
 
-export async function markMailFailed(db: Conn, id: string, error: string, nextAttemptAt: Date): Promise<void> {
+export async function markMailFailed(db: Db, id: string, error: string, nextAttemptAt: Date): Promise<void> {
   await db
     .updateTable("mail_outbox")
     .set({ attempts: sql<number>`attempts + 1`, last_error: error.slice(0, 500), next_attempt_at: nextAttemptAt })
@@ -76,14 +75,14 @@ export interface ReceivedMail {
 }
 
 /** Stores a message the SMTP fake received. */
-export async function storeReceivedMail(db: Conn, m: ReceivedMail): Promise<void> {
+export async function storeReceivedMail(db: Db, m: ReceivedMail): Promise<void> {
   await db
     .insertInto("mailbox")
     .values({ envelope_from: m.envelopeFrom, envelope_to: m.envelopeTo, subject: m.subject, body: m.body, raw: m.raw })
     .execute();
 }
 
-export function listMailbox(db: Conn, limit = 200) {
+export function listMailbox(db: Db, limit = 200) {
   return db
     .selectFrom("mailbox")
     .select(["id", "received_at as receivedAt", "envelope_from as from", "envelope_to as to", "subject", "body"])
@@ -92,7 +91,7 @@ export function listMailbox(db: Conn, limit = 200) {
     .execute();
 }
 
-export function outboxBacklog(db: Conn) {
+export function outboxBacklog(db: Db) {
   return db
     .selectFrom("mail_outbox")
     .select(["id", "subject", "recipients", "attempts", "next_attempt_at as nextAttemptAt", "last_error as lastError"])

@@ -7,7 +7,6 @@ import type { Database } from "../types";
 import { appendAudit } from "./audit";
 import { channelPathSql } from "./channels";
 
-type Conn = Db | Transaction<Database>;
 
 export type { RecordingSummary };
 
@@ -21,7 +20,7 @@ export interface NewRecording {
   missingCount: number;
 }
 
-function summaryQuery(db: Conn) {
+function summaryQuery(db: Db) {
   return db
     .selectFrom("recordings as rec")
     .innerJoin("channels as c", "c.id", "rec.channel_id")
@@ -47,18 +46,18 @@ function summaryQuery(db: Conn) {
 }
 
 /** Newest first; only one channel's when `channelId` is given. */
-export function listRecordings(db: Conn, channelId?: number): Promise<RecordingSummary[]> {
+export function listRecordings(db: Db, channelId?: number): Promise<RecordingSummary[]> {
   let q = summaryQuery(db);
   if (channelId !== undefined) q = q.where("rec.channel_id", "=", channelId);
   return q.orderBy("rec.created_at", "desc").orderBy("rec.id", "desc").execute();
 }
 
-export function findRecording(db: Conn, id: number): Promise<RecordingSummary | undefined> {
+export function findRecording(db: Db, id: number): Promise<RecordingSummary | undefined> {
   return summaryQuery(db).where("rec.id", "=", id).executeTakeFirst();
 }
 
 /** The samples of a recording, or undefined when there is none with this id. */
-export async function findRecordingSamples(db: Conn, id: number): Promise<Float64Array | undefined> {
+export async function findRecordingSamples(db: Db, id: number): Promise<Float64Array | undefined> {
   const row = await db.selectFrom("recordings").select("samples").where("id", "=", id).executeTakeFirst();
   return row ? decodeSamples(row.samples) : undefined;
 }

@@ -12,11 +12,10 @@ import { channelPathSql } from "./channels";
 import { enqueueMail, leadAddresses, userAddress } from "./mail";
 import { enforce } from "./sets";
 
-type Conn = Db | Transaction<Database>;
 
 const pathExpr = channelPathSql("rg", "d", "c");
 
-function revisionQuery(db: Conn) {
+function revisionQuery(db: Db) {
   return db
     .selectFrom("revisions as r")
     .innerJoin("coefficient_sets as s", "s.id", "r.set_id")
@@ -70,16 +69,16 @@ export interface RevisionView {
   channel: string;
 }
 
-export async function findRevision(db: Conn, id: number): Promise<RevisionView | undefined> {
+export async function findRevision(db: Db, id: number): Promise<RevisionView | undefined> {
   return (await revisionQuery(db).where("r.id", "=", id).executeTakeFirst()) as RevisionView | undefined;
 }
 
-export async function listRevisions(db: Conn, setId: number): Promise<RevisionView[]> {
+export async function listRevisions(db: Db, setId: number): Promise<RevisionView[]> {
   return (await revisionQuery(db).where("r.set_id", "=", setId).orderBy("r.revision", "desc").execute()) as RevisionView[];
 }
 
 /** Revisions waiting for a lead, oldest submission first. */
-export async function listAwaitingReview(db: Conn): Promise<RevisionView[]> {
+export async function listAwaitingReview(db: Db): Promise<RevisionView[]> {
   return (await revisionQuery(db)
     .where("r.state", "=", "in_review")
     .where("s.retired_at", "is", null)
@@ -87,7 +86,7 @@ export async function listAwaitingReview(db: Conn): Promise<RevisionView[]> {
     .execute()) as RevisionView[];
 }
 
-export function listReviews(db: Conn, setId: number) {
+export function listReviews(db: Db, setId: number) {
   return db
     .selectFrom("reviews as v")
     .innerJoin("revisions as r", "r.id", "v.revision_id")

@@ -1,16 +1,14 @@
 import { randomBytes } from "node:crypto";
-import { sql, type Transaction } from "kysely";
+import { sql } from "kysely";
 import type { StoredAccount } from "@/lib/auth/guard";
 import type { Db } from "../client";
-import type { Database } from "../types";
 
-type Conn = Db | Transaction<Database>;
 
 /** A live session with its account, as the guard checks it. */
 export type SessionAccount = StoredAccount & { session_id: string };
 
 /** Starts a session for a user (256 random bits, base64url) that lasts `ttlSeconds`; expired ones are deleted on the way. */
-export async function createSession(db: Conn, userId: number, ttlSeconds: number): Promise<string> {
+export async function createSession(db: Db, userId: number, ttlSeconds: number): Promise<string> {
   const id = randomBytes(32).toString("base64url");
   await db.deleteFrom("sessions").where("expires_at", "<", sql<Date>`now()`).execute();
   await db
@@ -21,12 +19,12 @@ export async function createSession(db: Conn, userId: number, ttlSeconds: number
 }
 
 /** Ends a session at once, wherever copies of its cookie are. */
-export async function revokeSession(db: Conn, id: string): Promise<void> {
+export async function revokeSession(db: Db, id: string): Promise<void> {
   await db.updateTable("sessions").set({ revoked_at: sql<Date>`now()` }).where("id", "=", id).where("revoked_at", "is", null).execute();
 }
 
 /** The accounts behind these sessions while they are live (not revoked, not expired), in one query. */
-export function liveSessionAccounts(db: Conn, sessionIds: string[]): Promise<SessionAccount[]> {
+export function liveSessionAccounts(db: Db, sessionIds: string[]): Promise<SessionAccount[]> {
   if (!sessionIds.length) return Promise.resolve([]);
   return db
     .selectFrom("sessions")
@@ -39,6 +37,6 @@ export function liveSessionAccounts(db: Conn, sessionIds: string[]): Promise<Ses
 }
 
 /** The account behind one live session, or undefined. */
-export async function liveSessionAccount(db: Conn, sessionId: string): Promise<SessionAccount | undefined> {
+export async function liveSessionAccount(db: Db, sessionId: string): Promise<SessionAccount | undefined> {
   return (await liveSessionAccounts(db, [sessionId]))[0];
 }

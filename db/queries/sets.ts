@@ -10,7 +10,6 @@ import type { CoefficientFormat, Database } from "../types";
 import { appendAudit } from "./audit";
 import { channelPathSql } from "./channels";
 
-type Conn = Db | Transaction<Database>;
 
 export interface NewRevisionInput {
   spec: FilterSpec;
@@ -119,7 +118,7 @@ export async function retireSet(trx: Transaction<Database>, actor: SessionUser, 
 const statusExpr = sql<SetStatus>`case when s.retired_at is not null then 'retired' else r.state end`;
 const pathExpr = channelPathSql("rg", "d", "c");
 
-function setQuery(db: Conn) {
+function setQuery(db: Db) {
   return db
     .selectFrom("coefficient_sets as s")
     .innerJoin("channels as c", "c.id", "s.channel_id")
@@ -153,7 +152,7 @@ const SORT_COLUMN = {
 } as const;
 
 /** One page of sets, filtered and sorted on the server; `total` counts every match. */
-export async function listSets(db: Conn, f: SetFilters): Promise<{ items: SetListItem[]; total: number }> {
+export async function listSets(db: Db, f: SetFilters): Promise<{ items: SetListItem[]; total: number }> {
   let q = setQuery(db);
   if (f.channel) q = q.where(pathExpr, "=", f.channel);
   if (f.status) q = q.where(statusExpr, "=", f.status);
@@ -191,7 +190,7 @@ export function escapeLike(text: string): string {
 }
 
 /** A set with its channel, device format and creator. */
-export function findSet(db: Conn, id: number) {
+export function findSet(db: Db, id: number) {
   return setQuery(db)
     .select([
       "s.id",

@@ -8,7 +8,6 @@ import type { Db } from "../client";
 import type { Database, TokenScope } from "../types";
 import { appendAudit } from "./audit";
 
-type Conn = Db | Transaction<Database>;
 
 /** `tw_` and 32 random bytes in base64url (43 characters): 256 bits, never guessable. */
 const TOKEN_PATTERN = /^tw_[A-Za-z0-9_-]{43}$/;
@@ -39,7 +38,7 @@ export interface TokenView {
   revokedReason: "revoked" | "owner_disabled" | null;
 }
 
-function tokenQuery(db: Conn) {
+function tokenQuery(db: Db) {
   return db
     .selectFrom("api_tokens as t")
     .innerJoin("users as u", "u.id", "t.user_id")
@@ -57,7 +56,7 @@ function tokenQuery(db: Conn) {
 }
 
 /** Engineers see their own tokens; leads and admins see everyone's. Newest first. */
-export function listTokens(db: Conn, actor: SessionUser): Promise<TokenView[]> {
+export function listTokens(db: Db, actor: SessionUser): Promise<TokenView[]> {
   const q = tokenQuery(db).orderBy("t.id", "desc");
   return roleAtLeast(actor.role, "lead") ? q.execute() : q.where("t.user_id", "=", actor.id).execute();
 }
@@ -121,7 +120,7 @@ export interface TokenUse {
  * (disabling revokes it for good, see migration 0010). Counts the request in the token's one-minute
  * window and records it as the last use, in one atomic update.
  */
-export async function useToken(db: Conn, token: string): Promise<TokenUse | null> {
+export async function spendToken(db: Db, token: string): Promise<TokenUse | null> {
   if (!TOKEN_PATTERN.test(token)) return null;
   const fresh = sql<boolean>`t.window_start is null or t.window_start <= now() - ${TOKEN_RATE.windowMs} * interval '1 millisecond'`;
   const row = await db
@@ -147,7 +146,7 @@ export async function useToken(db: Conn, token: string): Promise<TokenUse | null
 }
 
 /** Audits one use of a token (every use of a promote token is audited, with its name); `what` says what it did. */
-export async function auditTokenUse(db: Conn, use: Pick<TokenUse, "user" | "token">, what: Record<string, unknown>): Promise<void> {
+export async function auditTokenUse(db: Db, use: Pick<TokenUse, "user" | "token">, what: Record<string, unknown>): Promise<void> {
   await appendAudit(db, {
     actorId: use.user.id,
     action: "token.use",

@@ -1,25 +1,23 @@
 import { sql } from "kysely";
 import type { Role } from "@/lib/auth/roles";
 import type { Db } from "../client";
-import type { Database, User } from "../types";
-import type { Transaction } from "kysely";
+import type { User } from "../types";
 
-type Conn = Db | Transaction<Database>;
 
-export function findUserById(db: Conn, id: number): Promise<User | undefined> {
+export function findUserById(db: Db, id: number): Promise<User | undefined> {
   return db.selectFrom("users").selectAll().where("id", "=", id).executeTakeFirst();
 }
 
-export function findUserByEmail(db: Conn, email: string): Promise<User | undefined> {
+export function findUserByEmail(db: Db, email: string): Promise<User | undefined> {
   return db.selectFrom("users").selectAll().where("email", "=", email.toLowerCase()).executeTakeFirst();
 }
 
-export function listUsers(db: Conn): Promise<User[]> {
+export function listUsers(db: Db): Promise<User[]> {
   return db.selectFrom("users").selectAll().orderBy("role").orderBy("email").execute();
 }
 
 export function insertUser(
-  db: Conn,
+  db: Db,
   user: { email: string; displayName: string; passwordHash: string; role: Role },
 ): Promise<User> {
   return db
@@ -31,7 +29,7 @@ export function insertUser(
 
 /** Changes role, disabled flag or password; disabling or a new password ends every session. */
 export function updateUser(
-  db: Conn,
+  db: Db,
   id: number,
   change: { role?: Role; disabled?: boolean; passwordHash?: string; displayName?: string },
 ): Promise<User | undefined> {

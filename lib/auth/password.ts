@@ -28,6 +28,13 @@ export async function verifyPassword(password: string, stored: string): Promise<
   if (![n, r, p].every(Number.isSafeInteger)) return false;
   const expected = Buffer.from(parts[5], "base64");
   if (expected.length !== KEY_LENGTH) return false;
-  const actual = await derive(password, Buffer.from(parts[4], "base64"), n, r, p);
+  let actual: Buffer;
+  try {
+    actual = await derive(password, Buffer.from(parts[4], "base64"), n, r, p);
+  } catch (err) {
+    // Node refuses scrypt parameters it cannot use (N not a power of two, too much memory, out of range) with a RangeError.
+    if (err instanceof RangeError) return false;
+    throw err;
+  }
   return timingSafeEqual(actual, expected);
 }

@@ -19,6 +19,7 @@ import {
   type StepMetrics,
 } from "@/lib/dsp";
 import { stageSummary } from "./spec-text";
+import { errorMessage } from "@/lib/errors";
 
 /** The analog system behind a spec, for drawing beside the digital response: an IIR's prototype at 2π·cutoff, or an analog H(s). */
 export function analogSystemFor(spec: FilterSpec): AnalogSystem | null {
@@ -134,7 +135,7 @@ export function fixedPreview(design: FilterDesign, freqsHz: number[]): FixedPrev
       const q = quantizeDesign(design, format);
       return { format, quantized: q, magnitudeDb: frequencyResponse(runnable(q), freqsHz).magnitudeDb, stable: q.stable, maxDeviationDb: q.maxDeviationDb, error: null };
     } catch (err) {
-      return { format, quantized: null, magnitudeDb: null, stable: null, maxDeviationDb: null, error: err instanceof Error ? err.message : String(err) };
+      return { format, quantized: null, magnitudeDb: null, stable: null, maxDeviationDb: null, error: errorMessage(err) };
     }
   });
 }

@@ -1,6 +1,7 @@
 import { frequencyResponse, quantizeDesign, stability, toMs, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
 import { hz, withUnit } from "./format";
 import { notchBands, specFrequencies } from "./spec-text";
+import { errorMessage } from "@/lib/errors";
 
 /** The closing line of every caution (product safety wording). */
 export const REVIEW_LINE =
@@ -106,7 +107,7 @@ function quantizationCaution(design: FilterDesign, format: QuantFormat): Caution
   try {
     q = quantizeDesign(design, format);
   } catch (err) {
-    return { kind: "quantization", level: "danger", title: `Not representable in ${name}`, text: err instanceof Error ? err.message : String(err) };
+    return { kind: "quantization", level: "danger", title: `Not representable in ${name}`, text: errorMessage(err) };
   }
   if (!q.stable) {
     return {

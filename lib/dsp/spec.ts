@@ -2,7 +2,7 @@ import { z } from "zod";
 import { biquadShapes, gainShapes } from "./biquad";
 import { discretizationMethods } from "./discretize/discretize";
 import { MAX_ANALOG_ORDER } from "./discretize/rational";
-import { firResponses } from "./fir/windowedSinc";
+import { firResponses } from "./fir/windowed-sinc";
 import { firWindows, zeroEndedWindows } from "./fir/windows";
 import { COMB_LIMITS, combSpecSchema } from "./comb-spec";
 import { FIR_DESIGN_LIMITS, firArbitrarySpecSchema, firEquirippleSpecSchema } from "./fir-design-spec";

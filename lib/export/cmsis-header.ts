@@ -29,7 +29,6 @@ function instanceLine(p: PreparedExport, i: CmsisInstance, names: CmsisNames): s
 
 /** The documented conventions the header follows, each with the documentation page it comes from. */
 function conventionLines(p: PreparedExport, structure: CmsisStructure, names: CmsisNames): string[] {
-  const b = names.biquad;
   const order = p.target === "q15" ? "{b0, 0, b1, b2, a1, a2}, 6 per biquad (the 0 pads for the dual 16-bit multiply)" : "{b0, b1, b2, a1, a2}, 5 per biquad";
   const page = structure === "df1" ? "Biquad Cascade IIR Filters Using Direct Form I Structure" : "Biquad Cascade IIR Filters Using a Direct Form II Transposed Structure";
   const lines = [

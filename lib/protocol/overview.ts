@@ -2,7 +2,7 @@ import { z } from "zod";
 import { FAULT_KINDS } from "./faults";
 
 /**
- * The sidecar's GET /overview answer as the web app reads it (README, live pipeline, "/overview").
+ * The sidecar's GET /overview answer as the web app reads it (docs/protocol.md, "/overview").
  * The route handler parses the sidecar's reply with it before passing it on; the cards read it back.
  */
 export const liveOverviewSchema = z.object({

@@ -4,7 +4,7 @@ import type { FaultKind } from "./faults";
 /** Largest sample payload accepted, in bytes; larger ones are refused unread. */
 export const MAX_PAYLOAD_BYTES = 64 * 1024;
 
-/** Binary sample payload v1, little-endian (the README's live pipeline section has the table). */
+/** Binary sample payload v1, little-endian (docs/protocol.md has the table). */
 export const BINARY_MAGIC = 0x54; // "T"
 export const BINARY_VERSION = 1;
 export const BINARY_HEADER_BYTES = 28;

@@ -1,6 +1,6 @@
 import { z } from "zod";
 
-/** Every Tapwright topic starts here; the `v1` level is the payload version (see the README's live pipeline section). */
+/** Every Tapwright topic starts here; the `v1` level is the payload version (see docs/protocol.md). */
 export const TOPIC_ROOT = "tapwright/v1";
 
 /** A rig, device or channel key: lowercase letters, digits and dashes, as the database enforces. */

@@ -62,7 +62,7 @@ function timeKindOf(header: string[], first: CsvRecord | undefined): TimeKind {
 const rateText = (hz: number) => `${Number(hz.toPrecision(7))} Hz`;
 
 /**
- * Parses a recorded trace (the CSV format in the README's recordings section): one header row; an optional first time column, `t_s`
+ * Parses a recorded trace (the CSV format in docs/recordings.md): one header row; an optional first time column, `t_s`
  * (relative seconds) or ISO 8601 timestamps with a zone; exactly one value column. Empty or NaN cells
  * become NaN and are counted; anything else that is not a '.'-decimal number is refused with its line
  * and column. The rate comes from the upload or from the median time step (steps must increase and

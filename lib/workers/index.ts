@@ -12,12 +12,15 @@ export function poolSettings(): Omit<Parameters<typeof createWorkPool>[0], "entr
   return { size: e.DESIGN_THREADS, timeoutMs: e.DESIGN_TIMEOUT_MS, maxQueued: e.DESIGN_QUEUE, maxPerOwner: e.DESIGN_PER_USER };
 }
 
-const holder = globalThis as unknown as { tapwrightWork?: WorkPool };
+declare global {
+  // One pool per process, kept on globalThis so that Next's module reloads in development reuse it.
+  var tapwrightWork: WorkPool | undefined;
+}
 
 /** The web app's pool of design threads (one per process, started on first use). */
 export function workPool(): WorkPool {
-  holder.tapwrightWork ??= createWorkPool({ ...poolSettings(), entry: workerEntry(), log: (m) => console.warn(`[work] ${m}`) });
-  return holder.tapwrightWork;
+  globalThis.tapwrightWork ??= createWorkPool({ ...poolSettings(), entry: workerEntry(), log: (m) => console.warn(`[work] ${m}`) });
+  return globalThis.tapwrightWork;
 }
 
 /**

@@ -2,6 +2,7 @@ import { checkFilter, type AlarmRule, type FilterCheck } from "@/lib/alarms";
 import { buildRevisionContent, type RevisionContent } from "@/lib/coefficients";
 import { designFilter, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
 import { ExportRefusal, prepareExport, type ExportSource, type ExportTarget, type PreparedExport } from "@/lib/export";
+import { errorMessage } from "@/lib/errors";
 
 /** The work that may run long, as messages a worker thread can take: each is bounded by the spec's limits and a time limit. */
 export type Job =
@@ -47,5 +48,5 @@ export async function runJob(job: Job): Promise<JobResults[Job["kind"]]> {
 
 /** A thrown value as a JobFailure. */
 export function jobFailure(err: unknown): JobFailure {
-  return { kind: err instanceof ExportRefusal ? "refusal" : "failed", message: err instanceof Error ? err.message : String(err) };
+  return { kind: err instanceof ExportRefusal ? "refusal" : "failed", message: errorMessage(err) };
 }

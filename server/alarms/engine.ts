@@ -6,6 +6,7 @@ import { closeTracker, createTracker, limitsChanged, resumeRaised, trackBlock, t
 import type { AlarmEventView, AlarmKind, SampleBatch, ServerMessage } from "@/lib/protocol";
 import type { Clock, Logger } from "../clock";
 import type { EventStore } from "./event-store";
+import { errorMessage } from "@/lib/errors";
 
 /** What browsers are shown of an event beyond what is written for it. */
 type About = Pick<AlarmEventView, "ruleName" | "channel" | "unit" | "acknowledgedAt" | "acknowledgedBy" | "comment">;
@@ -162,7 +163,7 @@ export async function createAlarmEngine(deps: AlarmEngineDeps): Promise<AlarmEng
           const now = deps.clock.now();
           if (now - lastFailureLog < 60_000) continue;
           lastFailureLog = now;
-          deps.logger.warn(`alarm rule ${rule.id} on ${path} failed: ${err instanceof Error ? err.message : String(err)}`);
+          deps.logger.warn(`alarm rule ${rule.id} on ${path} failed: ${errorMessage(err)}`);
         }
       }
     },

@@ -1,5 +1,5 @@
 import type { AlarmEventRecord } from "@/db/queries/alarm-events";
-import { isDatabaseDown } from "@/lib/errors";
+import { errorMessage, isDatabaseDown } from "@/lib/errors";
 import type { Clock, Logger, Timer } from "../clock";
 
 export interface EventStoreStats {
@@ -73,7 +73,7 @@ export function createEventStore(deps: {
         }
         if (failingSince === null) {
           failingSince = deps.clock.now();
-          deps.logger.warn(`alarm events not written, keeping ${pending.size} in memory and retrying: ${err instanceof Error ? err.message : String(err)}`);
+          deps.logger.warn(`alarm events not written, keeping ${pending.size} in memory and retrying: ${errorMessage(err)}`);
         }
         return false;
       }
@@ -97,7 +97,7 @@ export function createEventStore(deps: {
       } catch (err) {
         if (isDatabaseDown(err)) return false;
         counts.rejected++;
-        deps.logger.warn(`alarm event ${r.id} (rule ${r.ruleId}) refused by the database and dropped: ${err instanceof Error ? err.message : String(err)}`);
+        deps.logger.warn(`alarm event ${r.id} (rule ${r.ruleId}) refused by the database and dropped: ${errorMessage(err)}`);
       }
       if (pending.get(r.id) === r) pending.delete(r.id);
     }

@@ -7,6 +7,7 @@ import type { Pipeline } from "../pipeline/pipeline";
 import type { Hub } from "../ws/hub";
 import { createAlarmEngine, type AlarmEngine } from "./engine";
 import { createEventStore, type EventStore } from "./event-store";
+import { errorMessage } from "@/lib/errors";
 
 export interface AlarmService {
   engine: AlarmEngine;
@@ -43,7 +44,7 @@ export async function startAlarms(deps: {
     logger,
   });
   const unsubscribe = deps.pipeline.onSamples((path, batch, production) => engine.evaluate(path, batch, production));
-  const warn = (what: string) => (err: unknown) => logger.warn(`alarms: ${what}: ${err instanceof Error ? err.message : String(err)}`);
+  const warn = (what: string) => (err: unknown) => logger.warn(`alarms: ${what}: ${errorMessage(err)}`);
   const reload = () => void engine.reload().catch(warn("rules not reloaded"));
   const listeners: Listener[] = [
     await listenForNotifications({ databaseUrl: deps.databaseUrl, channel: ALARM_RULES_CHANNEL, onNotify: reload, onReconnect: reload, clock, logger }),

@@ -7,6 +7,7 @@ import { hashPassword, verifyPassword } from "@/lib/auth/password";
 import { parseTopic } from "@/lib/protocol";
 import type { Clock, Logger } from "../clock";
 import { SignInThrottle, type SignInThrottleOptions } from "./sign-in-throttle";
+import { errorMessage } from "@/lib/errors";
 
 /** Who a broker connection is: a device limited to its own topics, or one of the sidecar's own clients. */
 export type Principal = { kind: "device"; rig: string; device: string } | { kind: "internal"; name: string };
@@ -112,7 +113,7 @@ export function deviceAuthHooks(deps: {
           done(null, true);
         },
         (err: unknown) => {
-          deps.logger.warn(`device authentication failed: ${err instanceof Error ? err.message : String(err)}`);
+          deps.logger.warn(`device authentication failed: ${errorMessage(err)}`);
           done(authError("authentication unavailable", SERVER_UNAVAILABLE), false);
         },
       );

@@ -6,6 +6,7 @@ import { answerConfig } from "./config-handler";
 import { fnv1a } from "./prng";
 import { DEFAULT_RECIPE, RECIPES } from "./recipes";
 import { createSignalSource, type SignalSource } from "./signals";
+import { errorMessage } from "@/lib/errors";
 
 /** Channels at or above this rate publish the binary form; slower ones JSON (so both forms are exercised). */
 const BINARY_FROM_HZ = 2000;
@@ -87,7 +88,7 @@ export async function startDemoRig(opts: DemoRigOptions): Promise<DemoRigHandle>
           if (ack?.status === "applied") applied.set(`${rig.key}/${device.key}`, ack.configId);
           if (ack) client.publish(ackTopic(rig.key, device.key), JSON.stringify(ack), { qos: 1 });
         } catch (err) {
-          opts.logger.warn(`demo ${device.key} config handler: ${err instanceof Error ? err.message : String(err)}`);
+          opts.logger.warn(`demo ${device.key} config handler: ${errorMessage(err)}`);
         }
       });
       const channels = device.channels.map((c) => {
@@ -136,7 +137,7 @@ export async function startDemoRig(opts: DemoRigOptions): Promise<DemoRigHandle>
       opts.clock.clearInterval(timer);
       await Promise.all(
         devices.map(async (d) => {
-          await d.client.publishAsync(statusTopic(d.rig, d.device.key), JSON.stringify({ state: "offline" }), { qos: 1, retain: true }).catch(() => undefined);
+          await d.client.publishAsync(statusTopic(d.rig, d.device.key), JSON.stringify({ state: "offline" }), { qos: 1, retain: true }).catch((err: unknown) => opts.logger.warn(`demo ${d.device.key}: publishing its offline status failed: ${errorMessage(err)}`));
           await d.client.endAsync();
         }),
       );

@@ -41,7 +41,7 @@ export async function listenForNotifications(opts: {
   function scheduleReconnect(): void {
     const old = client;
     client = null;
-    old?.end().catch(() => undefined);
+    old?.end().catch((err: Error) => opts.logger.warn(`LISTEN ${opts.channel}: closing the lost connection failed: ${err.message}`));
     if (closed || retry) return;
     retry = opts.clock.setTimeout(() => {
       retry = null;
@@ -57,7 +57,7 @@ export async function listenForNotifications(opts: {
     async close() {
       closed = true;
       if (retry) opts.clock.clearTimeout(retry);
-      await client?.end().catch(() => undefined);
+      await client?.end().catch((err: Error) => opts.logger.warn(`LISTEN ${opts.channel}: closing failed: ${err.message}`));
     },
   };
 }

@@ -18,6 +18,7 @@ import type { ConfigExchange, ConfigOutcome } from "../devices/config-exchange";
 import type { Pipeline } from "../pipeline/pipeline";
 import { buildDeviceDocument, type DeviceRef } from "./document";
 import { listenForNotifications } from "./listen";
+import { errorMessage } from "@/lib/errors";
 
 /** How long a device has to acknowledge a configuration document before the deployment fails (ms). */
 export const DEFAULT_ACK_TIMEOUT_MS = 10_000;
@@ -74,7 +75,7 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
     if (stopped || scheduled.has(id)) return;
     scheduled.add(id);
     const job: Promise<void> = enqueue(id)
-      .catch((err: unknown) => deps.logger.warn(`deployment ${id}: ${err instanceof Error ? err.message : String(err)}`))
+      .catch((err: unknown) => deps.logger.warn(`deployment ${id}: ${errorMessage(err)}`))
       .finally(() => {
         scheduled.delete(id);
         running.delete(job);
@@ -86,6 +87,7 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
     const d = await findDeployment(deps.db, id);
     if (!d || d.state !== "pending") return;
     const turn = (queues.get(d.deviceId) ?? Promise.resolve()).then(() => handle(id));
+    // The queue goes on after a failed turn; the failure itself reaches this call's caller below.
     const tail = turn.catch(() => undefined);
     queues.set(d.deviceId, tail);
     try {
@@ -107,7 +109,7 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
     try {
       document = await buildDeviceDocument(deps.db, deviceOf(d), String(d.id), d);
     } catch (err) {
-      return fail(d, err instanceof Error ? err.message : String(err));
+      return fail(d, errorMessage(err));
     }
     deps.logger.info(
       `deployment ${id}: sending revision ${d.revisionId} to ${d.channel} (${d.format}, ${d.checksum.slice(0, 12)}…) in config ${document.configId}`,
@@ -116,7 +118,7 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
     try {
       outcome = await deps.exchange.send(d.rigKey, d.deviceKey, document, timeoutMs);
     } catch (err) {
-      return fail(d, `the config could not be published: ${err instanceof Error ? err.message : String(err)}`);
+      return fail(d, `the config could not be published: ${errorMessage(err)}`);
     }
     if (outcome.status === "timeout") return fail(d, `no acknowledgement from ${d.rigKey}/${d.deviceKey} within ${timeoutMs / 1000} s`);
     if (outcome.status === "refused") return fail(d, `the device refused it: ${outcome.ack.reason ?? "no reason given"}`);
@@ -130,7 +132,7 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
     const failed = await deps.db.transaction().execute((trx) => failDeployment(trx, d.id, reason));
     if (!failed) return;
     await retainActive(deviceOf(d)).catch((err: unknown) =>
-      deps.logger.warn(`deployment ${d.id}: previous config not put back: ${err instanceof Error ? err.message : String(err)}`),
+      deps.logger.warn(`deployment ${d.id}: previous config not put back: ${errorMessage(err)}`),
     );
   }
 
@@ -156,13 +158,13 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
       if (stopped) return;
       if (pending.has(device.id)) continue;
       await retainActive(device).catch((err: unknown) =>
-        deps.logger.warn(`config of ${device.rigKey}/${device.key} not republished: ${err instanceof Error ? err.message : String(err)}`),
+        deps.logger.warn(`config of ${device.rigKey}/${device.key} not republished: ${errorMessage(err)}`),
       );
     }
   }
 
   function logged(what: string, work: Promise<void>): void {
-    work.catch((err: unknown) => deps.logger.warn(`${what} failed: ${err instanceof Error ? err.message : String(err)}`));
+    work.catch((err: unknown) => deps.logger.warn(`${what} failed: ${errorMessage(err)}`));
   }
 
   function applyToPipeline(d: DeploymentView): void {
@@ -170,7 +172,7 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
     try {
       deps.pipeline.setProductionFilter(d.channel, String(d.revisionId), deployedDesign(d));
     } catch (err) {
-      deps.logger.warn(`production filter for ${d.channel} not switched: ${err instanceof Error ? err.message : String(err)}`);
+      deps.logger.warn(`production filter for ${d.channel} not switched: ${errorMessage(err)}`);
     }
   }
 

@@ -1,11 +1,12 @@
 import { ACK_FILTER, configTopic, deviceAckSchema, parseTopic, type DeviceAck, type DeviceConfig } from "@/lib/protocol";
 import type { MessageBus } from "../broker/bus";
 import type { Clock, Logger } from "../clock";
+import { errorMessage } from "@/lib/errors";
 
 /**
  * Who published an acknowledgement: an authenticated device identity (the embedded broker knows
  * it), `topic` where the broker's own ACL binds topics to identities (an external broker configured
- * as the README shows, or device authentication switched off for development), or null for anyone
+ * as docs/operations.md shows, or device authentication switched off for development), or null for anyone
  * else (an internal client, an unauthenticated one).
  */
 export type AckPublisher = { kind: "device"; rig: string; device: string } | { kind: "topic" } | null;
@@ -73,7 +74,7 @@ export async function createConfigExchange(deps: {
         }
       }
     } catch (err) {
-      deps.logger.warn(`ack handler failed: ${err instanceof Error ? err.message : String(err)}`);
+      deps.logger.warn(`ack handler failed: ${errorMessage(err)}`);
     }
   });
 

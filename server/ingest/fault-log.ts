@@ -1,5 +1,6 @@
 import type { FaultKind } from "@/lib/protocol";
 import type { Clock, Logger } from "../clock";
+import { throttledWarn } from "../throttled-log";
 
 export type FaultCounts = Partial<Record<FaultKind, number>>;
 
@@ -14,10 +15,9 @@ export interface FaultLog {
 }
 
 export function createFaultLog(deps: { clock: Clock; logger: Logger; logEveryMs?: number }): FaultLog {
-  const logEveryMs = deps.logEveryMs ?? 60_000;
+  const warn = throttledWarn({ clock: deps.clock, logger: deps.logger, everyMs: deps.logEveryMs });
   const counts = new Map<string, FaultCounts>();
   const totals: FaultCounts = {};
-  const lastLogged = new Map<FaultKind, { at: number; suppressed: number }>();
   /** Most distinct paths tracked; unknown topics beyond it are pooled under "(other)". */
   const maxPaths = 1024;
 
@@ -28,15 +28,7 @@ export function createFaultLog(deps: { clock: Clock; logger: Logger; logEveryMs?
       entry[kind] = (entry[kind] ?? 0) + 1;
       counts.set(key, entry);
       totals[kind] = (totals[kind] ?? 0) + 1;
-      const now = deps.clock.now();
-      const last = lastLogged.get(kind);
-      if (last && now - last.at < logEveryMs) {
-        last.suppressed++;
-        return;
-      }
-      const more = last?.suppressed ? ` (${last.suppressed} more since the last report)` : "";
-      deps.logger.warn(`ingest fault ${kind} on ${where}${detail ? `: ${detail}` : ""}${more}`);
-      lastLogged.set(kind, { at: now, suppressed: 0 });
+      warn(kind, `ingest fault ${kind} on ${where}${detail ? `: ${detail}` : ""}`);
     },
     byChannel: () => Object.fromEntries([...counts].map(([k, v]) => [k, { ...v }])),
     totals: () => ({ ...totals }),

@@ -1,5 +1,6 @@
 import { decodeSamples, MAX_PAYLOAD_BYTES, parseTopic, type SampleBatch } from "@/lib/protocol";
 import type { FaultLog } from "./fault-log";
+import { errorMessage } from "@/lib/errors";
 
 /** What ingest knows of a channel. */
 export interface ChannelInfo {
@@ -62,7 +63,7 @@ export function createIngest(deps: { channels: readonly ChannelInfo[]; sink: Bat
         handleUnsafe(topic, payload);
       } catch (err) {
         deps.faults.record(parseTopic(topic)?.kind === "samples" ? topic.split("/").slice(2, 5).join("/") : "(unknown)", "handler_error",
-          err instanceof Error ? err.message : String(err));
+          errorMessage(err));
       }
     },
   };

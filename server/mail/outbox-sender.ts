@@ -4,6 +4,7 @@ import { lockDueMail, markMailFailed, markMailSent } from "@/db/queries/mail";
 import { withAbsoluteLinks } from "@/lib/mail/templates";
 import { backoffDelay } from "../broker/mqtt-bus";
 import type { Clock, Logger, Timer } from "../clock";
+import { errorMessage } from "@/lib/errors";
 
 /** What the sender needs of a nodemailer transport. */
 export interface MailTransport {
@@ -61,7 +62,7 @@ export function startOutboxSender(deps: OutboxSenderDeps): OutboxSender {
           sent++;
         } catch (err) {
           const wait = Math.max(backoffDelay(m.attempts, initial, max, random), initial / 2);
-          const message = err instanceof Error ? err.message : String(err);
+          const message = errorMessage(err);
           await markMailFailed(trx, m.id, message, new Date(deps.clock.now() + wait));
           deps.logger.warn(`mail ${m.id} not sent (attempt ${m.attempts + 1}), retry in ${Math.round(wait / 1000)} s: ${message}`);
         }
@@ -85,6 +86,7 @@ export function startOutboxSender(deps: OutboxSenderDeps): OutboxSender {
     drain,
     async stop() {
       deps.clock.clearInterval(timer);
+      // A failure of the run in progress is logged by whoever started it (the timer, or drain's caller).
       await current?.catch(() => undefined);
     },
   };

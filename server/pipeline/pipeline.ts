@@ -1,4 +1,4 @@
-import { createFilterBank, type FilterDesign } from "@/lib/dsp";
+import { createFilterBank, NoSteadyState, type FilterDesign } from "@/lib/dsp";
 import { MAX_CANDIDATES_PER_CLIENT, type CandidateMetrics, type SampleBatch } from "@/lib/protocol";
 import type { BatchSink, ChannelInfo } from "../ingest/ingest";
 import { candidateMetrics, rawSpectrum, type RawSpectrum } from "./metrics";
@@ -40,7 +40,16 @@ interface LiveChannel {
   spark: SparkEnvelope;
 }
 
-export class CandidateLimitError extends Error {}
+/** A candidate refused by the pipeline: its id is taken on the channel, or the owner has as many as allowed. */
+export class CandidateLimitError extends Error {
+  constructor(
+    readonly reason: "duplicate" | "too_many",
+    message: string,
+  ) {
+    super(message);
+    this.name = "CandidateLimitError";
+  }
+}
 
 export interface Pipeline extends BatchSink {
   /** Sets or clears (design null) the channel's production filter; its state starts at rest. */
@@ -93,6 +102,8 @@ export function createPipeline(deps: {
   onFiltered?: (path: string, batch: SampleBatch, values: Float64Array) => void;
   /** The sidecar's clock, for lastSampleAt (epoch ms). */
   now?: () => number;
+  /** A candidate's metrics could not be computed (they are reported empty); for the log. */
+  onMetricsError?: (path: string, id: string, err: unknown) => void;
 }): Pipeline {
   const now = deps.now ?? Date.now;
   const historySeconds = deps.historySeconds ?? 60;
@@ -170,7 +181,8 @@ export function createPipeline(deps: {
   function addLive(path: string, id: string, design: FilterDesign): void {
     try {
       bank.add(path, id, design, { initial: "step" });
-    } catch {
+    } catch (err) {
+      if (!(err instanceof NoSteadyState)) throw err;
       bank.add(path, id, design);
     }
   }
@@ -191,10 +203,10 @@ export function createPipeline(deps: {
     addCandidate(path, owner, id, design) {
       const ch = channelOf(path);
       const key = candidateKey(owner, id);
-      if (ch.candidates.has(key)) throw new CandidateLimitError(`candidate '${id}' already exists on ${path}`);
+      if (ch.candidates.has(key)) throw new CandidateLimitError("duplicate", `candidate '${id}' already exists on ${path}`);
       const mine = [...ch.candidates.keys()].filter((k) => k.startsWith(`${owner}/`)).length;
       if (mine >= MAX_CANDIDATES_PER_CLIENT) {
-        throw new CandidateLimitError(`at most ${MAX_CANDIDATES_PER_CLIENT} candidates per channel`);
+        throw new CandidateLimitError("too_many", `at most ${MAX_CANDIDATES_PER_CLIENT} candidates per channel`);
       }
       addLive(path, key, design);
       ch.candidates.set(key, { design, output: new SampleRing(Math.ceil(ch.info.sampleRateHz)), filtered: 0 });
@@ -239,7 +251,8 @@ export function createPipeline(deps: {
         try {
           spectrum ??= rawSpectrum(raw, fs);
           result[id] = candidateMetrics(raw, c.output.latest(n), c.design, spectrum);
-        } catch {
+        } catch (err) {
+          deps.onMetricsError?.(path, id, err);
           result[id] = EMPTY_METRICS;
         }
       }

@@ -1,4 +1,5 @@
 import { supervise } from "./supervisor";
+import { errorMessage } from "@/lib/errors";
 
 /**
  * `npm start`'s process keeper: the web app, the mail catcher and the sidecar, each restarted with a
@@ -21,7 +22,7 @@ function stopAll(signal: string): void {
   supervisor.stop().then(
     () => process.exit(0),
     (err: unknown) => {
-      console.error(`[supervisor] stop failed: ${err instanceof Error ? err.message : String(err)}`);
+      console.error(`[supervisor] stop failed: ${errorMessage(err)}`);
       process.exit(1);
     },
   );

@@ -21,19 +21,22 @@ if [ -z "${TEST_DATABASE_URL:-}" ]; then
 fi
 mkdir -p .data/reports
 
+# Lint first: an error (or a warning) fails the run, and its report is printed here.
+npm run --silent lint
+lint=$?
 node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile.json=.data/reports/vitest.json
 unit=$?
 DATABASE_URL=$E2E_DATABASE_URL PLAYWRIGHT_JSON_OUTPUT_NAME=.data/reports/playwright.json \
   node_modules/.bin/playwright test --reporter=list,json
 e2e=$?
 
-node -e '
+LINT_STATUS=$lint node -e '
 const fs = require("fs");
 const read = (f) => { try { return JSON.parse(fs.readFileSync(f, "utf8")); } catch { return null; } };
 const v = read(".data/reports/vitest.json"), p = read(".data/reports/playwright.json");
 const passed = (v?.numPassedTests ?? 0) + (p?.stats?.expected ?? 0);
-const failed = (v ? v.numFailedTests : 1) + (p ? p.stats.unexpected : 1);
+const failed = (v ? v.numFailedTests : 1) + (p ? p.stats.unexpected : 1) + (process.env.LINT_STATUS === "0" ? 0 : 1);
 const skipped = (v?.numPendingTests ?? 0) + (p?.stats?.skipped ?? 0);
 console.log(`${passed} passed, ${failed} failed, ${skipped} skipped`);
 '
-[ "$unit" = 0 ] && [ "$e2e" = 0 ]
+[ "$lint" = 0 ] && [ "$unit" = 0 ] && [ "$e2e" = 0 ]

@@ -2,7 +2,7 @@ import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { requireRole, resolveSessionUser, type SessionUser, type StoredSession } from "@/lib/auth/guard";
 import { roleAtLeast, type Role } from "@/lib/auth/roles";
 import type { SessionData } from "@/lib/auth/session-config";
-import { AppError } from "@/lib/errors";
+import { AppError, errorMessage } from "@/lib/errors";
 import {
   clientMessageSchema,
   MAX_CANDIDATES_PER_CLIENT,
@@ -119,7 +119,7 @@ function designRefusal(err: unknown): unknown {
   if (err instanceof WorkTimeout) return new Refusal("bad_spec", `${err.message} Make the design smaller: fewer sections, taps or stages.`);
   if (err instanceof WorkFailed && err.kind !== "crashed") return new Refusal("bad_spec", err.message);
   if (err instanceof CandidateLimitError) {
-    return new Refusal(err.message.includes("already") ? "duplicate_candidate" : "too_many_candidates", err.message);
+    return new Refusal(err.reason === "duplicate" ? "duplicate_candidate" : "too_many_candidates", err.message);
   }
   return err;
 }
@@ -247,7 +247,7 @@ export function createHub(opts: HubOptions): Hub {
       const code: WsErrorCode = err.code === "forbidden" || err.code === "unauthorized" ? "forbidden" : "internal";
       return send(state, { type: "error", code, message: err.message });
     }
-    opts.logger.warn(`ws message failed: ${err instanceof Error ? err.message : String(err)}`);
+    opts.logger.warn(`ws message failed: ${errorMessage(err)}`);
     send(state, { type: "error", code: "internal", message: "The message could not be handled." });
   }
 
@@ -388,7 +388,7 @@ export function createHub(opts: HubOptions): Hub {
     },
     recheckSessions() {
       recheck ??= recheckOnce()
-        .catch((err) => opts.logger.warn(`session recheck failed: ${err instanceof Error ? err.message : String(err)}`))
+        .catch((err) => opts.logger.warn(`session recheck failed: ${errorMessage(err)}`))
         .finally(() => {
           recheck = null;
         });
@@ -422,7 +422,7 @@ export function createHub(opts: HubOptions): Hub {
     try {
       fn();
     } catch (err) {
-      opts.logger.warn(`${what} tick failed: ${err instanceof Error ? err.message : String(err)}`);
+      opts.logger.warn(`${what} tick failed: ${errorMessage(err)}`);
     }
   }
 

@@ -1,4 +1,5 @@
 import type { IncomingMessage } from "node:http";
+import { Socket } from "node:net";
 import type { Duplex } from "node:stream";
 import { unsealData } from "iron-session";
 import { WebSocketServer, type WebSocket } from "ws";
@@ -9,6 +10,7 @@ import { SESSION_COOKIE, type SessionData } from "@/lib/auth/session-config";
 import { WS_PATH } from "@/lib/protocol";
 import type { Logger } from "../clock";
 import type { Hub } from "./hub";
+import { errorMessage } from "@/lib/errors";
 
 /** The path browsers connect to: ws://<sidecar>/ws. */
 
@@ -85,8 +87,6 @@ export function createWsEndpoint(deps: {
 
   function attach(ws: WebSocket, user: SessionUser, session: SessionData): void {
     const id = `c${++next}`;
-    const socket = (ws as unknown as { _socket?: { setNoDelay?: (on: boolean) => void } })._socket;
-    socket?.setNoDelay?.(true);
     deps.hub.add({
       id,
       user,
@@ -124,10 +124,12 @@ export function createWsEndpoint(deps: {
       });
       wss.handleUpgrade(req, socket, head, (ws) => {
         opened = true;
+        // Frames go out as soon as they are written (Nagle's algorithm off), as on every broker socket.
+        if (socket instanceof Socket) socket.setNoDelay(true);
         attach(ws, signedIn.user, signedIn.session);
       });
     } catch (err) {
-      deps.logger.warn(`upgrade failed: ${err instanceof Error ? err.message : String(err)}`);
+      deps.logger.warn(`upgrade failed: ${errorMessage(err)}`);
       refuse(socket, 503, "Service Unavailable");
     }
   }

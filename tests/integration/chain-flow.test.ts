@@ -12,7 +12,7 @@ import type { Sidecar } from "@/server/sidecar";
 import { firLowpass255, humChain, legacyFirRevision } from "../unit/coefficients-support";
 import { compileAndRun, inputWords, scratch } from "../unit/gcc-support";
 import { actAs, jsonRequest, params, setUpLab, type Accounts } from "./sets-fixture";
-import { memoryLogger, retainedDocument, testSidecar, until } from "./sidecar-support";
+import { memoryLogger, retainedDocument, testSidecar } from "./sidecar-support";
 
 vi.mock("@/db", async () => (await import("./sets-fixture")).dbModule);
 vi.mock("@/app/_lib/auth", async () => (await import("./sets-fixture")).authModule);

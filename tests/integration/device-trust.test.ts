@@ -159,7 +159,7 @@ describe("broker sign-in cost", () => {
   }, 120_000);
 });
 
-describe("identity on Debian's mosquitto with the README's ACL file", () => {
+describe("identity on Debian's mosquitto with the ACL file of docs/operations.md", () => {
   const SIDECAR = { username: "tapwright-sidecar", password: "sidecar-secret-0123456789" };
   let broker: Awaited<ReturnType<typeof mosquitto>>;
 

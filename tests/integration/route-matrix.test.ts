@@ -2,7 +2,6 @@ import { readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import type { Db } from "@/db/client";
 import { seedDemo } from "@/db/seed";
 import { revokeSession } from "@/db/queries/sessions";
 import { createToken } from "@/db/queries/tokens";
@@ -180,7 +179,7 @@ function sameOriginHeaders(): Record<string, string> {
 }
 
 /** The session cookie a credential sends, if any: a role signs in afresh for every call (signing out revokes the session). */
-async function useCookie(credential: Credential): Promise<void> {
+async function presentCookie(credential: Credential): Promise<void> {
   request.cookies.clear();
   let cookie: string | undefined;
   if (credential === "forged") cookie = forged;
@@ -191,7 +190,7 @@ async function useCookie(credential: Credential): Promise<void> {
 
 /** Sets the guard's view of the request (cookie and headers) and builds the Request itself. */
 async function prepare(route: FoundRoute, credential: Credential, headers: Record<string, string>): Promise<Request> {
-  await useCookie(credential);
+  await presentCookie(credential);
   const all: Record<string, string> = { ...headers };
   if (credential === "token") all.authorization = `Bearer ${token}`;
   request.headers = new Headers(all);
@@ -214,7 +213,7 @@ function form(fields: Record<string, string | string[]>): FormData {
 }
 
 async function act(action: FoundAction, credential: Credential, headers: Record<string, string>): Promise<ActionState> {
-  await useCookie(credential);
+  await presentCookie(credential);
   request.headers = new Headers(headers);
   return action.run({ ok: true }, form(ACTIONS[action.key].form));
 }

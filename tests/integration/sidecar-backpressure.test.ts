@@ -3,6 +3,7 @@ import type { Db } from "@/db/client";
 import { encodeBinarySamples, samplesTopic, type FrameMessage } from "@/lib/protocol";
 import type { Sidecar } from "@/server/sidecar";
 import { cookieFor, openSocket, seededDb, testSidecar, until } from "./sidecar-support";
+import { unchecked } from "../support/unchecked";
 
 const ACCEL = "gearbox-endurance/vibe-node/housing-accel"; // 5 kHz
 
@@ -32,7 +33,7 @@ describe("a slow WebSocket client", () => {
     await slow.next("error");
     await fast.next("error");
     // The slow browser stops reading: its socket fills, then the sidecar's send buffer for it grows.
-    (slow.ws as unknown as { _socket: { pause(): void; resume(): void } })._socket.pause();
+    unchecked<{ _socket: { pause(): void } }>(slow.ws)._socket.pause();
 
     const rounds = 150;
     const values = Array.from({ length: 5000 }, (_, i) => Math.sin(i / 7) * 12.345678901234);
@@ -48,7 +49,7 @@ describe("a slow WebSocket client", () => {
     await until(() => frames(fast) === rounds, 10_000, "every frame at the fast client");
 
     sidecar.hub.statusTick();
-    (slow.ws as unknown as { _socket: { resume(): void } })._socket.resume();
+    unchecked<{ _socket: { resume(): void } }>(slow.ws)._socket.resume();
     const status = await slow.next("status", (s) => s.droppedFrames > 0);
     expect(status.droppedFrames).toBeGreaterThan(0);
     expect(frames(slow) + status.droppedFrames).toBe(rounds);

@@ -1,5 +1,5 @@
 import { polyMul } from "../poly";
-import { polyPower } from "./polyPower";
+import { polyPower } from "./poly-power";
 import { exponentialRootPolynomial } from "./companion";
 
 /**

@@ -1,5 +1,6 @@
 import { directFormDcGain } from "../dc-gain";
 import { StateVector } from "./state-vector";
+import { NoSteadyState } from "./steady-state";
 
 /**
  * A transfer function b/a (a[0] = 1) run in direct form II transposed with the arithmetic of
@@ -54,7 +55,7 @@ export class DirectFormState extends StateVector {
  */
 function unitStepState(b: Float64Array, a: Float64Array): Float64Array {
   const gain = directFormDcGain(Array.from(b), Array.from(a));
-  if (gain === null) throw new Error("initial 'step' needs a finite DC gain, but the direct form has Σa = 0 (a pole at z = 1)");
+  if (gain === null) throw new NoSteadyState("initial 'step' needs a finite DC gain, but the direct form has Σa = 0 (a pole at z = 1)");
   const z = new Float64Array(b.length - 1);
   let acc = 0;
   for (let k = b.length - 1; k >= 1; k--) {

@@ -7,3 +7,4 @@ export {
 } from "./streaming-filter";
 export { createFilterBank, type FilterBank } from "./filter-bank";
 export { refuseCodeGeneration } from "./codegen";
+export { NoSteadyState } from "./steady-state";

@@ -1,3 +1,11 @@
+/** A filter with a pole at z = 1 has no steady state for a constant input: it cannot start at `initial: "step"`. */
+export class NoSteadyState extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = "NoSteadyState";
+  }
+}
+
 /**
  * DF2T section states (2 per section) that hold a cascade at steady state for a constant
  * input of 1; multiply by the actual constant. Per section, lfilter_zi's 2×2 system
@@ -12,7 +20,7 @@ export function sosUnitStepState(packed: Float64Array): Float64Array {
     const [b0, b1, b2, a1, a2] = packed.subarray(s * 5, s * 5 + 5);
     const aSum = 1 + a1 + a2;
     if (aSum === 0) {
-      throw new Error(`initial 'step' needs a finite DC gain, but section ${s} has 1 + a1 + a2 = 0`);
+      throw new NoSteadyState(`initial 'step' needs a finite DC gain, but section ${s} has 1 + a1 + a2 = 0`);
     }
     const r0 = b1 - a1 * b0;
     const r1 = b2 - a2 * b0;

@@ -8,6 +8,7 @@ import { polyMul } from "@/lib/dsp/poly";
 import { designFilter } from "@/lib/dsp/design";
 import { filterSpecSchema, type FilterSpec } from "@/lib/dsp/filter-spec";
 import type { Complex, FilterDesign } from "@/lib/dsp/types";
+import { unchecked } from "../../support/unchecked";
 
 /** |H(e^{jω})| from the design's zeros, poles and gain: k·Π(e^{jω} − z)/Π(e^{jω} − p). */
 function zpkMagnitude(d: FilterDesign, freqHz: number): number {
@@ -36,9 +37,9 @@ function expectZpkMatchesRunForm(d: FilterDesign): void {
 
 describe("designFilter", () => {
   it("throws a clear Error listing each refused field for an unvalidated spec", () => {
-    const bad = { kind: "biquad", shape: "notch", centerHz: 700, q: -1, sampleRateHz: 1000 } as unknown as FilterSpec;
+    const bad = unchecked<FilterSpec>({ kind: "biquad", shape: "notch", centerHz: 700, q: -1, sampleRateHz: 1000 });
     expect(() => designFilter(bad)).toThrow(/invalid filter spec:\ncenterHz: centerHz must satisfy 0 < f < sampleRateHz\/2 = 500 Hz.*\nq: q must satisfy/s);
-    expect(() => designFilter({ kind: "nope" } as unknown as FilterSpec)).toThrow(/kind: Invalid discriminator value/);
+    expect(() => designFilter(unchecked<FilterSpec>({ kind: "nope" }))).toThrow(/kind: Invalid discriminator value/);
   });
 
   it("designs each kind with the matching run form", () => {

@@ -1,99 +1,73 @@
 "use server";
 
-import { revalidatePath } from "next/cache";
-import { requireActionUser } from "@/app/_lib/auth";
+import { defineAction } from "@/app/_lib/action";
 import { revisionInput } from "@/app/api/v1/sets/content";
 import { db } from "@/db";
 import { requestPromotion, requestRollback } from "@/db/queries/deployments";
 import { transitionRevision } from "@/db/queries/revisions";
 import { addRevision, findSet, retireSet } from "@/db/queries/sets";
-import { AppError, toErrorBody } from "@/lib/errors";
-import type { ActionState } from "@/lib/http/action-state";
-import { safeParseInput } from "@/lib/http/fields";
-import type { z } from "zod";
+import { AppError } from "@/lib/errors";
 import { promoteFormSchema, retireFormSchema, reviseFormSchema, rollbackFormSchema, transitionFormSchema } from "./schema";
 
-function fail(err: unknown): ActionState {
-  const { status, body } = toErrorBody(err);
-  if (status >= 500) console.error("[sets action]", err);
-  return { ok: false, message: body.error.message };
-}
+/** The set pages and the review queue show what these actions change. */
+const SHOWN_IN = [["/sets", "layout"], "/reviews"] as const;
 
-function invalid(error: z.ZodError): ActionState {
-  const fieldErrors = Object.fromEntries(error.issues.map((i) => [String(i.path[0] ?? "form"), i.message]));
-  return { ok: false, message: Object.values(fieldErrors)[0], fieldErrors };
-}
-
-function refresh(): void {
-  revalidatePath("/sets", "layout");
-  revalidatePath("/reviews");
-}
-
-export async function transitionAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = safeParseInput(transitionFormSchema, Object.fromEntries(form));
-  if (!parsed.success) return invalid(parsed.error);
-  try {
-    const user = await requireActionUser("engineer");
-    const rev = await db().transaction().execute((trx) => transitionRevision(trx, user, parsed.data));
-    refresh();
+export const transitionAction = defineAction({
+  name: "sets action",
+  schema: transitionFormSchema,
+  role: "engineer",
+  revalidate: SHOWN_IN,
+  act: async ({ data, user, transaction }) => {
+    const rev = await transaction((trx) => transitionRevision(trx, user, data));
     return { ok: true, message: `Revision r${rev.revision} is now ${rev.state.replace("_", " ")}.` };
-  } catch (err) {
-    return fail(err);
-  }
-}
+  },
+});
 
-export async function promoteAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = safeParseInput(promoteFormSchema, { ...Object.fromEntries(form), channels: form.getAll("channels") });
-  if (!parsed.success) return invalid(parsed.error);
-  try {
-    const user = await requireActionUser("lead");
-    const { deployments } = await db().transaction().execute((trx) => requestPromotion(trx, user, parsed.data.revisionId, parsed.data.channels));
-    refresh();
+export const promoteAction = defineAction({
+  name: "sets action",
+  schema: promoteFormSchema,
+  input: (form) => ({ ...Object.fromEntries(form), channels: form.getAll("channels") }),
+  role: "lead",
+  revalidate: SHOWN_IN,
+  act: async ({ data, user, transaction }) => {
+    const { deployments } = await transaction((trx) => requestPromotion(trx, user, data.revisionId, data.channels));
     return { ok: true, message: `Sent to ${deployments.map((d) => d.channel).join(", ")}; waiting for the device to acknowledge.` };
-  } catch (err) {
-    return fail(err);
-  }
-}
+  },
+});
 
-export async function rollbackAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = safeParseInput(rollbackFormSchema, Object.fromEntries(form));
-  if (!parsed.success) return invalid(parsed.error);
-  try {
-    const user = await requireActionUser("lead");
-    await db().transaction().execute((trx) => requestRollback(trx, user, parsed.data.channel, parsed.data.expectedActiveId));
-    refresh();
-    return { ok: true, message: `Rolling back ${parsed.data.channel}; waiting for the device to acknowledge.` };
-  } catch (err) {
-    return fail(err);
-  }
-}
+export const rollbackAction = defineAction({
+  name: "sets action",
+  schema: rollbackFormSchema,
+  role: "lead",
+  revalidate: SHOWN_IN,
+  act: async ({ data, user, transaction }) => {
+    await transaction((trx) => requestRollback(trx, user, data.channel, data.expectedActiveId));
+    return { ok: true, message: `Rolling back ${data.channel}; waiting for the device to acknowledge.` };
+  },
+});
 
-export async function retireAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = safeParseInput(retireFormSchema, Object.fromEntries(form));
-  if (!parsed.success) return invalid(parsed.error);
-  try {
-    const user = await requireActionUser("lead");
-    await db().transaction().execute((trx) => retireSet(trx, user, parsed.data.setId, parsed.data.expectedVersion));
-    refresh();
+export const retireAction = defineAction({
+  name: "sets action",
+  schema: retireFormSchema,
+  role: "lead",
+  revalidate: SHOWN_IN,
+  act: async ({ data, user, transaction }) => {
+    await transaction((trx) => retireSet(trx, user, data.setId, data.expectedVersion));
     return { ok: true, message: "The set is retired." };
-  } catch (err) {
-    return fail(err);
-  }
-}
+  },
+});
 
-export async function reviseAction(_prev: ActionState, form: FormData): Promise<ActionState> {
-  const parsed = safeParseInput(reviseFormSchema, Object.fromEntries(form));
-  if (!parsed.success) return invalid(parsed.error);
-  try {
-    const user = await requireActionUser("engineer");
-    const { setId, expectedLatestRevision, spec, notes } = parsed.data;
+export const reviseAction = defineAction({
+  name: "sets action",
+  schema: reviseFormSchema,
+  role: "engineer",
+  revalidate: SHOWN_IN,
+  act: async ({ data, user, transaction }) => {
+    const { setId, expectedLatestRevision, spec, notes } = data;
     const set = await findSet(db(), setId);
     if (!set) throw new AppError("not_found", "No such coefficient set.");
     const input = await revisionInput(spec, { path: set.channel, sampleRateHz: set.sampleRateHz, format: set.format }, notes, user.id);
-    const saved = await db().transaction().execute((trx) => addRevision(trx, user, setId, expectedLatestRevision, input));
-    refresh();
+    const saved = await transaction((trx) => addRevision(trx, user, setId, expectedLatestRevision, input));
     return { ok: true, message: `Saved revision r${saved.revision} as a draft.` };
-  } catch (err) {
-    return fail(err);
-  }
-}
+  },
+});

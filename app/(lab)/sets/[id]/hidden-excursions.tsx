@@ -9,6 +9,7 @@ import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { env } from "@/lib/env";
 import { decodeSamples } from "@/lib/recordings/samples";
 import { computeForRequest } from "@/lib/workers";
+import { errorMessage } from "@/lib/errors";
 
 /** How long the live service may take to hand over its recent samples, ms. */
 const SIDECAR_TIMEOUT_MS = 1_500;
@@ -20,7 +21,7 @@ async function recentSamples(path: string): Promise<{ samples: Float64Array; sam
     if (!res.ok) return null;
     return { samples: decodeSamples(new Uint8Array(await res.arrayBuffer())), sampleRateHz: Number(res.headers.get("x-sample-rate-hz")) };
   } catch (err) {
-    console.warn(`[hidden excursions] recent samples of ${path} not available: ${err instanceof Error ? err.message : String(err)}`);
+    console.warn(`[hidden excursions] recent samples of ${path} not available: ${errorMessage(err)}`);
     return null;
   }
 }
@@ -72,13 +73,13 @@ async function HiddenExcursionsCheck(props: CheckProps) {
   const production = active ? deployedDesign(active) : null;
   const fs = channel.sampleRateHz;
   const sources: Source[] = [];
-  let failure: string | null = null;
+  const failures: string[] = [];
   const add = async (label: string, samples: Float64Array) => {
     try {
       sources.push({ label, ...(await check(rules, props, production, samples, fs)) });
     } catch (err) {
-      console.warn(`[hidden excursions] ${channel.path} over ${label}: ${err instanceof Error ? err.message : String(err)}`);
-      failure = err instanceof Error ? err.message : "The check could not be made.";
+      console.warn(`[hidden excursions] ${channel.path} over ${label}: ${errorMessage(err)}`);
+      failures.push(err instanceof Error ? err.message : "The check could not be made.");
     }
   };
   const recent = await recentSamples(channel.path);
@@ -86,6 +87,7 @@ async function HiddenExcursionsCheck(props: CheckProps) {
   const [newest] = await listRecordings(db(), channel.id);
   const recorded = newest && newest.sampleRateHz === fs ? await findRecordingSamples(db(), newest.id) : undefined;
   if (newest && recorded) await add(`the recording “${newest.name}” (${seconds(recorded.length, fs)})`, recorded);
+  const failure = failures.at(-1) ?? null;
   return (
     <div className="rounded-md border border-dashed border-fault/60 p-2 text-xs" data-testid="hidden-excursions">
       <p className="font-medium">Would this filter hide a fault?</p>

@@ -1,5 +1,4 @@
 import { z } from "zod";
-import { dbId } from "@/lib/http/fields";
 import { channelPathSchema } from "@/lib/protocol";
 
 const blankToUndefined = (v: unknown) => (v === "" || v === null ? undefined : v);
