@@ -60,9 +60,10 @@ export async function rollbackAction(_prev: ActionState, form: FormData): Promis
   if (!parsed.success) return invalid(parsed.error);
   try {
     const user = await requireActionUser("lead");
-    await db().transaction().execute((trx) => requestRollback(trx, user, parsed.data.channel, parsed.data.expectedActiveId));
+    const { passThrough } = await db().transaction().execute((trx) => requestRollback(trx, user, parsed.data.channel, parsed.data.expectedActiveId));
     refresh();
-    return { ok: true, message: `Rolling back ${parsed.data.channel}; waiting for the device to acknowledge.` };
+    const what = passThrough ? `Returning ${parsed.data.channel} to no filter` : `Rolling back ${parsed.data.channel}`;
+    return { ok: true, message: `${what}; waiting for the device to acknowledge.` };
   } catch (err) {
     return fail(err);
   }

@@ -78,7 +78,10 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
               {deployments.map((d) => (
                 <tr key={d.id} className="border-t border-slate-100 align-top dark:border-slate-800" data-testid={`deployment-${d.id}`} data-channel={d.channel} data-state={d.state}>
                   <td className="num py-1 pr-3 text-xs">{d.channel}</td>
-                  <td className="num pr-3">r{d.revision}{d.kind === "rollback" && <span className="ml-1 text-xs text-slate-500">(rollback)</span>}</td>
+                  <td className="num pr-3">
+                    {d.passThrough ? <span className="font-sans">no filter</span> : `r${d.revision}`}
+                    {d.kind === "rollback" && <span className="ml-1 text-xs text-slate-500">(rollback)</span>}
+                  </td>
                   <td className="pr-3"><StateBadge state={d.state} /></td>
                   <td className="pr-3 text-xs">{d.requestedBy}, <span className="num">{utc(d.requestedAt)}</span></td>
                   <td className="num pr-3 text-xs">{utc(d.activatedAt)}</td>
@@ -91,11 +94,13 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
             </tbody>
           </table>
         )}
-        {roleAtLeast(me.role, "lead") && activeHere.some((d) => d.previousId !== null) && (
+        {roleAtLeast(me.role, "lead") && activeHere.some((d) => !d.passThrough) && (
           <div className="mt-3 flex flex-wrap gap-3">
-            {activeHere.filter((d) => d.previousId !== null).map((d) => (
-              <ActionForm key={d.id} action={rollbackAction} fields={{ channel: d.channel, expectedActiveId: d.id }} label={`Roll back ${d.channel}`} testId={`rollback-${d.channel}`}
-                confirm={`Roll back ${d.channel}? Its device goes back to the filter that was active before this one, once it acknowledges. Check with your team's review and the machine's safety documentation first.`} />
+            {activeHere.filter((d) => !d.passThrough).map((d) => (
+              <ActionForm key={d.id} action={rollbackAction} fields={{ channel: d.channel, expectedActiveId: d.id }} testId={`rollback-${d.channel}`}
+                {...(d.previousId === null
+                  ? { label: `Return ${d.channel} to no filter`, confirm: `Return ${d.channel} to no filter? Its device passes the raw signal through unfiltered once it acknowledges; anything downstream then sees the noise this filter removed. Check with your team's review and the machine's safety documentation first; local codes and licensed engineers decide.` }
+                  : { label: `Roll back ${d.channel}`, confirm: `Roll back ${d.channel}? Its device goes back to the filter that was active before this one, once it acknowledges. Check with your team's review and the machine's safety documentation first.` })} />
             ))}
           </div>
         )}
