@@ -98,7 +98,7 @@ test("Try on the live bench carries the replay's candidates over to the engineer
   await recordings.upload(`E2E carry-over ${Date.now().toString(36)}`, torqueCsv());
   await expect(page).toHaveURL(/\/recordings\/\d+$/);
   await page.getByRole("button", { name: "Add candidate" }).click();
-  await page.getByLabel("Cutoff", { exact: false }).fill("130");
+  await page.getByRole("textbox", { name: /^Cutoff/ }).fill("130");
   await expect(page.getByTestId("candidate-0").getByTestId("candidate-summary")).toHaveText("Butterworth LP 4 · 130 Hz");
   await page.getByRole("button", { name: "Close the editor" }).click();
 

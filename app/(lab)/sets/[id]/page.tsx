@@ -9,6 +9,9 @@ import { PendingRefresher } from "@/components/sets/pending-refresher";
 import { PromoteForm } from "@/components/sets/promote-form";
 import { ReviseForm } from "@/components/sets/revise-form";
 import { RevisionStages } from "@/components/sets/revision-stages";
+import { NotApprovable } from "@/components/sets/not-approvable";
+import { RevisionCharts } from "@/components/sets/revision-charts";
+import { RevisionCoefficients } from "@/components/sets/revision-coefficients";
 import { RevisionSummary } from "@/components/sets/revision-summary";
 import { StateBadge } from "@/components/sets/state-badge";
 import { db } from "@/db";
@@ -42,7 +45,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
   const states = await channelDeploymentStates(db(), sameRate.map((c) => c.id));
   const retired = set.retiredAt !== null;
   const can = (action: Parameters<typeof decide>[0], rev?: (typeof revisions)[number]) =>
-    decide(action, { role: me.role, actorId: me.id, authorId: rev?.authorId, state: rev?.state, retired }).ok;
+    decide(action, { role: me.role, actorId: me.id, authorId: rev?.authorId, state: rev?.state, retired, deployable: rev?.analysis.deployable.ok }).ok;
   const activeHere = deployments.filter((d) => d.state === "active");
   const search = await props.searchParams;
 
@@ -108,7 +111,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
 
       <section className="space-y-3" aria-labelledby="revisions-h">
         <h2 id="revisions-h" className="font-semibold">Revisions</h2>
-        {revisions.map((rev) => {
+        {revisions.map((rev, i) => {
           const revReviews = reviews.filter((r) => r.revisionId === rev.id);
           return (
             <article key={rev.id} className="card grid gap-4 p-4 lg:grid-cols-[1fr_24rem]" data-testid={`revision-${rev.revision}`} data-state={rev.state}>
@@ -120,7 +123,9 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                 </div>
                 {rev.notes && <p className="whitespace-pre-wrap text-sm">{rev.notes}</p>}
                 <RevisionStages spec={rev.spec} />
-              <RevisionSummary rev={rev} />
+                <RevisionSummary rev={rev} />
+                <RevisionCharts name={`r${rev.revision}`} spec={rev.spec} design={rev.design} open={i === 0 || rev.state === "in_review"} />
+                <RevisionCoefficients quantized={rev.quantized} />
                 {revReviews.map((r) => (
                   <p key={r.id} className="text-sm">
                     <StateBadge state={r.decision} /> by {r.reviewer} <span className="num text-xs text-slate-500">{utc(r.at)}</span>: {r.comment}
@@ -132,14 +137,18 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                 {can("submit", rev) && (
                   <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "submit", expectedVersion: rev.stateVersion }} label="Submit for review" tone="primary" testId="submit-form" />
                 )}
-                {rev.state === "in_review" && roleAtLeast(me.role, "lead") && !can("approve", rev) && (
+                {rev.state === "in_review" && roleAtLeast(me.role, "lead") && !can("reject", rev) && (
                   <p className="text-sm text-slate-500">You wrote this revision; another lead must review it.</p>
                 )}
-                {can("approve", rev) && (
+                {can("reject", rev) && (
                   <div className="flex flex-wrap gap-2">
-                    <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "approve", expectedVersion: rev.stateVersion }} label="Approve" tone="primary" testId="approve-form">
-                      <textarea name="comment" rows={2} className="field" placeholder="Comment (optional)" aria-label="Approval comment" />
-                    </ActionForm>
+                    {can("approve", rev) ? (
+                      <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "approve", expectedVersion: rev.stateVersion }} label="Approve" tone="primary" testId="approve-form">
+                        <textarea name="comment" rows={2} className="field" placeholder="Comment (optional)" aria-label="Approval comment" />
+                      </ActionForm>
+                    ) : (
+                      <NotApprovable reason={rev.analysis.deployable.ok ? null : rev.analysis.deployable.reason} />
+                    )}
                     <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "reject", expectedVersion: rev.stateVersion }} label="Reject" testId="reject-form">
                       <textarea name="comment" rows={2} className="field" placeholder="Why (required)" aria-label="Rejection comment" />
                     </ActionForm>
