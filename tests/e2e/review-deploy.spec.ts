@@ -4,11 +4,11 @@ import { SAME_ORIGIN } from "./pages/origin";
 import { SetsPage } from "./pages/sets-page";
 import { SignInPage } from "./pages/sign-in-page";
 
-// Oil temperature: 100 Hz, Q15 in the demo lab; no other end-to-end test deploys to it.
-const CHANNEL = "gearbox-endurance/vibe-node/oil-temp";
-const lowPass = { kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 5, sampleRateHz: 100 };
+// Shaft speed: 500 Hz on a Q15 device in the demo lab; no other end-to-end test deploys to it.
+const CHANNEL = "gearbox-endurance/torque-node/shaft-speed";
+const lowPass = { kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 20, sampleRateHz: 500 };
 // A pole at z = 1.2, outside the unit circle: saved, but marked not deployable.
-const unstable = { kind: "coefficients", b: [0.5, 0.5], a: [1, -1.2], sampleRateHz: 100 };
+const unstable = { kind: "coefficients", b: [0.5, 0.5], a: [1, -1.2], sampleRateHz: 500 };
 
 async function submitted(page: Page, name: string, spec: unknown): Promise<{ setId: number; revisionId: number }> {
   const saved = await SetsPage.createThroughApi(page.request, { channel: CHANNEL, name, spec });
@@ -20,8 +20,8 @@ async function submitted(page: Page, name: string, spec: unknown): Promise<{ set
 test("review and set pages chart the revision; Approve is not offered on one marked not deployable; an operator's open bench follows promotion and the return to no filter", async ({ page, browser }) => {
   test.setTimeout(180_000);
   const stamp = Date.now().toString(36);
-  const good = `E2E oil LP 5 ${stamp}`;
-  const bad = `E2E oil unstable ${stamp}`;
+  const good = `E2E speed LP 20 ${stamp}`;
+  const bad = `E2E speed unstable ${stamp}`;
   const signIn = new SignInPage(page);
   const sets = new SetsPage(page);
 
@@ -35,9 +35,14 @@ test("review and set pages chart the revision; Approve is not offered on one mar
   await page.goto("/reviews");
   const goodCard = page.locator("article", { hasText: good });
   const badCard = page.locator("article", { hasText: bad });
-  for (const id of ["bode-magnitude", "bode-phase", "pz-z"]) await expect(goodCard.getByTestId(id).locator("canvas, svg").first()).toBeVisible();
-  await expect(goodCard.getByTestId("revision-sections")).toContainText("1");
-  await expect(goodCard.getByTestId("fixed-words").first()).toHaveText(/^-?\d+(, -?\d+)+$/);
+  for (const id of ["bode-magnitude", "bode-phase"]) await expect(goodCard.getByTestId(id).locator("canvas").first()).toBeVisible();
+  // The map draws the two poles of the second-order low-pass.
+  await expect(goodCard.getByTestId("pz-z")).toBeVisible();
+  // One section of five Q15 words (b0, b1, b2, a1, a2), each an integer in [−32768, 32767].
+  await expect(goodCard.getByTestId("revision-sections").locator("tbody tr")).toHaveCount(1);
+  const words = (await goodCard.getByTestId("fixed-words").first().innerText()).split(", ").map(Number);
+  expect(words.length).toBeGreaterThanOrEqual(5);
+  for (const w of words) expect(Number.isInteger(w) && w >= -32768 && w <= 32767, `word ${w}`).toBe(true);
   await expect(goodCard.getByRole("button", { name: "Approve" })).toBeVisible();
   await expect(badCard.getByTestId("bode-magnitude")).toBeVisible();
   await expect(badCard.getByRole("button", { name: "Approve" })).toHaveCount(0);
@@ -57,7 +62,7 @@ test("review and set pages chart the revision; Approve is not offered on one mar
   await new SignInPage(operator).signInAs("operator");
   const bench = new BenchPage(operator);
   await bench.open(CHANNEL);
-  await expect(operator.getByText("No production filter is active on this channel")).toBeVisible();
+  await expect(operator.getByText(/^No production filter is active on this channel: the device sends raw samples/)).toBeVisible();
   await operator.evaluate(() => document.documentElement.setAttribute("data-not-reloaded", "yes"));
 
   await sets.promote(1, [CHANNEL]);
@@ -75,7 +80,7 @@ test("review and set pages chart the revision; Approve is not offered on one mar
   await back.getByRole("button", { name: `Yes, return ${CHANNEL} to no filter` }).click();
   await expect(page.locator(`tr[data-channel="${CHANNEL}"][data-state="active"]`)).toContainText("no filter", { timeout: 20_000 });
   await expect(page.locator(`tr[data-channel="${CHANNEL}"][data-state="rolled_back"]`)).toHaveCount(1);
-  await expect(operator.getByText("No production filter is active on this channel")).toBeVisible({ timeout: 5_000 });
+  await expect(operator.getByText(/^No production filter is active on this channel: the device sends raw samples/)).toBeVisible({ timeout: 5_000 });
   await expect(operator.locator("html")).toHaveAttribute("data-not-reloaded", "yes");
   const production = await page.request.get(`/api/v1/channels/${CHANNEL}/production`);
   expect(production.status()).toBe(404);

@@ -59,6 +59,8 @@ describe("kept bench candidates", () => {
     expect(rate.status).toBe(422);
     expect((await rate.json()).error.message).toMatch(/500 Hz.*1000 Hz/);
     expect((await put("bad key!", { spec: butterSpec(100), colorIndex: 0 })).status).toBe(400);
+    const tooManyTaps = await put("cX", { spec: { kind: "coefficients", b: Array.from({ length: 1025 }, () => 0.001), sampleRateHz: 1000 }, colorIndex: 0 });
+    expect(tooManyTaps.status).toBe(400);
     expect((await put("cX", { spec: butterSpec(100), colorIndex: 0 }, "gearbox-endurance/torque-node/nowhere")).status).toBe(404);
     actAs(users.operator);
     expect((await put("cX", { spec: butterSpec(100), colorIndex: 0 })).status).toBe(403);
