@@ -354,8 +354,15 @@ describe("promotion refusals", () => {
     );
     await expect(promote(draft.revisionId, [TORQUE])).rejects.toMatchObject({ code: "conflict" });
     await expect(promote(first, [PRESSURE])).rejects.toMatchObject({ code: "unprocessable", message: expect.stringMatching(/sample-rate mismatch/) });
-    const unstable = await approvedRevision("unstable", { kind: "coefficients", b: [1], a: [1, 0, 1.21], sampleRateHz: 1000 });
-    await expect(promote(unstable, [TORQUE])).rejects.toMatchObject({ code: "unprocessable", message: expect.stringMatching(/unstable/) });
+    // An unstable revision is marked not deployable, so it cannot be approved; one approved before that
+    // rule (set here directly) is still refused at promotion.
+    await expect(approvedRevision("unstable", { kind: "coefficients", b: [1], a: [1, 0, 1.21], sampleRateHz: 1000 })).rejects.toMatchObject({
+      code: "conflict",
+      message: expect.stringMatching(/not deployable/),
+    });
+    const unstable = await lab.db.selectFrom("revisions as r").innerJoin("coefficient_sets as s", "s.id", "r.set_id").select("r.id").where("s.name", "=", "unstable").executeTakeFirstOrThrow();
+    await lab.db.updateTable("revisions").set({ state: "approved" }).where("id", "=", unstable.id).execute();
+    await expect(promote(unstable.id, [TORQUE])).rejects.toMatchObject({ code: "unprocessable", message: expect.stringMatching(/unstable/) });
   });
 
   it("lets one of two leads promoting at once win; the other gets 409 (HTTP)", async () => {
