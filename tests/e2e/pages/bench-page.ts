@@ -24,23 +24,22 @@ export class BenchPage {
     if (!opts.keepCandidates) await this.removeKeptCandidates();
   }
 
-  /** Removes every candidate on the bench and waits until the server has forgotten each one. */
+  /** Removes every candidate on the bench and waits (at most 15 s) until the server has forgotten each one. */
   async removeKeptCandidates(): Promise<void> {
     const remove = this.page.getByRole("button", { name: /^Remove Candidate [A-F]$/ });
     const count = await remove.count();
     if (count === 0) return;
-    let left = count;
-    const forgotten = new Promise<void>((resolve) => {
-      const seen = (r: Response) => {
-        if (r.request().method() !== "DELETE" || !r.url().includes("/candidates/")) return;
-        if (--left > 0) return;
-        this.page.off("response", seen);
-        resolve();
-      };
-      this.page.on("response", seen);
-    });
-    for (let i = 0; i < count; i++) await remove.first().click();
-    await forgotten;
+    let forgotten = 0;
+    const seen = (r: Response) => {
+      if (r.request().method() === "DELETE" && r.url().includes("/candidates/")) forgotten++;
+    };
+    this.page.on("response", seen);
+    try {
+      while ((await remove.count()) > 0) await remove.first().click();
+      await expect.poll(() => forgotten, { timeout: 15_000, message: `the server forgets the ${count} removed candidates` }).toBeGreaterThanOrEqual(count);
+    } finally {
+      this.page.off("response", seen);
+    }
   }
 
   /** The candidate cards shown, as their summaries in order. */
