@@ -251,6 +251,17 @@ export interface AnnotationsTable {
   created_at: CreatedAt;
 }
 
+export interface BenchCandidatesTable {
+  id: Generated<number>;
+  user_id: ColumnType<number, number, never>;
+  channel_id: ColumnType<number, number, never>;
+  key: ColumnType<string, string, never>;
+  color_index: number;
+  spec: ColumnType<unknown, string, string>;
+  created_at: CreatedAt;
+  updated_at: ColumnType<Date, Date | string | undefined, Date | string>;
+}
+
 export interface Database {
   users: UsersTable;
   rigs: RigsTable;
@@ -271,6 +282,7 @@ export interface Database {
   alarm_rules: AlarmRulesTable;
   alarm_events: AlarmEventsTable;
   annotations: AnnotationsTable;
+  bench_candidates: BenchCandidatesTable;
 }
 
 export type User = Selectable<UsersTable>;

@@ -102,6 +102,8 @@ deployments = await startDeploymentWorker({
   exchange: sidecar.configs,
   bus: sidecar.bus,
   pipeline: sidecar.pipeline,
+  // Open benches follow: they reload the channel's production filter when told.
+  onProductionChange: (channel, revisionId) => sidecar?.hub.toSubscribers(channel, { type: "production-changed", channel, revisionId }),
   clock: systemClock,
   logger: consoleLogger,
   ackTimeoutMs: e.DEPLOY_ACK_TIMEOUT_MS,

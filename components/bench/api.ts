@@ -44,6 +44,9 @@ export interface ProductionFilter {
   activatedAt: string;
 }
 
+/** The query key of a channel's production filter (the bench reloads it when a deployment is acknowledged). */
+export const productionQueryKey = (path: string) => ["production", path] as const;
+
 /** The production filter of a channel, or null when none is active (404). */
 export async function fetchProduction(path: string): Promise<ProductionFilter | null> {
   try {
@@ -78,4 +81,16 @@ export function createSet(input: { channel: string; name: string; notes?: string
 
 export function createRevision(setId: string | number, input: { spec: FilterSpec; notes?: string; expectedLatestRevision: number }): Promise<SavedRevision> {
   return request<SavedRevision>(`/api/v1/sets/${setId}/revisions`, { method: "POST", body: JSON.stringify(input) });
+}
+
+/** The address of a kept candidate on the caller's bench of a channel. */
+const keptUrl = (channel: string, key: string) => `/api/v1/channels/${channel}/candidates/${encodeURIComponent(key)}`;
+
+/** Keeps a candidate on the caller's bench of a channel (new, or its new spec). */
+export function keepCandidate(channel: string, c: { id: string; colorIndex: number; spec: FilterSpec }): Promise<unknown> {
+  return request(keptUrl(channel, c.id), { method: "PUT", body: JSON.stringify({ spec: c.spec, colorIndex: c.colorIndex }) });
+}
+
+export async function forgetCandidate(channel: string, key: string): Promise<void> {
+  await request<null>(keptUrl(channel, key), { method: "DELETE" });
 }

@@ -3,7 +3,7 @@
 import { useQuery, type UseQueryResult } from "@tanstack/react-query";
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { Notice } from "@/components/ui/notice";
-import { candidateColor, candidateName, candidateSlot, tryDesign } from "@/lib/bench/candidates";
+import { candidateColor, candidateName, candidateSlot, tryDesign, type Candidate } from "@/lib/bench/candidates";
 import { PRODUCTION_COLOR, RAW_COLOR } from "@/lib/bench/colors";
 import { PRODUCTION_SLOT, RAW_SLOT, PRODUCTION_TRACE } from "@/lib/bench/live-store";
 import { specSummary } from "@/lib/bench/spec-text";
@@ -11,7 +11,7 @@ import type { QuantFormat } from "@/lib/dsp";
 import type { ClientMessage } from "@/lib/protocol";
 import { AnalysisArea } from "./analysis-area";
 import type { AnalysisItem } from "./analysis-views";
-import { fetchProduction, type ProductionFilter } from "./api";
+import { fetchProduction, productionQueryKey, type ProductionFilter } from "./api";
 import { CandidateCards } from "./candidate-cards";
 import { CandidateCautions } from "./cautions-list";
 import { ComparisonTable } from "./comparison-table";
@@ -19,6 +19,7 @@ import { CandidateEditor } from "./editor-panel";
 import { LivePanel, type TraceInfo } from "./live-panel";
 import { SpectrumPanel } from "./spectrum-panel";
 import { useCandidates } from "./use-candidates";
+import { useKeptCandidates } from "./use-kept-candidates";
 import { useLiveChannel } from "./use-live-channel";
 import { useLatest } from "@/components/hooks/use-latest";
 
@@ -37,8 +38,21 @@ const STREAM_UPDATE_MS = 250;
  * The tuning bench of one channel: live traces and spectrum, candidates with their editor, analysis
  * views, the comparison table and saving. `canEdit` comes from the server (engineer and above); an
  * operator sees the live traces and the production filter only (the sidecar refuses the rest too).
+ * `kept` are the engineer's candidates kept on this channel; changes are kept as they are made.
  */
-export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: BenchChannel; canEdit: boolean; sidecarPort: number; wsPath: string }) {
+export function Bench({
+  channel,
+  canEdit,
+  kept,
+  sidecarPort,
+  wsPath,
+}: {
+  channel: BenchChannel;
+  canEdit: boolean;
+  kept: Candidate[];
+  sidecarPort: number;
+  wsPath: string;
+}) {
   const fs = channel.sampleRateHz;
   const [showRaw, setShowRaw] = useState(true);
   const [showProduction, setShowProduction] = useState(true);
@@ -49,6 +63,7 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
     sampleRateHz: fs,
     deviceFormat: channel.coefficientFormat,
     crossoverHz,
+    initial: kept,
     // `store` comes from useLiveChannel below; these run on user actions, after this render has finished.
     onAdd: (c) => store.bind(c.id, candidateSlot(c)),
     onRemove: (id) => store.unbind(id),
@@ -57,7 +72,7 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
   const sentRef = useRef(new Map<string, string>());
   const candidatesRef = useLatest(candidates);
 
-  const production = useQuery({ queryKey: ["production", channel.path], queryFn: () => fetchProduction(channel.path) });
+  const production = useQuery({ queryKey: productionQueryKey(channel.path), queryFn: () => fetchProduction(channel.path) });
 
   /** Brings the sidecar's candidates in line with ours: remove + add for a changed spec (the sidecar refuses a duplicate id). */
   const sync = useCallback((send: (m: ClientMessage) => void) => {
@@ -90,6 +105,11 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
     },
   });
   const { store, send } = live;
+  // The kept candidates were there before any add: give them their trace slots once the store exists.
+  useEffect(() => {
+    for (const c of kept) store.bind(c.id, candidateSlot(c));
+  }, [store, kept]);
+  const keepError = useKeptCandidates(channel.path, candidates, designs, canEdit);
 
   useEffect(() => {
     const t = setTimeout(() => sync(send), STREAM_UPDATE_MS);
@@ -124,6 +144,11 @@ export function Bench({ channel, canEdit, sidecarPort, wsPath }: { channel: Benc
       {live.status.error && (
         <Notice tone="error" title="The live stream refused a request">
           {live.status.error}
+        </Notice>
+      )}
+      {keepError && (
+        <Notice tone="error" title="Your candidates could not be kept">
+          {keepError} They stay on this page; the next change tries again.
         </Notice>
       )}
       <LivePanel store={store} status={live.status} traces={traces} unit={channel.unit} onToggle={setVisible} />

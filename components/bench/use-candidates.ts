@@ -1,7 +1,7 @@
 "use client";
 
-import { useMemo, useRef, useState } from "react";
-import { tryDesign, type Candidate, type Designed } from "@/lib/bench/candidates";
+import { useMemo, useState } from "react";
+import { newCandidateId, tryDesign, type Candidate, type Designed } from "@/lib/bench/candidates";
 import { seedStage } from "@/lib/bench/chain-edit";
 import { cautionsFor, type Caution } from "@/lib/bench/cautions";
 import { freeColorIndex } from "@/lib/bench/colors";
@@ -14,6 +14,8 @@ interface Options {
   sampleRateHz: number;
   deviceFormat: QuantFormat;
   crossoverHz: number | null;
+  /** The candidates to start with (the live bench's kept ones). */
+  initial?: Candidate[];
   /** Called with each new candidate as it is added (the live bench binds its trace slot here). */
   onAdd?: (c: Candidate) => void;
   /** Called with a candidate's id as it is removed. */
@@ -24,12 +26,11 @@ interface Options {
  * The candidate list shared by the live bench and the recording replay: candidates with their designs
  * and cautions, the one being edited, and adding, editing, hiding, removing and seeding stages from a peak.
  */
-export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onAdd, onRemove }: Options) {
-  const [candidates, setCandidates] = useState<Candidate[]>([]);
+export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, initial, onAdd, onRemove }: Options) {
+  const [candidates, setCandidates] = useState<Candidate[]>(() => initial ?? []);
   const [editingId, setEditingId] = useState<string | null>(null);
   const [seedVersion, setSeedVersion] = useState(0);
   const [seedResult, setSeedResult] = useState<{ id: string; note: string | null } | null>(null);
-  const nextId = useRef(1);
 
   // Designs and cautions are kept per spec, so editing one candidate does not redo the others (a long
   // chain's quantization takes a few hundred ms).
@@ -65,7 +66,7 @@ export function useCandidates({ sampleRateHz: fs, deviceFormat, crossoverHz, onA
   const addCandidate = (spec?: FilterSpec) => {
     const colorIndex = freeColorIndex(candidates.map((c) => c.colorIndex));
     if (colorIndex === null) return;
-    const c: Candidate = { id: `cand-${nextId.current++}`, colorIndex, spec: spec ?? defaultSpec("iir", fs), visible: true };
+    const c: Candidate = { id: newCandidateId(), colorIndex, spec: spec ?? defaultSpec("iir", fs), visible: true };
     onAdd?.(c);
     setCandidates((cs) => [...cs, c]);
     setEditingId(c.id);

@@ -1,8 +1,10 @@
 "use client";
 
+import { useQueryClient } from "@tanstack/react-query";
 import { useEffect, useMemo, useRef, useState } from "react";
 import { reconnectDelayMs } from "@/lib/bench/backoff";
 import { HISTORY_SECONDS, LiveStore } from "@/lib/bench/live-store";
+import { productionQueryKey } from "./api";
 import { parseServerMessage, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
 import { useLatest } from "@/components/hooks/use-latest";
 
@@ -47,6 +49,7 @@ const INITIAL: LiveStatus = { link: "connecting", retryAt: null, mqtt: null, dro
  * with exponential backoff.
  */
 export function useLiveChannel(opts: Options): LiveChannel {
+  const queryClient = useQueryClient();
   const store = useMemo(() => new LiveStore(opts.sampleRateHz), [opts.sampleRateHz]);
   const [status, setStatus] = useState<LiveStatus>(INITIAL);
   const [metrics, setMetrics] = useState<Record<string, CandidateMetrics>>({});
@@ -81,6 +84,10 @@ export function useLiveChannel(opts: Options): LiveChannel {
           return;
         case "error":
           setStatus((s) => ({ ...s, error: msg.message }));
+          return;
+        case "production-changed":
+          // A deployment was acknowledged: the production label, trace and analysis reload.
+          if (msg.channel === opts.path) void queryClient.invalidateQueries({ queryKey: productionQueryKey(msg.channel) });
           return;
         case "hello":
           return;
@@ -124,7 +131,7 @@ export function useLiveChannel(opts: Options): LiveChannel {
       socketRef.current = null;
       ws?.close();
     };
-  }, [opts.path, opts.port, opts.wsPath, store, onOpenRef]);
+  }, [opts.path, opts.port, opts.wsPath, store, onOpenRef, queryClient]);
 
   const send = useMemo(
     () => (m: ClientMessage) => {

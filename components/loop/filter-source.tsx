@@ -2,7 +2,7 @@
 
 import { useQuery } from "@tanstack/react-query";
 import { useEffect, useMemo, useState } from "react";
-import { fetchProduction, fetchSets } from "@/components/bench/api";
+import { fetchProduction, fetchSets, productionQueryKey } from "@/components/bench/api";
 import { StageList } from "@/components/bench/stage-list";
 import { Segmented } from "@/components/ui/segmented";
 import { tryDesign } from "@/lib/bench/candidates";
@@ -67,7 +67,7 @@ export function FilterSource({ path, sampleRateHz, onPick }: { path: string; sam
   const typed = typing === "json" ? jsonState.spec : spec;
   const typedDesign = useMemo(() => (typed ? tryDesign(typed) : null), [typed]);
 
-  const production = useQuery({ queryKey: ["production", path], queryFn: () => fetchProduction(path), enabled: source === "production" });
+  const production = useQuery({ queryKey: productionQueryKey(path), queryFn: () => fetchProduction(path), enabled: source === "production" });
   const sets = useQuery({ queryKey: ["sets", path], queryFn: () => fetchSets(path), enabled: source === "set" });
   const revision = useQuery({ queryKey: ["set-latest", setId], queryFn: () => fetchLatestRevision(setId), enabled: source === "set" && setId !== "" });
 

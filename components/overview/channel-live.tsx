@@ -1,7 +1,8 @@
 "use client";
 
 import Link from "next/link";
-import type { ReactNode } from "react";
+import { useRouter } from "next/navigation";
+import { useEffect, type ReactNode } from "react";
 import { faultSummary, sampleAge } from "./format";
 import { Sparkline } from "./sparkline";
 import { useLiveOverview } from "./use-live-overview";
@@ -86,8 +87,13 @@ function DeviceState({ online }: { online: boolean | null }) {
 }
 
 function Production({ id, revisions }: { id: string | null; revisions: Record<string, KnownRevision> }) {
+  const router = useRouter();
+  const known = id === null ? undefined : revisions[id];
+  // A revision promoted since the page loaded: ask the server once for its set and number.
+  useEffect(() => {
+    if (id !== null && !known) router.refresh();
+  }, [id, known, router]);
   if (id === null) return <p className="text-slate-500">production: none</p>;
-  const known = revisions[id];
   return (
     <p className="text-slate-600 dark:text-slate-300">
       production:{" "}

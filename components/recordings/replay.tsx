@@ -20,6 +20,7 @@ import { longestRun, replayThrough } from "@/lib/recordings/replay";
 import { fetchSamples } from "./api";
 import { ReplaySpectrum, type TraceSpectrum } from "./replay-spectrum";
 import { ReplayTraceChart, type ReplayTrace } from "./replay-trace";
+import { TryOnBench } from "./try-on-bench";
 
 export interface ReplayRecording {
   id: number;
@@ -120,6 +121,7 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
   const spectrumPanel = <ReplaySpectrum spectra={spectra} unit={recording.unit} stretchSeconds={(run.to - run.from) / fs} onSeed={canEdit ? seed : undefined} />;
   return (
     <div className={`space-y-4 ${editing ? "lg:pr-[29rem]" : ""}`}>
+      <TryOnBench channelPath={recording.channelPath} candidates={canEdit ? candidates : []} designs={designs} />
       <ReplayTraceChart traces={traces} sampleRateHz={fs} unit={recording.unit} onToggle={canEdit ? setVisible : undefined} />
       {spectrumPanel}
       {canEdit && (

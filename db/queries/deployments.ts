@@ -12,6 +12,7 @@ import {
 } from "@/lib/coefficients";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { AppError } from "@/lib/errors";
+import { channelConfigSchema, type ChannelConfig } from "@/lib/protocol";
 import { deploymentMail, type DeploymentRef } from "@/lib/mail/templates";
 import { decide } from "@/lib/workflow";
 import type { Db } from "../client";
@@ -68,6 +69,8 @@ function deploymentQuery(db: Db) {
       "s.id as setId",
       "s.name as setName",
       channelPathSql("sr", "sd", "sc").as("setChannel"),
+      // No stages in the entry (chains store `stages`, entries from before chains `sections`).
+      sql<boolean>`jsonb_array_length(coalesce(p.config -> 'stages', p.config -> 'sections')) = 0`.as("passThrough"),
     ]);
 }
 
@@ -105,6 +108,11 @@ export interface DeploymentView {
   setName: string;
   /** The set's own channel (a deployment may go to another channel of the same sample rate). */
   setChannel: string;
+  /**
+   * A return to no filter: the entry has no stages. Such a deployment keeps the revision it removed
+   * (revision, set and spec name that one); once active, the channel has no production filter.
+   */
+  passThrough: boolean;
 }
 
 export async function findDeployment(db: Db, id: number): Promise<DeploymentView | undefined> {
@@ -124,6 +132,12 @@ export async function findActiveDeployment(db: Db, channelId: number): Promise<D
   return (await deploymentQuery(db).where("p.channel_id", "=", channelId).where("p.state", "=", "active").executeTakeFirst()) as
     | DeploymentView
     | undefined;
+}
+
+/** The channel's production filter: its active deployment unless that is a return to no filter. */
+export async function findProductionDeployment(db: Db, channelId: number): Promise<DeploymentView | undefined> {
+  const active = await findActiveDeployment(db, channelId);
+  return active?.passThrough ? undefined : active;
 }
 
 export async function listActiveDeployments(db: Db): Promise<DeploymentView[]> {
@@ -266,15 +280,17 @@ export async function requestPromotion(
 }
 
 /**
- * Asks to put the previously active revision back on a channel, through the same acknowledged path.
- * `expectedActiveId` is the active deployment the person saw; anything else is a 409.
+ * Asks to put the previously active revision back on a channel, through the same acknowledged path;
+ * when nothing was active before (the first promotion), the channel returns to no filter: an entry with
+ * an empty stage list, acknowledged like any other. `expectedActiveId` is the active deployment the
+ * person saw; anything else is a 409, and so is rolling back a channel that already runs no filter.
  */
 export async function requestRollback(
   trx: Transaction<Database>,
   actor: SessionUser,
   channelPath: string,
   expectedActiveId: number,
-): Promise<{ id: number; channel: string }> {
+): Promise<{ id: number; channel: string; passThrough: boolean }> {
   enforce(decide("rollback", { role: actor.role, actorId: actor.id }));
   const channel = await findChannelByPath(trx, channelPath);
   if (!channel) throw new AppError("not_found", `No channel ${channelPath}.`);
@@ -282,26 +298,25 @@ export async function requestRollback(
   if (!active || active.id !== expectedActiveId) {
     throw new AppError("conflict", `The active filter on ${channelPath} changed since you looked. Reload and try again.`);
   }
+  if (active.passThrough) throw new AppError("conflict", `${channelPath} already runs no filter; promote a revision to filter it again.`);
   const previous = active.previousId === null ? undefined : await findDeployment(trx, active.previousId);
-  if (!previous) throw new AppError("conflict", `Nothing to roll back to: ${channelPath} had no active filter before this one.`);
-  const id = await insertPending(trx, {
-    revisionId: previous.revisionId,
-    channel,
-    kind: "rollback",
-    config: previous.config,
-    checksum: previous.checksum,
-    previousId: active.id,
-    actorId: actor.id,
-  });
+  const { config, checksum } = previous ?? (await passThroughOf(active));
+  const id = await insertPending(trx, { revisionId: previous?.revisionId ?? active.revisionId, channel, kind: "rollback", config, checksum, previousId: active.id, actorId: actor.id });
   await appendAudit(trx, {
     actorId: actor.id,
     action: "deployment.rollback_request",
     entity: "deployment",
     entityId: id,
     before: { activeDeployment: active.id, revisionId: active.revisionId },
-    after: { revisionId: previous.revisionId, channel: channelPath, checksum: previous.checksum },
+    after: previous ? { revisionId: previous.revisionId, channel: channelPath, checksum } : { passThrough: true, channel: channelPath, checksum },
   });
-  return { id, channel: channelPath };
+  return { id, channel: channelPath, passThrough: !previous };
+}
+
+/** The entry that runs no filter on a deployment's channel (its format and rate, an empty stage list) and its checksum. */
+async function passThroughOf(d: DeploymentView): Promise<{ config: ChannelConfig; checksum: string }> {
+  const config = channelConfigSchema.parse({ ...currentChannelConfig(d.config), stages: [] });
+  return { config, checksum: await channelConfigChecksum(config) };
 }
 
 function refOf(d: DeploymentView): DeploymentRef {
@@ -336,7 +351,7 @@ export async function activateDeployment(trx: Transaction<Database>, id: number)
     entity: "deployment",
     entityId: id,
     before: before ? { activeDeployment: before.id, revisionId: before.revision_id } : null,
-    after: { activeDeployment: id, revisionId: d.revisionId, channel: d.channel, checksum: d.checksum, acknowledged: true },
+    after: { activeDeployment: id, revisionId: d.revisionId, channel: d.channel, checksum: d.checksum, acknowledged: true, ...(d.passThrough ? { passThrough: true } : {}) },
   });
   await notifyOutcome(trx, d, row.kind === "rollback" ? "rolled_back" : "promoted", `Checksum ${d.checksum}.`);
   return d;
@@ -368,7 +383,7 @@ export async function channelDeploymentStates(db: Db, channelIds: number[]): Pro
   for (const r of rows) {
     const entry = out.get(r.channelId)!;
     if (r.state === "pending") entry.pending = true;
-    else entry.active = `${r.setName} r${r.revision}`;
+    else if (!r.passThrough) entry.active = `${r.setName} r${r.revision}`;
   }
   return out;
 }

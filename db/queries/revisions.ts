@@ -117,7 +117,9 @@ export async function transitionRevision(trx: Transaction<Database>, actor: Sess
   if (rev.stateVersion !== input.expectedVersion) {
     throw new AppError("conflict", `This revision changed since you opened it (it is now ${rev.state}). Reload and try again.`);
   }
-  enforce(decide(input.action, { role: actor.role, actorId: actor.id, authorId: rev.authorId, state: rev.state, retired: rev.retiredAt !== null }));
+  enforce(
+    decide(input.action, { role: actor.role, actorId: actor.id, authorId: rev.authorId, state: rev.state, retired: rev.retiredAt !== null, deployable: rev.analysis.deployable.ok }),
+  );
   const comment = input.comment?.trim() ?? "";
   if (input.action === "reject" && !comment) throw new AppError("bad_request", "Say why the revision is rejected.");
   const to = TRANSITIONS[input.action].to;

@@ -11,6 +11,11 @@ export interface Candidate {
   visible: boolean;
 }
 
+/** A fresh candidate id, "c" and 18 random hex digits: kept candidates outlive a reload, so a counter would repeat. */
+export function newCandidateId(): string {
+  return `c${[...crypto.getRandomValues(new Uint8Array(9))].map((b) => b.toString(16).padStart(2, "0")).join("")}`;
+}
+
 export const candidateColor = (c: Pick<Candidate, "colorIndex">): string => CANDIDATE_COLORS[c.colorIndex];
 export const candidateName = (c: Pick<Candidate, "colorIndex">): string => `Candidate ${String.fromCharCode(65 + c.colorIndex)}`;
 export const candidateSlot = (c: Pick<Candidate, "colorIndex">): number => FIRST_CANDIDATE_SLOT + c.colorIndex;

@@ -11,13 +11,13 @@ export const MAX_CANDIDATES_PER_CLIENT = 6;
 export const MAX_WINDOW_SECONDS = 60;
 
 /** A candidate id chosen by the browser, unique per connection and channel. */
-const candidateId = z.string().regex(/^[A-Za-z0-9_-]{1,32}$/, { error: "id must be 1–32 of A-Z a-z 0-9 _ -" });
+export const candidateIdSchema = z.string().regex(/^[A-Za-z0-9_-]{1,32}$/, { error: "id must be 1–32 of A-Z a-z 0-9 _ -" });
 
 export const clientMessageSchema = z.discriminatedUnion("type", [
   z.object({ type: z.literal("subscribe"), channel: channelPathSchema }).strict(),
   z.object({ type: z.literal("unsubscribe"), channel: channelPathSchema }).strict(),
-  z.object({ type: z.literal("candidate.add"), channel: channelPathSchema, id: candidateId, spec: filterSpecSchema }).strict(),
-  z.object({ type: z.literal("candidate.remove"), channel: channelPathSchema, id: candidateId }).strict(),
+  z.object({ type: z.literal("candidate.add"), channel: channelPathSchema, id: candidateIdSchema, spec: filterSpecSchema }).strict(),
+  z.object({ type: z.literal("candidate.remove"), channel: channelPathSchema, id: candidateIdSchema }).strict(),
   z
     .object({
       type: z.literal("window"),
@@ -70,6 +70,17 @@ export const frameMessageSchema = z
   .strict();
 export type FrameMessage = z.infer<typeof frameMessageSchema>;
 
+/**
+ * A channel's production filter changed: a deployment was acknowledged by its device (a promotion, a
+ * rollback, or a return to pass-through). Sent as JSON to every open connection; clients reload what
+ * they show of that channel's production filter. `revisionId` is the revision now active, null for
+ * pass-through.
+ */
+export const productionChangedSchema = z
+  .object({ type: z.literal("production-changed"), channel: channelPathSchema, revisionId: z.number().int().positive().nullable() })
+  .strict();
+export type ProductionChanged = z.infer<typeof productionChangedSchema>;
+
 const faultCounts = z.partialRecord(z.enum(FAULT_KINDS), z.number().int());
 
 export const serverMessageSchema = z.discriminatedUnion("type", [
@@ -108,6 +119,7 @@ export const serverMessageSchema = z.discriminatedUnion("type", [
     })
     .strict(),
   alarmMessageSchema,
+  productionChangedSchema,
 ]);
 export type ServerMessage = z.infer<typeof serverMessageSchema>;
 

@@ -27,6 +27,8 @@ export interface WorkflowSubject {
   state?: RevisionState;
   /** Whether the set is retired. */
   retired?: boolean;
+  /** Whether the revision acted on may go to a device (false: its stored analysis says it may not). */
+  deployable?: boolean;
 }
 
 /** forbidden = the person may not (403); conflict = not in this state (409). */
@@ -41,7 +43,7 @@ function isTransition(action: WorkflowAction): action is Transition {
 /**
  * The one rule book for sets and revisions: role first (403), then four eyes (403: nobody approves
  * or rejects their own revision), then the state (409: a retired set takes no changes, a transition
- * only from its source state, promotion only of an approved revision).
+ * only from its source state, approval only of a deployable revision, promotion only of an approved one).
  */
 export function decide(action: WorkflowAction, s: WorkflowSubject): Decision {
   const need = ACTION_ROLE[action];
@@ -53,6 +55,9 @@ export function decide(action: WorkflowAction, s: WorkflowSubject): Decision {
   if (isTransition(action)) {
     const { from } = TRANSITIONS[action];
     if (s.state !== from) return deny("conflict", `Only a revision in state ${from} can be ${pastTense(action)}; this one is ${s.state}.`);
+  }
+  if (action === "approve" && s.deployable === false) {
+    return deny("conflict", "This revision is marked not deployable, so it cannot be approved; reject it or save a new revision.");
   }
   if (action === "promote" && s.state !== "approved") {
     return deny("conflict", `Only an approved revision can be promoted; this one is ${s.state}.`);

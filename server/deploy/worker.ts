@@ -11,6 +11,7 @@ import {
   listPendingDeploymentIds,
   type DeploymentView,
 } from "@/db/queries/deployments";
+import type { FilterDesign } from "@/lib/dsp";
 import { configTopic, type DeviceConfig } from "@/lib/protocol";
 import type { MessageBus } from "../broker/bus";
 import type { Clock, Logger } from "../clock";
@@ -34,6 +35,8 @@ export interface DeploymentWorkerDeps {
    */
   bus: Pick<MessageBus, "publish" | "onState">;
   pipeline?: Pick<Pipeline, "setProductionFilter">;
+  /** Told of every acknowledged change of a channel's production filter (revision id, null for pass-through). */
+  onProductionChange?: (channel: string, revisionId: number | null) => void;
   clock: Clock;
   logger: Logger;
   ackTimeoutMs?: number;
@@ -123,7 +126,9 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
     if (outcome.status === "timeout") return fail(d, `no acknowledgement from ${d.rigKey}/${d.deviceKey} within ${timeoutMs / 1000} s`);
     if (outcome.status === "refused") return fail(d, `the device refused it: ${outcome.ack.reason ?? "no reason given"}`);
     const active = await deps.db.transaction().execute((trx) => activateDeployment(trx, id));
-    if (active) applyToPipeline(active);
+    if (!active) return;
+    const design = applyToPipeline(active);
+    deps.onProductionChange?.(active.channel, design === null ? null : active.revisionId);
   }
 
   /** Fails the deployment and retains the document of what is still active. */
@@ -167,12 +172,15 @@ export async function startDeploymentWorker(deps: DeploymentWorkerDeps): Promise
     work.catch((err: unknown) => deps.logger.warn(`${what} failed: ${errorMessage(err)}`));
   }
 
-  function applyToPipeline(d: DeploymentView): void {
-    if (!deps.pipeline) return;
+  /** Switches the live production slot to what the device acknowledged; returns that design (null: pass-through). */
+  function applyToPipeline(d: DeploymentView): FilterDesign | null {
     try {
-      deps.pipeline.setProductionFilter(d.channel, String(d.revisionId), deployedDesign(d));
+      const design = deployedDesign(d);
+      deps.pipeline?.setProductionFilter(d.channel, String(d.revisionId), design);
+      return design;
     } catch (err) {
       deps.logger.warn(`production filter for ${d.channel} not switched: ${errorMessage(err)}`);
+      return null;
     }
   }
 

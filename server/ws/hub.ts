@@ -86,6 +86,8 @@ export interface Hub {
   statusTick(): void;
   /** Sends one message to every open connection (lab-wide news such as alarms), stringified once. */
   broadcast(message: ServerMessage): void;
+  /** Sends one message about a channel to the connections subscribed to it, stringified once. */
+  toSubscribers(channel: string, message: ServerMessage): void;
   /**
    * Checks every open connection's session against its account (one query): a missing or disabled
    * account or a bumped session version closes the socket with SESSION_ENDED; a changed role
@@ -385,6 +387,10 @@ export function createHub(opts: HubOptions): Hub {
     broadcast(message) {
       const text = JSON.stringify(message);
       for (const state of clients.values()) state.conn.send(text);
+    },
+    toSubscribers(channel, message) {
+      const text = JSON.stringify(message);
+      for (const state of clients.values()) if (state.subs.has(channel)) state.conn.send(text);
     },
     recheckSessions() {
       recheck ??= recheckOnce()

@@ -1,4 +1,5 @@
 import { expect, test, type Page } from "@playwright/test";
+import { BenchPage } from "./pages/bench-page";
 import { SignInPage } from "./pages/sign-in-page";
 
 const CHANNEL = "gearbox-endurance/torque-node/input-torque";
@@ -49,7 +50,7 @@ test("an engineer uploads a capture, sees its trace and spectrum, and overlays a
   await expect(recordings.traceChart().locator("canvas")).toBeVisible();
   await expect(recordings.peaks().getByText(/^50(\.\d+)? Hz$/)).toBeVisible();
   await expect(recordings.peaks().getByText(/^240(\.\d+)? Hz$/)).toBeVisible();
-  await expect(page.getByRole("link", { name: "Try on the live bench" })).toHaveAttribute("href", `/channels/${CHANNEL}`);
+  await expect(page.getByRole("button", { name: "Try on the live bench" })).toBeVisible();
 
   await page.getByRole("button", { name: "Add candidate" }).click();
   await expect(page.getByTestId("candidate-0")).toBeVisible();
@@ -86,4 +87,25 @@ test("an upload shows the bytes sent and can be cancelled; nothing is stored", a
   await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
   await page.reload();
   await expect(page.getByTestId("recordings-table")).not.toContainText(name);
+});
+
+test("Try on the live bench carries the replay's candidates over to the engineer's bench", async ({ page }) => {
+  test.setTimeout(90_000);
+  const bench = new BenchPage(page);
+  const recordings = new RecordingsPage(page);
+  await new SignInPage(page).signInAs("engineer");
+  await bench.open(CHANNEL); // starts from an empty bench
+  await recordings.upload(`E2E carry-over ${Date.now().toString(36)}`, torqueCsv());
+  await expect(page).toHaveURL(/\/recordings\/\d+$/);
+  await page.getByRole("button", { name: "Add candidate" }).click();
+  await page.getByRole("textbox", { name: /^Cutoff/ }).fill("130");
+  await expect(page.getByTestId("candidate-0").getByTestId("candidate-summary")).toHaveText("Butterworth LP 4 · 130 Hz");
+  await page.getByRole("button", { name: "Close the editor" }).click();
+
+  await page.getByRole("button", { name: "Try on the live bench (1 candidate)" }).click();
+  await expect(page).toHaveURL(new RegExp(`/channels/${CHANNEL}$`));
+  await expect(bench.candidateSummaries()).toHaveText(["Butterworth LP 4 · 130 Hz"]);
+  // It runs on the stream too, not only on the card.
+  await expect(page.getByTestId("live-chart")).toContainText("Candidate A");
+  await bench.removeKeptCandidates();
 });

@@ -42,6 +42,8 @@ const published = new Map<string, DeviceConfig[]>();
 /** When set, the next document sent by the worker has its checksum corrupted on the way out. */
 let corruptNext = false;
 const productionCalls: { path: string; revisionId: string; design: FilterDesign | null }[] = [];
+/** What the worker told the hub (open benches): each acknowledged change of a production filter. */
+const productionChanges: { channel: string; revisionId: number | null }[] = [];
 const logger: Logger = { info: () => undefined, warn: () => undefined };
 
 /** Demo devices on the in-process bus: the demo rig's answerConfig checks and acks every document. */
@@ -86,6 +88,7 @@ beforeAll(async () => {
     exchange,
     bus,
     pipeline: { setProductionFilter: (path, revisionId, design) => productionCalls.push({ path, revisionId, design }) },
+    onProductionChange: (channel, revisionId) => productionChanges.push({ channel, revisionId }),
     clock: systemClock,
     logger,
     ackTimeoutMs: 300,
@@ -147,6 +150,7 @@ describe("promotion through the device's acknowledgement", () => {
     expect(await activeRevision(STRAIN)).toBe(first);
     const call = productionCalls.find((c) => c.path === TORQUE && c.revisionId === String(first));
     expect(call?.design?.sos?.length).toBe(1);
+    expect(productionChanges).toEqual(expect.arrayContaining([{ channel: TORQUE, revisionId: first }, { channel: STRAIN, revisionId: first }]));
 
     actAs(users.operator);
     const res = await productionRoute.GET(jsonRequest("GET", `/api/v1/channels/${TORQUE}/production`), params(pathParams(TORQUE)));
@@ -301,6 +305,46 @@ describe("one retained document per device", () => {
 /** What a fresh MQTT subscriber to the device's config topic receives: the retained document, or null. */
 const retainedConfig = (rig: string, device: string) => retainedDocument(`mqtt://127.0.0.1:${embedded.port}`, rig, device);
 
+describe("returning a channel to no filter", () => {
+  it("rolls a channel's first promotion back to pass-through: an empty stage list, acknowledged, audited, told to open benches", async () => {
+    const rev = await approvedRevision("Pressure LP 200", butterSpec(200, 2000), PRESSURE);
+    const promoted = await promote(rev, [PRESSURE]);
+    expect(await deploymentState(promoted.deployments[0].id)).toMatchObject({ state: "active" });
+    const channel = (await findChannelByPath(lab.db, PRESSURE))!;
+    const active = (await findActiveDeployment(lab.db, channel.id))!;
+    expect(active.previousId).toBeNull();
+
+    const rb = await lab.db.transaction().execute((trx) => requestRollback(trx, users.lead, PRESSURE, active.id));
+    expect(rb.passThrough).toBe(true);
+    expect(await deploymentState(rb.id)).toMatchObject({ state: "active" });
+    const old = await lab.db.selectFrom("deployments").select("state").where("id", "=", active.id).executeTakeFirstOrThrow();
+    expect(old.state).toBe("rolled_back");
+
+    // The device acknowledged a document whose entry for the channel runs no stage.
+    const retained = await retainedConfig("hydraulic-press", "press-ctl");
+    expect(retained?.configId).toBe(String(rb.id));
+    expect(retained?.channels["line-pressure"]).toMatchObject({ format: channel.coefficientFormat, sampleRateHz: 2000, stages: [] });
+    expect(productionCalls.at(-1)).toEqual({ path: PRESSURE, revisionId: String(rev), design: null });
+    expect(productionChanges.at(-1)).toEqual({ channel: PRESSURE, revisionId: null });
+
+    actAs(users.operator);
+    const res = await productionRoute.GET(jsonRequest("GET", `/api/v1/channels/${PRESSURE}/production`), params(pathParams(PRESSURE)));
+    expect(res.status).toBe(404);
+
+    const audit = await lab.db.selectFrom("audit_log").select(["action", "actor_id", "after"]).where("entity", "=", "deployment").where("entity_id", "=", String(rb.id)).orderBy("id").execute();
+    expect(audit.map((a) => a.action)).toEqual(["deployment.rollback_request", "deployment.rolled_back"]);
+    expect(audit[0]).toMatchObject({ actor_id: users.lead.id, after: { passThrough: true, channel: PRESSURE } });
+    expect(audit[1].after).toMatchObject({ passThrough: true, acknowledged: true });
+
+    // A channel that runs no filter has nothing to roll back; promoting again filters it.
+    await expect(lab.db.transaction().execute((trx) => requestRollback(trx, users.lead, PRESSURE, rb.id))).rejects.toMatchObject({ code: "conflict" });
+    const again = await promote(rev, [PRESSURE]);
+    expect(await deploymentState(again.deployments[0].id)).toMatchObject({ state: "active" });
+    expect(productionChanges.at(-1)).toEqual({ channel: PRESSURE, revisionId: rev });
+    expect((await retainedConfig("hydraulic-press", "press-ctl"))?.channels["line-pressure"]?.stages.length).toBeGreaterThan(0);
+  });
+});
+
 describe("promotion refusals", () => {
   it("refuses a revision that is not approved (409), a sample-rate mismatch and an unstable revision (422)", async () => {
     const channel = (await findChannelByPath(lab.db, TORQUE))!;
@@ -310,8 +354,15 @@ describe("promotion refusals", () => {
     );
     await expect(promote(draft.revisionId, [TORQUE])).rejects.toMatchObject({ code: "conflict" });
     await expect(promote(first, [PRESSURE])).rejects.toMatchObject({ code: "unprocessable", message: expect.stringMatching(/sample-rate mismatch/) });
-    const unstable = await approvedRevision("unstable", { kind: "coefficients", b: [1], a: [1, 0, 1.21], sampleRateHz: 1000 });
-    await expect(promote(unstable, [TORQUE])).rejects.toMatchObject({ code: "unprocessable", message: expect.stringMatching(/unstable/) });
+    // An unstable revision is marked not deployable, so it cannot be approved; one approved before that
+    // rule (set here directly) is still refused at promotion.
+    await expect(approvedRevision("unstable", { kind: "coefficients", b: [1], a: [1, 0, 1.21], sampleRateHz: 1000 })).rejects.toMatchObject({
+      code: "conflict",
+      message: expect.stringMatching(/not deployable/),
+    });
+    const unstable = await lab.db.selectFrom("revisions as r").innerJoin("coefficient_sets as s", "s.id", "r.set_id").select("r.id").where("s.name", "=", "unstable").executeTakeFirstOrThrow();
+    await lab.db.updateTable("revisions").set({ state: "approved" }).where("id", "=", unstable.id).execute();
+    await expect(promote(unstable.id, [TORQUE])).rejects.toMatchObject({ code: "unprocessable", message: expect.stringMatching(/unstable/) });
   });
 
   it("lets one of two leads promoting at once win; the other gets 409 (HTTP)", async () => {

@@ -139,7 +139,7 @@ function calls(): Record<string, { user: SessionUser | null; req: Request; ctx?:
     "post /api/v1/deployments/rollback": {
       user: users.lead,
       req: jsonRequest("POST", "/api/v1/deployments/rollback", { channel: CHANNEL, expectedActiveId: ids.deploymentId }),
-      status: 409, // nothing ran before the active deployment: the documented refusal
+      status: 202, // nothing ran before the active deployment: the channel returns to no filter
     },
     "get /api/v1/deployments": { user: users.operator, req: get(`/api/v1/deployments?channel=${CHANNEL}`), status: 200 },
     "get /api/v1/deployments/{id}": { user: users.operator, req: get(`/api/v1/deployments/${ids.deploymentId}`), ctx: id(ids.deploymentId), status: 200 },

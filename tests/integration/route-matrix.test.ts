@@ -53,6 +53,8 @@ const ROUTES: Record<string, RoutePolicy> = {
   "DELETE /api/v1/annotations/[id]": { access: "operator" },
   "GET /api/v1/audit": { access: "lead", token: true },
   "GET /api/v1/channels": { access: "operator", token: true },
+  "PUT /api/v1/channels/[rig]/[device]/[channel]/candidates/[key]": { access: "engineer" },
+  "DELETE /api/v1/channels/[rig]/[device]/[channel]/candidates/[key]": { access: "engineer" },
   "GET /api/v1/channels/[rig]/[device]/[channel]/production": { access: "operator", token: true },
   "GET /api/v1/channels/[rig]/[device]/[channel]/production/export": { access: "operator", token: true },
   "GET /api/v1/deployments": { access: "operator", query: `channel=${CHANNEL}`, token: true },
@@ -135,7 +137,7 @@ interface FoundRoute {
   handler: Handler;
 }
 
-const SAMPLE_PARAMS: Record<string, string> = { id: "999999", rig: "gearbox-endurance", device: "torque-node", channel: "input-torque" };
+const SAMPLE_PARAMS: Record<string, string> = { id: "999999", rig: "gearbox-endurance", device: "torque-node", channel: "input-torque", key: "cand-1" };
 
 async function discoverRoutes(): Promise<FoundRoute[]> {
   const found: FoundRoute[] = [];

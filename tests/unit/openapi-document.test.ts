@@ -22,6 +22,7 @@ const UNDOCUMENTED = [
   "/api/v1/alarm-rules/{id}",
   "/api/v1/annotations",
   "/api/v1/annotations/{id}",
+  "/api/v1/channels/{rig}/{device}/{channel}/candidates/{key}",
 ];
 
 /** Every route.ts under app/api as an OpenAPI path template ([id] → {id}). */

@@ -79,3 +79,12 @@ describe("four eyes", () => {
     expect(decide("approve", { role: "operator", actorId: OTHER, authorId: AUTHOR, state: "draft" })).toMatchObject({ code: "forbidden" });
   });
 });
+
+describe("a revision marked not deployable", () => {
+  it("cannot be approved (409), but can still be rejected", () => {
+    const subject = { role: "lead" as const, actorId: OTHER, authorId: AUTHOR, state: "in_review" as const, deployable: false };
+    expect(decide("approve", subject)).toMatchObject({ ok: false, code: "conflict", reason: expect.stringMatching(/not deployable/) });
+    expect(decide("reject", subject).ok).toBe(true);
+    expect(decide("approve", { ...subject, deployable: true }).ok).toBe(true);
+  });
+});

@@ -3,6 +3,9 @@ import Link from "next/link";
 import { requirePageUser } from "@/app/_lib/auth";
 import { ActionForm } from "@/components/sets/action-form";
 import { RevisionStages } from "@/components/sets/revision-stages";
+import { NotApprovable } from "@/components/sets/not-approvable";
+import { RevisionCharts } from "@/components/sets/revision-charts";
+import { RevisionCoefficients } from "@/components/sets/revision-coefficients";
 import { RevisionSummary } from "@/components/sets/revision-summary";
 import { db } from "@/db";
 import { listAwaitingReview } from "@/db/queries/revisions";
@@ -22,7 +25,8 @@ export default async function ReviewsPage() {
       </header>
       {waiting.length === 0 && <p className="card p-4 text-sm text-slate-500">Nothing waits for a review right now.</p>}
       {waiting.map((rev) => {
-        const mayReview = decide("approve", { role: me.role, actorId: me.id, authorId: rev.authorId, state: rev.state }).ok;
+        const subject = { role: me.role, actorId: me.id, authorId: rev.authorId, state: rev.state, deployable: rev.analysis.deployable.ok };
+        const mayReview = decide("reject", subject).ok;
         return (
           <article key={rev.id} className="card grid gap-4 p-4 lg:grid-cols-[1fr_22rem]" data-testid={`review-${rev.id}`}>
             <div className="space-y-2">
@@ -34,12 +38,18 @@ export default async function ReviewsPage() {
               {rev.notes && <p className="whitespace-pre-wrap text-sm">{rev.notes}</p>}
               <RevisionStages spec={rev.spec} />
               <RevisionSummary rev={rev} />
+              <RevisionCharts name={`${rev.setName} r${rev.revision}`} spec={rev.spec} design={rev.design} open />
+              <RevisionCoefficients quantized={rev.quantized} />
             </div>
             {mayReview ? (
-              <div className="flex flex-wrap gap-2">
-                <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "approve", expectedVersion: rev.stateVersion }} label="Approve" tone="primary">
-                  <textarea name="comment" rows={2} className="field" placeholder="Comment (optional)" aria-label="Approval comment" />
-                </ActionForm>
+              <div className="flex flex-wrap content-start gap-2">
+                {decide("approve", subject).ok ? (
+                  <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "approve", expectedVersion: rev.stateVersion }} label="Approve" tone="primary">
+                    <textarea name="comment" rows={2} className="field" placeholder="Comment (optional)" aria-label="Approval comment" />
+                  </ActionForm>
+                ) : (
+                  <NotApprovable reason={rev.analysis.deployable.ok ? null : rev.analysis.deployable.reason} />
+                )}
                 <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "reject", expectedVersion: rev.stateVersion }} label="Reject">
                   <textarea name="comment" rows={2} className="field" placeholder="Why (required)" aria-label="Rejection comment" />
                 </ActionForm>

@@ -1,4 +1,4 @@
-import { expect, type Locator, type Page } from "@playwright/test";
+import { expect, type Locator, type Page, type Response } from "@playwright/test";
 
 /** The tuning bench of one channel as an engineer or operator uses it. */
 export class BenchPage {
@@ -12,10 +12,39 @@ export class BenchPage {
     this.editor = page.getByRole("complementary", { name: "Candidate editor" });
   }
 
-  async open(channelPath: string): Promise<void> {
+  /**
+   * Opens the bench. The engineer's candidates are kept per channel between visits, so unless
+   * `keepCandidates` is set the ones an earlier test left are removed first (and forgotten by the
+   * server), for a bench that starts empty.
+   */
+  async open(channelPath: string, opts: { keepCandidates?: boolean } = {}): Promise<void> {
     await this.page.goto(`/channels/${channelPath}`);
     await expect(this.page.getByRole("region", { name: "Live traces" })).toBeVisible();
     await expect(this.page.getByTestId("link-state")).toHaveAttribute("data-link", "live", { timeout: 15_000 });
+    if (!opts.keepCandidates) await this.removeKeptCandidates();
+  }
+
+  /** Removes every candidate on the bench and waits (at most 15 s) until the server has forgotten each one. */
+  async removeKeptCandidates(): Promise<void> {
+    const remove = this.page.getByRole("button", { name: /^Remove Candidate [A-F]$/ });
+    const count = await remove.count();
+    if (count === 0) return;
+    let forgotten = 0;
+    const seen = (r: Response) => {
+      if (r.request().method() === "DELETE" && r.url().includes("/candidates/")) forgotten++;
+    };
+    this.page.on("response", seen);
+    try {
+      while ((await remove.count()) > 0) await remove.first().click();
+      await expect.poll(() => forgotten, { timeout: 15_000, message: `the server forgets the ${count} removed candidates` }).toBeGreaterThanOrEqual(count);
+    } finally {
+      this.page.off("response", seen);
+    }
+  }
+
+  /** The candidate cards shown, as their summaries in order. */
+  candidateSummaries(): Locator {
+    return this.page.getByRole("region", { name: "Candidates" }).getByTestId("candidate-summary");
   }
 
   addCandidateButton(): Locator {

@@ -6,6 +6,7 @@ import { channelPathOf } from "@/app/_lib/path";
 import { BenchAlarms } from "@/components/alarms/bench-alarms";
 import { Bench } from "@/components/bench/bench";
 import { db } from "@/db";
+import { listBenchCandidates } from "@/db/queries/bench-candidates";
 import { findChannelByPath } from "@/db/queries/channels";
 import { roleAtLeast } from "@/lib/auth/roles";
 import { env } from "@/lib/env";
@@ -27,6 +28,7 @@ export default async function ChannelBenchPage({ params }: Params) {
   const channel = channelPath === null ? undefined : await findChannelByPath(db(), channelPath);
   if (!channel) notFound();
   const canEdit = roleAtLeast(user.role, "engineer");
+  const kept = canEdit ? await listBenchCandidates(db(), user.id, channel.id) : [];
   return (
     <div className="space-y-4">
       <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
@@ -48,6 +50,7 @@ export default async function ChannelBenchPage({ params }: Params) {
       <Bench
         channel={{ path: channel.path, name: channel.name, unit: channel.unit, sampleRateHz: channel.sampleRateHz, coefficientFormat: channel.coefficientFormat }}
         canEdit={canEdit}
+        kept={kept.map((k) => ({ id: k.key, colorIndex: k.colorIndex, spec: k.spec, visible: true }))}
         sidecarPort={env().SIDECAR_PORT}
         wsPath={WS_PATH}
       />

@@ -44,10 +44,11 @@ export default async function RecordingPage({ params }: Params) {
           · {recording.channelPath} · {formatHz(recording.sampleRateHz, 6)} · {recording.sampleCount.toLocaleString("en-US")} samples
           {recording.missingCount > 0 && ` (${recording.missingCount.toLocaleString("en-US")} missing)`} · {formatDuration(recording.sampleCount / recording.sampleRateHz)} · {recording.unit}
         </p>
-        <Link href={`/channels/${channel.path}`} className="btn-quiet ml-auto py-1 text-sm">
-          Try on the live bench
-        </Link>
-        {canDelete && <DeleteRecordingButton id={recording.id} name={recording.name} after="/recordings" />}
+        {canDelete && (
+          <div className="ml-auto">
+            <DeleteRecordingButton id={recording.id} name={recording.name} after="/recordings" />
+          </div>
+        )}
       </div>
       <p className="text-sm text-slate-500">
         Uploaded by {recording.authorName} on {recording.createdAt.toISOString().slice(0, 10)}

@@ -41,8 +41,9 @@ export const rollbackAction = defineAction({
   role: "lead",
   revalidate: SHOWN_IN,
   act: async ({ data, user, transaction }) => {
-    await transaction((trx) => requestRollback(trx, user, data.channel, data.expectedActiveId));
-    return { ok: true, message: `Rolling back ${data.channel}; waiting for the device to acknowledge.` };
+    const { passThrough } = await transaction((trx) => requestRollback(trx, user, data.channel, data.expectedActiveId));
+    const what = passThrough ? `Returning ${data.channel} to no filter` : `Rolling back ${data.channel}`;
+    return { ok: true, message: `${what}; waiting for the device to acknowledge.` };
   },
 });
 

@@ -9,6 +9,9 @@ import { PendingRefresher } from "@/components/sets/pending-refresher";
 import { PromoteForm } from "@/components/sets/promote-form";
 import { ReviseForm } from "@/components/sets/revise-form";
 import { RevisionStages } from "@/components/sets/revision-stages";
+import { NotApprovable } from "@/components/sets/not-approvable";
+import { RevisionCharts } from "@/components/sets/revision-charts";
+import { RevisionCoefficients } from "@/components/sets/revision-coefficients";
 import { RevisionSummary } from "@/components/sets/revision-summary";
 import { StateBadge } from "@/components/sets/state-badge";
 import { db } from "@/db";
@@ -42,7 +45,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
   const states = await channelDeploymentStates(db(), sameRate.map((c) => c.id));
   const retired = set.retiredAt !== null;
   const can = (action: Parameters<typeof decide>[0], rev?: (typeof revisions)[number]) =>
-    decide(action, { role: me.role, actorId: me.id, authorId: rev?.authorId, state: rev?.state, retired }).ok;
+    decide(action, { role: me.role, actorId: me.id, authorId: rev?.authorId, state: rev?.state, retired, deployable: rev?.analysis.deployable.ok }).ok;
   const activeHere = deployments.filter((d) => d.state === "active");
   const search = await props.searchParams;
 
@@ -78,7 +81,10 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
               {deployments.map((d) => (
                 <tr key={d.id} className="border-t border-slate-100 align-top dark:border-slate-800" data-testid={`deployment-${d.id}`} data-channel={d.channel} data-state={d.state}>
                   <td className="num py-1 pr-3 text-xs">{d.channel}</td>
-                  <td className="num pr-3">r{d.revision}{d.kind === "rollback" && <span className="ml-1 text-xs text-slate-500">(rollback)</span>}</td>
+                  <td className="num pr-3">
+                    {d.passThrough ? <span className="font-sans">no filter</span> : `r${d.revision}`}
+                    {d.kind === "rollback" && <span className="ml-1 text-xs text-slate-500">(rollback)</span>}
+                  </td>
                   <td className="pr-3"><StateBadge state={d.state} /></td>
                   <td className="pr-3 text-xs">{d.requestedBy}, <span className="num">{utc(d.requestedAt)}</span></td>
                   <td className="num pr-3 text-xs">{utc(d.activatedAt)}</td>
@@ -91,11 +97,13 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
             </tbody>
           </table>
         )}
-        {roleAtLeast(me.role, "lead") && activeHere.some((d) => d.previousId !== null) && (
+        {roleAtLeast(me.role, "lead") && activeHere.some((d) => !d.passThrough) && (
           <div className="mt-3 flex flex-wrap gap-3">
-            {activeHere.filter((d) => d.previousId !== null).map((d) => (
-              <ActionForm key={d.id} action={rollbackAction} fields={{ channel: d.channel, expectedActiveId: d.id }} label={`Roll back ${d.channel}`} testId={`rollback-${d.channel}`}
-                confirm={`Roll back ${d.channel}? Its device goes back to the filter that was active before this one, once it acknowledges. Check with your team's review and the machine's safety documentation first.`} />
+            {activeHere.filter((d) => !d.passThrough).map((d) => (
+              <ActionForm key={d.id} action={rollbackAction} fields={{ channel: d.channel, expectedActiveId: d.id }} testId={`rollback-${d.channel}`}
+                {...(d.previousId === null
+                  ? { label: `Return ${d.channel} to no filter`, confirm: `Return ${d.channel} to no filter? Its device passes the raw signal through unfiltered once it acknowledges; anything downstream then sees the noise this filter removed. Check with your team's review and the machine's safety documentation first; local codes and licensed engineers decide.` }
+                  : { label: `Roll back ${d.channel}`, confirm: `Roll back ${d.channel}? Its device goes back to the filter that was active before this one, once it acknowledges. Check with your team's review and the machine's safety documentation first.` })} />
             ))}
           </div>
         )}
@@ -103,7 +111,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
 
       <section className="space-y-3" aria-labelledby="revisions-h">
         <h2 id="revisions-h" className="font-semibold">Revisions</h2>
-        {revisions.map((rev) => {
+        {revisions.map((rev, i) => {
           const revReviews = reviews.filter((r) => r.revisionId === rev.id);
           return (
             <article key={rev.id} className="card grid gap-4 p-4 lg:grid-cols-[1fr_24rem]" data-testid={`revision-${rev.revision}`} data-state={rev.state}>
@@ -115,7 +123,9 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                 </div>
                 {rev.notes && <p className="whitespace-pre-wrap text-sm">{rev.notes}</p>}
                 <RevisionStages spec={rev.spec} />
-              <RevisionSummary rev={rev} />
+                <RevisionSummary rev={rev} />
+                <RevisionCharts name={`r${rev.revision}`} spec={rev.spec} design={rev.design} open={i === 0 || rev.state === "in_review"} />
+                <RevisionCoefficients quantized={rev.quantized} />
                 {revReviews.map((r) => (
                   <p key={r.id} className="text-sm">
                     <StateBadge state={r.decision} /> by {r.reviewer} <span className="num text-xs text-slate-500">{utc(r.at)}</span>: {r.comment}
@@ -127,14 +137,18 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                 {can("submit", rev) && (
                   <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "submit", expectedVersion: rev.stateVersion }} label="Submit for review" tone="primary" testId="submit-form" />
                 )}
-                {rev.state === "in_review" && roleAtLeast(me.role, "lead") && !can("approve", rev) && (
+                {rev.state === "in_review" && roleAtLeast(me.role, "lead") && !can("reject", rev) && (
                   <p className="text-sm text-slate-500">You wrote this revision; another lead must review it.</p>
                 )}
-                {can("approve", rev) && (
+                {can("reject", rev) && (
                   <div className="flex flex-wrap gap-2">
-                    <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "approve", expectedVersion: rev.stateVersion }} label="Approve" tone="primary" testId="approve-form">
-                      <textarea name="comment" rows={2} className="field" placeholder="Comment (optional)" aria-label="Approval comment" />
-                    </ActionForm>
+                    {can("approve", rev) ? (
+                      <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "approve", expectedVersion: rev.stateVersion }} label="Approve" tone="primary" testId="approve-form">
+                        <textarea name="comment" rows={2} className="field" placeholder="Comment (optional)" aria-label="Approval comment" />
+                      </ActionForm>
+                    ) : (
+                      <NotApprovable reason={rev.analysis.deployable.ok ? null : rev.analysis.deployable.reason} />
+                    )}
                     <ActionForm action={transitionAction} fields={{ revisionId: rev.id, action: "reject", expectedVersion: rev.stateVersion }} label="Reject" testId="reject-form">
                       <textarea name="comment" rows={2} className="field" placeholder="Why (required)" aria-label="Rejection comment" />
                     </ActionForm>

@@ -76,7 +76,7 @@ export const API_OPERATIONS: ApiOperation[] = [
   { method: "get", path: "/api/v1/revisions/{id}/export", operationId: "exportRevision", summary: "Export a revision's coefficients",
     description: `${TOKENS} Default target: the format the revision was saved for (f32 for cmsis-df2t).`, tag: "exports", auth: "session-or-token",
     path_params: id, query: exportQuerySchema, responses: { 200: FILE, 400: E400, 401: E401, 404: E404, 422: E422, 429: E429 } },
-  { method: "post", path: "/api/v1/deployments/rollback", operationId: "rollback", summary: "Back to the previous revision (lead)", tag: "deployments", auth: "session",
+  { method: "post", path: "/api/v1/deployments/rollback", operationId: "rollback", summary: "Back to the previous revision, or to no filter after a first promotion (lead)", tag: "deployments", auth: "session",
     body: rollbackSchema, responses: { 202: { description: "The pending rollback.", json: r.rollbackBody }, 400: E400, 401: E401, 403: E403, 404: E404, 409: E409 } },
   { method: "get", path: "/api/v1/deployments", operationId: "listDeployments", summary: "A channel's deployment history", description: TOKENS, tag: "deployments",
     auth: "session-or-token", query: listDeploymentsSchema, responses: { 200: { description: "Newest first.", json: r.deploymentList }, 400: E400, 401: E401, 404: E404 } },

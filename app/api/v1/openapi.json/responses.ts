@@ -116,7 +116,7 @@ export const setDetailBody = z.object({
 export const retiredBody = z.object({ setId: z.number(), status: z.literal("retired") });
 export const transitionBody = z.object({ revisionId: z.number(), state: z.enum(REVISION_STATES), stateVersion: z.number() });
 export const promotionBody = z.object({ deployments: z.array(z.object({ id: z.number(), channel: z.string() })) });
-export const rollbackBody = z.object({ id: z.number(), channel: z.string() });
+export const rollbackBody = z.object({ id: z.number(), channel: z.string(), passThrough: z.boolean() });
 
 export const auditPage = z.object({
   items: z.array(

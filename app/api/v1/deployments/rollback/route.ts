@@ -4,7 +4,7 @@ import { requestRollback } from "@/db/queries/deployments";
 import { handler, parseBody } from "@/lib/http/handler";
 import { rollbackSchema } from "../schema";
 
-/** Puts the previously active revision back through the acknowledged path (202; the ack decides). */
+/** Puts the previously active revision back (no filter after a first promotion) through the acknowledged path (202; the ack decides). */
 export const POST = handler(async (req) => {
   const user = await requireUser("lead");
   const body = await parseBody(req, rollbackSchema);

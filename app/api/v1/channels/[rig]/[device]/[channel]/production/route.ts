@@ -1,7 +1,7 @@
 import { requireCaller } from "@/app/_lib/api-caller";
 import { db } from "@/db";
 import { findChannelByPath } from "@/db/queries/channels";
-import { findActiveDeployment } from "@/db/queries/deployments";
+import { findProductionDeployment } from "@/db/queries/deployments";
 import { AppError } from "@/lib/errors";
 import { handler } from "@/lib/http/handler";
 
@@ -15,7 +15,7 @@ export const GET = handler(async (req, ctx: { params: Promise<{ rig: string; dev
   await requireCaller(req, "operator");
   const channel = await findChannelByPath(db(), path);
   if (!channel) throw new AppError("not_found", `No channel ${path}.`);
-  const active = await findActiveDeployment(db(), channel.id);
+  const active = await findProductionDeployment(db(), channel.id);
   if (!active) throw new AppError("not_found", `No production filter is active on ${path}.`);
   return Response.json({
     revisionId: active.revisionId,

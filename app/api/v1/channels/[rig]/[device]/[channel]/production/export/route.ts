@@ -3,7 +3,7 @@ import { exportResponse, revisionSource } from "@/app/api/v1/revisions/[id]/expo
 import { exportQuerySchema, queryOf } from "@/app/api/v1/revisions/[id]/export/schema";
 import { db } from "@/db";
 import { findChannelByPath } from "@/db/queries/channels";
-import { findActiveDeployment } from "@/db/queries/deployments";
+import { findProductionDeployment } from "@/db/queries/deployments";
 import { findRevision } from "@/db/queries/revisions";
 import { AppError } from "@/lib/errors";
 import { handler, parseWith } from "@/lib/http/handler";
@@ -19,7 +19,7 @@ export const GET = handler(async (req, ctx: { params: Promise<{ rig: string; dev
   const { user: caller } = await requireCaller(req, "operator");
   const channel = await findChannelByPath(db(), path);
   if (!channel) throw new AppError("not_found", `No channel ${path}.`);
-  const active = await findActiveDeployment(db(), channel.id);
+  const active = await findProductionDeployment(db(), channel.id);
   if (!active) throw new AppError("not_found", `Nothing is in production on ${path}: no deployment is active.`);
   const revision = await findRevision(db(), active.revisionId);
   if (!revision) throw new AppError("not_found", "The active revision no longer exists.");
