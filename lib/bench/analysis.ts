@@ -137,7 +137,7 @@ export interface FixedPreview {
 }
 
 /** A quantized design as it runs (its rounded coefficient values), for its response after quantization. */
-function runnable(q: QuantizedDesign): FilterDesign {
+export function runnable(q: QuantizedDesign): FilterDesign {
   const part = (p: QuantizedPart) => ({ sampleRateHz: q.sampleRateHz, sos: p.sos, taps: p.taps, zeros: [], poles: [], gain: 1 });
   return q.stages ? { sampleRateHz: q.sampleRateHz, stages: q.stages.map((s) => ({ ...part(s), stage: s.stage })), zeros: [], poles: [], gain: 1 } : part(q);
 }
