@@ -37,8 +37,8 @@ function expectZpkMatchesRunForm(d: FilterDesign): void {
 describe("designFilter", () => {
   it("throws a clear Error listing each refused field for an unvalidated spec", () => {
     const bad = { kind: "biquad", shape: "notch", centerHz: 700, q: -1, sampleRateHz: 1000 } as unknown as FilterSpec;
-    expect(() => designFilter(bad)).toThrow(/invalid filter spec:\ncenterHz: centerHz must satisfy 0 < f < sampleRateHz\/2 = 500 Hz.*\nq: q must satisfy/s);
-    expect(() => designFilter({ kind: "nope" } as unknown as FilterSpec)).toThrow(/kind: Invalid discriminator value/);
+    expect(() => designFilter(bad)).toThrow(/invalid filter spec:\nThe centre frequency must be above 0 Hz and below half the sample rate \(500 Hz\).*\nQ must be above 0/s);
+    expect(() => designFilter({ kind: "nope" } as unknown as FilterSpec)).toThrow(/invalid filter spec:\nInvalid discriminator value/);
   });
 
   it("designs each kind with the matching run form", () => {
