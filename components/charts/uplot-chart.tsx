@@ -267,8 +267,9 @@ export function UPlotChart(props: UPlotChartProps) {
         axis({
           label: p.x.label,
           scale: "x",
-          space: p.x.kind === "log" ? 40 : 70,
-          values: p.x.kind === "time" ? (_u: uPlot, splits: number[]) => splits.map((v) => clock(v, false)) : undefined,
+          space: p.x.kind === "log" ? 40 : p.x.kind === "time" ? 90 : 70,
+          // Ticks less than a second apart (a 1 s window, a zoom) get milliseconds, so no two labels read the same.
+          values: p.x.kind === "time" ? (_u: uPlot, splits: number[]) => splits.map((v) => clock(v, splits.length > 1 && splits[1] - splits[0] < 1)) : undefined,
         }),
         ...p.axes.map((a) =>
           axis({

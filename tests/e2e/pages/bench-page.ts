@@ -144,7 +144,7 @@ export class BenchPage {
   }
 
   /**
-   * Pixels of a chart's plot area brighter than its grid (the drawn traces): 0 means the plot is blank.
+   * Opaque bright pixels of a chart's plot area (the drawn traces; the grid is translucent): 0 means the plot is blank.
    * Read from the canvas inside the plot area only, so axis labels do not count.
    */
   async plottedPixels(chart: Locator): Promise<number> {
@@ -158,7 +158,7 @@ export class BenchPage {
       const k = canvas.width / c.width;
       const img = ctx.getImageData(Math.round((o.left - c.left) * k), Math.round((o.top - c.top) * k), Math.round(o.width * k), Math.round(o.height * k));
       let bright = 0;
-      for (let i = 0; i < img.data.length; i += 4) if (Math.max(img.data[i], img.data[i + 1], img.data[i + 2]) > 110 && img.data[i + 3] > 0) bright++;
+      for (let i = 0; i < img.data.length; i += 4) if (Math.max(img.data[i], img.data[i + 1], img.data[i + 2]) > 110 && img.data[i + 3] > 160) bright++;
       return bright;
     });
   }
