@@ -130,7 +130,8 @@ export function UPlotChart(props: UPlotChartProps) {
       if (p.x.kind === "log") {
         // A log axis needs a positive range: an empty plot shows one to a thousand.
         if (min == null || max == null || !(min > 0) || !(max > min)) return [1, 1000];
-        return uPlot.rangeLog(min, max, 10, true);
+        // The data's own extent, so a frequency axis ends where the response does (just below Nyquist), not at the next decade.
+        return [min, max];
       }
       if (min == null || max == null) return [0, 1];
       return min === max ? [min - 1, max + 1] : [min, max];
