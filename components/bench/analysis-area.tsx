@@ -2,7 +2,7 @@
 
 import { useState, type ReactNode } from "react";
 import type { QuantFormat } from "@/lib/dsp";
-import { DelayView, FixedView, PolesView, ResponseView, StepView, useFrequencyGrid, type AnalysisItem } from "./analysis-views";
+import { DelayView, FixedView, PolesView, ResponseView, StepView, useFrequencyGrid, type AnalysisItem, type FrequencyView } from "./analysis-views";
 
 const VIEWS = ["Response", "Delay", "Poles", "Step", "Spectrum", "Fixed point"] as const;
 type View = (typeof VIEWS)[number];
@@ -27,15 +27,17 @@ export function AnalysisArea({
 }) {
   const [active, setActive] = useState<View>("Response");
   const [pinned, setPinned] = useState<View[]>([]);
-  const freqs = useFrequencyGrid(sampleRateHz);
+  const [view, setView] = useState<FrequencyView>(null);
+  const freqs = useFrequencyGrid(items, sampleRateHz, view);
+  const zoom = { view, onView: setView };
   const shown = pinned.includes(active) ? pinned : [...pinned, active];
   const body = (v: View) => {
     if (items.length === 0 && v !== "Spectrum") return <p className="text-sm text-slate-500">{emptyText}</p>;
     switch (v) {
       case "Response":
-        return <ResponseView items={items} freqs={freqs} />;
+        return <ResponseView items={items} freqs={freqs} {...zoom} />;
       case "Delay":
-        return <DelayView items={items} freqs={freqs} sampleRateHz={sampleRateHz} />;
+        return <DelayView items={items} freqs={freqs} sampleRateHz={sampleRateHz} {...zoom} />;
       case "Poles":
         return <PolesView items={items} />;
       case "Step":
@@ -43,7 +45,7 @@ export function AnalysisArea({
       case "Spectrum":
         return spectrum;
       case "Fixed point":
-        return <FixedView items={items} freqs={freqs} deviceFormat={deviceFormat} />;
+        return <FixedView items={items} freqs={freqs} deviceFormat={deviceFormat} {...zoom} />;
     }
   };
   return (

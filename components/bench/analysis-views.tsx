@@ -7,6 +7,7 @@ import { UPlotChart, type ChartSeries } from "@/components/charts/uplot-chart";
 import { Swatch } from "@/components/ui/swatch";
 import {
   fixedPreview,
+  plotGrid,
   responseCurves,
   sPlaneRoots,
   stageCurves,
@@ -19,8 +20,8 @@ import {
   type TimeCurves,
 } from "@/lib/bench/analysis";
 import { STAGE_COLORS } from "@/lib/bench/colors";
-import { levelDb, withUnit } from "@/lib/bench/format";
-import { freqGrid, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import { hz, levelDb, withUnit } from "@/lib/bench/format";
+import type { FilterDesign, FilterSpec, QuantFormat } from "@/lib/dsp";
 import { PoleZeroMap } from "./pole-zero-map";
 import { useDesignZeros, type ZerosState } from "./use-design-zeros";
 import { ArithmeticPanel } from "./arithmetic-panel";
@@ -51,8 +52,18 @@ function safe<T>(fn: () => T): T | null {
 /** Dash of a chain's stage drawn on its own under the total (the analog prototype's is longer). */
 const STAGE_DASH = [2, 3];
 
-export function useFrequencyGrid(sampleRateHz: number): number[] {
-  return useMemo(() => freqGrid(sampleRateHz, GRID_POINTS, "log"), [sampleRateHz]);
+/** A zoomed frequency range in Hz shared by the frequency charts, or null for the whole band. */
+export type FrequencyView = readonly [number, number] | null;
+
+/** The plot frequencies of the shown filters over the view: dense at and around their notches and resonances (plotGrid). */
+export function useFrequencyGrid(items: AnalysisItem[], sampleRateHz: number, view: FrequencyView): number[] {
+  return useMemo(() => plotGrid(items.map((it) => it.design), sampleRateHz, GRID_POINTS, view), [items, sampleRateHz, view]);
+}
+
+/** The shared zoom of the frequency charts: zooming one zooms the others, and the response is recomputed for the range. */
+export interface ViewProps {
+  view: FrequencyView;
+  onView: (range: [number, number] | null) => void;
 }
 
 /** Each item's response, with each of its stages on its own when it is a chain (empty otherwise). */
@@ -87,7 +98,7 @@ function withStages(items: AnalysisItem[], curves: (ItemCurves | null)[], column
 
 const hzAxis = { kind: "log" as const, label: "Frequency (Hz)", unit: "Hz" };
 
-function Chart({ title, testId, series, data, yLabel, kind = "log", height = 220, axes, floor }: {
+function Chart({ title, testId, series, data, yLabel, kind = "log", height = 220, axes, floor, view, onView }: Partial<ViewProps> & {
   title: string;
   testId: string;
   series: ChartSeries[];
@@ -111,6 +122,8 @@ function Chart({ title, testId, series, data, yLabel, kind = "log", height = 220
           x={kind === "log" ? hzAxis : { kind: "linear", label: "Time (ms)", unit: "ms" }}
           axes={axes ?? [{ scale: "y", label: yLabel, floor }]}
           height={height}
+          view={view}
+          onView={onView}
         />
       </div>
     </figure>
@@ -121,7 +134,7 @@ function Chart({ title, testId, series, data, yLabel, kind = "log", height = 220
  * Bode magnitude and phase on a log frequency axis: each digital response beside its analog prototype
  * (long dashes) so the warping shows, and for a chain each stage on its own (short dashes) under the total.
  */
-export function ResponseView({ items, freqs }: { items: AnalysisItem[]; freqs: number[] }) {
+export function ResponseView({ items, freqs, view, onView }: { items: AnalysisItem[]; freqs: number[] } & ViewProps) {
   const curves = useCurves(items, freqs);
   const { mag, phase, series } = useMemo(() => {
     const withMag = withStages(items, curves, (c) => c.magnitudeDb);
@@ -142,16 +155,27 @@ export function ResponseView({ items, freqs }: { items: AnalysisItem[]; freqs: n
   const analog = curves.some((c) => c?.total.analogMagnitudeDb);
   return (
     <div className="space-y-3">
-      <Chart title="Magnitude (dB)" testId="bode-magnitude" series={series.map((s) => ({ ...s, unit: "dB" }))} data={mag} yLabel="dB" floor={MAGNITUDE_FLOOR_DB} />
-      <Chart title="Phase (°)" testId="bode-phase" series={series.map((s) => ({ ...s, unit: "°" }))} data={phase} yLabel="degrees" height={180} />
+      <Chart title="Magnitude (dB)" testId="bode-magnitude" series={series.map((s) => ({ ...s, unit: "dB" }))} data={mag} yLabel="dB" floor={MAGNITUDE_FLOOR_DB} view={view} onView={onView} />
+      <Chart title="Phase (°)" testId="bode-phase" series={series.map((s) => ({ ...s, unit: "°" }))} data={phase} yLabel="degrees" height={180} view={view} onView={onView} />
+      <ZoomNote view={view} />
       {chains && <p className="text-xs text-slate-500">Short dashes: each stage of a chain on its own, in the chain&apos;s colour; the solid line is the whole chain (their product).</p>}
       {analog && <p className="text-xs text-slate-500">Long dashes: the analog prototype (no prewarping) — where it departs from the solid line, the bilinear map has warped the frequency axis.</p>}
     </div>
   );
 }
 
+/** Says that the frequency charts are zoomed, and how to see the whole band again. */
+function ZoomNote({ view }: { view: FrequencyView }) {
+  if (!view) return null;
+  return (
+    <p className="text-xs text-slate-500" data-testid="frequency-zoom">
+      Zoomed to {hz(view[0])}–{hz(view[1])}: the response is recomputed for this range. Double-click a chart to see the whole band.
+    </p>
+  );
+}
+
 /** Group delay in samples (left axis) and ms (right axis); for a chain each stage dashed under the total (delays add). */
-export function DelayView({ items, freqs, sampleRateHz }: { items: AnalysisItem[]; freqs: number[]; sampleRateHz: number }) {
+export function DelayView({ items, freqs, sampleRateHz, view, onView }: { items: AnalysisItem[]; freqs: number[]; sampleRateHz: number } & ViewProps) {
   const curves = useCurves(items, freqs);
   const { series, data } = useMemo(() => {
     const { series, cols } = withStages(items, curves, (c) => c.groupDelaySamples);
@@ -166,6 +190,8 @@ export function DelayView({ items, freqs, sampleRateHz }: { items: AnalysisItem[
       data={data}
       yLabel="samples"
       height={260}
+      view={view}
+      onView={onView}
       axes={[
         { scale: "y", label: "samples" },
         { scale: "y", label: "ms", side: "right", format: ms },
@@ -324,7 +350,7 @@ const FORMAT_COLORS: Record<QuantFormat, string> = { f32: "#56b4e9", q31: "#009e
  * The float64 magnitude with f32, Q31 and Q15 quantizations overlaid; stability and largest deviation per
  * format; for a chain, the headroom at each stage's output in the device's format.
  */
-export function FixedView({ items, freqs, deviceFormat }: { items: AnalysisItem[]; freqs: number[]; deviceFormat: QuantFormat }) {
+export function FixedView({ items, freqs, deviceFormat, view, onView }: { items: AnalysisItem[]; freqs: number[]; deviceFormat: QuantFormat } & ViewProps) {
   const [chosen, setChosen] = useState<string>("");
   const item = items.find((it) => it.id === chosen) ?? items[0];
   const result = useMemo(() => {
@@ -345,7 +371,7 @@ export function FixedView({ items, freqs, deviceFormat }: { items: AnalysisItem[
   return (
     <div className="space-y-3">
       <FilterPicker items={items} value={item.id} onChange={setChosen} />
-      <Chart title={`${item.name}: magnitude quantized vs float64 (dB)`} testId="fixed-point" series={series} data={[freqs, ...cols] as uPlot.AlignedData} yLabel="dB" floor={MAGNITUDE_FLOOR_DB} />
+      <Chart title={`${item.name}: magnitude quantized vs float64 (dB)`} testId="fixed-point" series={series} data={[freqs, ...cols] as uPlot.AlignedData} yLabel="dB" floor={MAGNITUDE_FLOOR_DB} view={view} onView={onView} />
       <table className="num w-full text-xs">
         <thead className="text-left text-slate-500">
           <tr>

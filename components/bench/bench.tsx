@@ -162,7 +162,7 @@ export function Bench({
         onPeaks={(p) => p.length > 0 && setNoiseLineHz(p[0])}
       />
       <CandidateCards
-        cards={candidates.map((c) => ({ candidate: c, designError: designs.get(c.id)?.error ?? null, cautionCount: cautions.get(c.id)?.length ?? 0, metrics: live.metrics[c.id] }))}
+        cards={candidates.map((c) => ({ candidate: c, designError: designs.get(c.id)?.error ?? null, cautions: cautions.get(c.id) ?? [], metrics: live.metrics[c.id] }))}
         unit={channel.unit}
         editingId={editingId}
         canEdit={canEdit}

@@ -2,7 +2,9 @@
 
 import { Swatch } from "@/components/ui/swatch";
 import { candidateColor, candidateName, type Candidate } from "@/lib/bench/candidates";
+import { CautionBadge } from "./cautions-list";
 import { MAX_CANDIDATES } from "@/lib/bench/colors";
+import type { Caution } from "@/lib/bench/cautions";
 import { withUnit } from "@/lib/bench/format";
 import { specSummary } from "@/lib/bench/spec-text";
 import type { CandidateMetrics } from "@/lib/protocol";
@@ -10,7 +12,7 @@ import type { CandidateMetrics } from "@/lib/protocol";
 export interface CardState {
   candidate: Candidate;
   designError: string | null;
-  cautionCount: number;
+  cautions: Caution[];
   metrics: CandidateMetrics | undefined;
 }
 
@@ -39,7 +41,7 @@ export function CandidateCards({
   return (
     <section aria-label="Candidates">
       <ul className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3 2xl:grid-cols-4">
-        {cards.map(({ candidate: c, designError, cautionCount, metrics }) => (
+        {cards.map(({ candidate: c, designError, cautions, metrics }) => (
           <li
             key={c.id}
             data-testid={`candidate-${c.colorIndex}`}
@@ -77,11 +79,7 @@ export function CandidateCards({
               </dl>
             )}
             <div className="mt-auto flex items-center gap-2">
-              {cautionCount > 0 && (
-                <span className="rounded bg-amber-100 px-1.5 py-0.5 text-xs text-amber-900 dark:bg-amber-900/40 dark:text-amber-200">
-                  {cautionCount} {cautionCount === 1 ? "caution" : "cautions"}
-                </span>
-              )}
+              <CautionBadge cautions={cautions} />
               {canEdit && (
                 <>
                   <button type="button" className="btn-quiet ml-auto px-2 py-1 text-xs" onClick={() => onEdit(c.id)} aria-label={`Edit ${candidateName(c)}`}>

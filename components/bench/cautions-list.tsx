@@ -1,5 +1,5 @@
 import { candidateName, type Candidate } from "@/lib/bench/candidates";
-import { REVIEW_LINE, type Caution, type CautionLevel } from "@/lib/bench/cautions";
+import { highestLevel, REVIEW_LINE, type Caution, type CautionLevel } from "@/lib/bench/cautions";
 
 /** The look of each caution level: red for a filter that does not settle, amber for a risk, quiet for advice. */
 const LEVEL_CLASS: Record<CautionLevel, string> = {
@@ -7,6 +7,24 @@ const LEVEL_CLASS: Record<CautionLevel, string> = {
   warning: "border-amber-300 bg-amber-50 text-amber-950 dark:border-amber-700/60 dark:bg-amber-950/30 dark:text-amber-100",
   note: "border-slate-200 bg-transparent text-slate-700 dark:border-slate-700 dark:text-slate-300",
 };
+
+/** The badge of a count of cautions, coloured for the loudest among them (red, amber or quiet). */
+const BADGE_CLASS: Record<CautionLevel, string> = {
+  danger: "bg-red-100 text-red-900 dark:bg-red-900/40 dark:text-red-200",
+  warning: "bg-amber-100 text-amber-900 dark:bg-amber-900/40 dark:text-amber-200",
+  note: "bg-slate-100 text-slate-700 dark:bg-slate-800 dark:text-slate-300",
+};
+
+/** "2 cautions" on a candidate's card, in the colour of the loudest; nothing when there are none. */
+export function CautionBadge({ cautions }: { cautions: Caution[] }) {
+  const level = highestLevel(cautions);
+  if (!level) return null;
+  return (
+    <span data-testid="caution-badge" data-level={level} className={`rounded px-1.5 py-0.5 text-xs ${BADGE_CLASS[level]}`}>
+      {cautions.length} {cautions.length === 1 ? "caution" : "cautions"}
+    </span>
+  );
+}
 
 /** Cautions in plain words, each closing with the line that defers to review and local codes. */
 export function CautionsList({ cautions, name }: { cautions: Caution[]; name?: string }) {

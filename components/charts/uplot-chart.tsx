@@ -53,6 +53,10 @@ export interface UPlotChartProps {
   paused?: boolean;
   /** The engineer zoomed in (true) or reset the zoom with a double click (false). */
   onZoom?: (zoomed: boolean) => void;
+  /** A shared x range to show (e.g. the magnitude chart's zoom for the phase chart); null shows the whole extent. */
+  view?: readonly [number, number] | null;
+  /** The engineer zoomed or panned to an x range, or reset it (null). */
+  onView?: (range: [number, number] | null) => void;
   /** A click (not a drag) at x. */
   onPick?: (x: number) => void;
   /** The legend toggled series i (0-based, without x). */
@@ -107,6 +111,10 @@ export function UPlotChart(props: UPlotChartProps) {
     propsRef.current = props;
   });
   const zoomedRef = useRef(false);
+  /** The live window when the stream was paused: a paused chart keeps showing it while the stream runs on. */
+  const frozenRef = useRef<[number, number] | null>(null);
+  /** True while the chart applies a `view` prop, so it does not report its own range back. */
+  const applyingViewRef = useRef(false);
   const scheduleRef = useRef<() => void>(() => {});
   const seriesKey = props.series.map((s) => `${s.label}|${s.color}|${s.scale ?? "y"}|${s.dash ?? ""}`).join(";");
   const builtKeyRef = useRef(seriesKey);
@@ -119,12 +127,14 @@ export function UPlotChart(props: UPlotChartProps) {
     let destroyed = false;
 
     const xRange = (_u: uPlot, min: number | null, max: number | null): uPlot.Range.MinMax => {
+      if (zoomedRef.current && min != null && max != null && max > min) return [min, max];
       const live = propsRef.current.source.xRange?.() ?? null;
-      if (live && !zoomedRef.current) return live;
+      if (live) return propsRef.current.paused ? (frozenRef.current ?? live) : live;
       if (p.x.kind === "log") {
         // A log axis needs a positive range: an empty plot shows one to a thousand.
         if (min == null || max == null || !(min > 0) || !(max > min)) return [1, 1000];
-        return uPlot.rangeLog(min, max, 10, true);
+        // The data's own extent, so a frequency axis ends where the response does (just below Nyquist), not at the next decade.
+        return [min, max];
       }
       if (min == null || max == null) return [0, 1];
       return min === max ? [min - 1, max + 1] : [min, max];
@@ -146,6 +156,8 @@ export function UPlotChart(props: UPlotChartProps) {
     const axis = (a: Partial<uPlot.Axis>): uPlot.Axis => ({ stroke: AXIS_STROKE, grid: GRID, ticks: TICKS, font: "11px var(--font-mono), monospace", labelFont: "11px var(--font-inter), sans-serif", ...a });
 
     let pointerDown = false;
+    /** A shift-drag pan is under way: its range is reported once, when it ends. */
+    let panning = false;
     const panPlugin: uPlot.Plugin = {
       hooks: {
         init: (u) => {
@@ -155,6 +167,7 @@ export function UPlotChart(props: UPlotChartProps) {
             if (!e.shiftKey || e.button !== 0) return;
             e.stopPropagation();
             start = { x: e.clientX, min: u.scales.x.min ?? 0, max: u.scales.x.max ?? 1 };
+            panning = true;
             zoomedRef.current = true;
             propsRef.current.onZoom?.(true);
           };
@@ -172,12 +185,18 @@ export function UPlotChart(props: UPlotChartProps) {
           };
           const onUp = () => {
             start = null;
+            if (panning) {
+              panning = false;
+              const { min, max } = u.scales.x;
+              if (min != null && max != null) propsRef.current.onView?.([min, max]);
+            }
             setTimeout(() => (pointerDown = false), 0);
           };
           const onDbl = () => {
             pointerDown = false;
             zoomedRef.current = false;
             propsRef.current.onZoom?.(false);
+            propsRef.current.onView?.(null);
             scheduleRef.current();
           };
           u.over.addEventListener("mousedown", onDown, true);
@@ -194,12 +213,16 @@ export function UPlotChart(props: UPlotChartProps) {
             window.removeEventListener("mouseup", onUp);
           };
         },
-        // A drag-zoom sets the x scale while the pointer is down (uPlot clears the selection first).
-        setScale: (_u, key) => {
-          if (key === "x" && pointerDown && !zoomedRef.current) {
+        // A drag-zoom reports its selection just before it sets the x scale: from here on the x range is the engineer's.
+        setSelect: (u) => {
+          if (pointerDown && u.select.width > 0 && !zoomedRef.current) {
             zoomedRef.current = true;
             propsRef.current.onZoom?.(true);
           }
+        },
+        setScale: (u, key) => {
+          const { min, max } = u.scales.x;
+          if (key === "x" && zoomedRef.current && !panning && !applyingViewRef.current && min != null && max != null) propsRef.current.onView?.([min, max]);
         },
         draw: (u) => {
           const marks = propsRef.current.marks;
@@ -248,8 +271,9 @@ export function UPlotChart(props: UPlotChartProps) {
         axis({
           label: p.x.label,
           scale: "x",
-          space: p.x.kind === "log" ? 40 : 70,
-          values: p.x.kind === "time" ? (_u: uPlot, splits: number[]) => splits.map((v) => clock(v, false)) : undefined,
+          space: p.x.kind === "log" ? 40 : p.x.kind === "time" ? 90 : 70,
+          // Ticks less than a second apart (a 1 s window, a zoom) get milliseconds, so no two labels read the same.
+          values: p.x.kind === "time" ? (_u: uPlot, splits: number[]) => splits.map((v) => clock(v, splits.length > 1 && splits[1] - splits[0] < 1)) : undefined,
         }),
         ...p.axes.map((a) =>
           axis({
@@ -325,11 +349,25 @@ export function UPlotChart(props: UPlotChartProps) {
     if (!plot) return;
     if (plot.height !== props.height) plot.setSize({ width: plot.width, height: props.height });
     if (!props.paused) zoomedRef.current = false;
+    frozenRef.current = props.paused ? (frozenRef.current ?? propsRef.current.source.xRange?.() ?? null) : null;
     const yRange = propsRef.current.yRange;
     if (yRange) plot.setScale("y", { min: yRange[0], max: yRange[1] });
     else if (!zoomedRef.current) plot.setData(plot.data, true);
     scheduleRef.current();
   }, [yKey, props.paused, props.height]);
+
+  // A shared view: zoom to it (keeping it when the data changes), or back to the whole extent.
+  const viewKey = props.view ? props.view.join(",") : "";
+  useEffect(() => {
+    const plot = plotRef.current;
+    const view = propsRef.current.view;
+    if (!plot) return;
+    applyingViewRef.current = true;
+    zoomedRef.current = view != null;
+    if (view) plot.setScale("x", { min: view[0], max: view[1] });
+    else plot.setData(plot.data, true);
+    applyingViewRef.current = false;
+  }, [viewKey]);
 
   return <div ref={hostRef} role="img" aria-label={props.label} data-testid={props.testId} className="tw-chart w-full min-w-0 overflow-hidden" />;
 }

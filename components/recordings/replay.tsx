@@ -127,7 +127,7 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
       {canEdit && (
         <>
           <CandidateCards
-            cards={candidates.map((c) => ({ candidate: c, designError: designs.get(c.id)?.error ?? null, cautionCount: cautions.get(c.id)?.length ?? 0, metrics: metrics[c.id] }))}
+            cards={candidates.map((c) => ({ candidate: c, designError: designs.get(c.id)?.error ?? null, cautions: cautions.get(c.id) ?? [], metrics: metrics[c.id] }))}
             unit={recording.unit}
             editingId={editingId}
             canEdit

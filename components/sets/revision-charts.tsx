@@ -1,7 +1,7 @@
 "use client";
 
-import { useState } from "react";
-import { PolesView, ResponseView, useFrequencyGrid, type AnalysisItem } from "@/components/bench/analysis-views";
+import { useMemo, useState } from "react";
+import { PolesView, ResponseView, useFrequencyGrid, type AnalysisItem, type FrequencyView } from "@/components/bench/analysis-views";
 import { PRODUCTION_COLOR } from "@/lib/bench/colors";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 
@@ -11,8 +11,9 @@ import type { FilterDesign, FilterSpec } from "@/lib/dsp";
  */
 export function RevisionCharts({ name, spec, design, open: initiallyOpen }: { name: string; spec: FilterSpec; design: FilterDesign; open: boolean }) {
   const [open, setOpen] = useState(initiallyOpen);
-  const freqs = useFrequencyGrid(design.sampleRateHz);
-  const items: AnalysisItem[] = [{ id: "revision", name, color: PRODUCTION_COLOR, spec, design }];
+  const [view, setView] = useState<FrequencyView>(null);
+  const items = useMemo<AnalysisItem[]>(() => [{ id: "revision", name, color: PRODUCTION_COLOR, spec, design }], [name, spec, design]);
+  const freqs = useFrequencyGrid(items, design.sampleRateHz, view);
   return (
     <section className="space-y-3" aria-label={`Charts of ${name}`}>
       <button type="button" className="btn-quiet py-1 text-xs" aria-expanded={open} onClick={() => setOpen(!open)}>
@@ -20,7 +21,7 @@ export function RevisionCharts({ name, spec, design, open: initiallyOpen }: { na
       </button>
       {open && (
         <>
-          <ResponseView items={items} freqs={freqs} />
+          <ResponseView items={items} freqs={freqs} view={view} onView={setView} />
           <PolesView items={items} />
         </>
       )}

@@ -5,6 +5,7 @@ import {
   impulseResponse,
   polyRoots,
   quantizeDesign,
+  responseGrid,
   stepMetrics,
   specStages,
   stepResponse,
@@ -36,6 +37,20 @@ export function sPlaneRoots(spec: FilterSpec): { zeros: Complex[]; poles: Comple
   const trim = (p: number[]) => p.slice(p.findIndex((c) => c !== 0));
   const roots = (p: number[]) => (trim(p).length > 1 ? polyRoots(trim(p)) : []);
   return { zeros: roots(system.num), poles: roots(system.den) };
+}
+
+/**
+ * The plot frequencies in Hz for several designs on one channel: each design's root-aware grid
+ * (responseGrid: n log-spaced points plus points at and around its zeros and poles near the unit circle)
+ * over `range` (a zoom, clipped to the channel's band) or the whole band, merged.
+ */
+export function plotGrid(designs: readonly FilterDesign[], sampleRateHz: number, n: number, range: readonly [number, number] | null): number[] {
+  const nyquist = sampleRateHz / 2;
+  const clipped: [number, number] | undefined = range ? [Math.max(range[0], nyquist * 1e-6), Math.min(range[1], nyquist)] : undefined;
+  const band = clipped && clipped[1] > clipped[0] ? clipped : undefined;
+  const shown: FilterDesign[] = designs.length > 0 ? [...designs] : [{ sampleRateHz, poles: [], gain: 1 }];
+  const all = shown.flatMap((d) => responseGrid({ ...d, sampleRateHz }, n, band)).sort((a, b) => a - b);
+  return all.filter((f, i) => i === 0 || f !== all[i - 1]);
 }
 
 export interface ResponseCurves {
@@ -123,7 +138,7 @@ export interface FixedPreview {
 }
 
 /** A quantized design as it runs (its rounded coefficient values), for its response after quantization. */
-function runnable(q: QuantizedDesign): FilterDesign {
+export function runnable(q: QuantizedDesign): FilterDesign {
   const part = (p: QuantizedPart) => ({ sampleRateHz: q.sampleRateHz, sos: p.sos, taps: p.taps, zeros: [], poles: [], gain: 1 });
   return q.stages ? { sampleRateHz: q.sampleRateHz, stages: q.stages.map((s) => ({ ...part(s), stage: s.stage })), zeros: [], poles: [], gain: 1 } : part(q);
 }

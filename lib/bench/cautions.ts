@@ -1,4 +1,5 @@
-import { frequencyResponse, quantizeDesign, stability, toMs, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import { freqGrid, frequencyResponse, quantizeDesign, responseGrid, stability, toMs, type FilterDesign, type FilterSpec, type QuantFormat, type QuantizedDesign } from "@/lib/dsp";
+import { runnable } from "./analysis";
 import { hz, withUnit } from "./format";
 import { notchBands, specFrequencies } from "./spec-text";
 import { errorMessage } from "@/lib/errors";
@@ -15,8 +16,12 @@ export const CAUTION_LIMITS = {
   loopPhaseDeg: 10,
   /** Low-frequency delay that deserves a caution when no crossover is given, in ms. */
   loopDelayMs: 2,
-  /** Largest tolerated change of the magnitude response after quantization, in dB. */
+  /** Largest tolerated change of the magnitude response after quantization in the passband, in dB. */
   quantizationDb: 1,
+  /** The passband, for judging quantization: where the float64 response lies within this of its peak, in dB (half power). */
+  passbandDb: 3,
+  /** Stopband attenuation a quantized filter must keep when the spec states none, in dB below the peak. */
+  stopbandDb: 40,
   /** Design frequencies above this fraction of fs sit close to Nyquist. */
   nyquistFraction: 0.45,
   /** A pole radius within this of 1 counts as on the unit circle (rounding of an exact 1; product choice). */
@@ -25,6 +30,13 @@ export const CAUTION_LIMITS = {
 
 /** How loudly a caution speaks: "danger" (red) for a filter that does not settle, "warning" (amber) for a risk, "note" (quiet) for advice. */
 export type CautionLevel = "danger" | "warning" | "note";
+
+const LEVEL_ORDER: readonly CautionLevel[] = ["danger", "warning", "note"];
+
+/** The loudest level among cautions (what a badge counting them shows), or null when there are none. */
+export function highestLevel(cautions: readonly { level: CautionLevel }[]): CautionLevel | null {
+  return LEVEL_ORDER.find((level) => cautions.some((c) => c.level === level)) ?? null;
+}
 
 /** A pole of this radius lies on or outside the unit circle (within CAUTION_LIMITS.unitCircleTolerance): the filter is unstable or marginal. */
 export const onOrOutsideUnitCircle = (radius: number) => !(radius < 1 - CAUTION_LIMITS.unitCircleTolerance);
@@ -101,7 +113,44 @@ function loopCaution(design: FilterDesign, crossoverHz: number | null | undefine
   };
 }
 
-function quantizationCaution(design: FilterDesign, format: QuantFormat): Caution | null {
+/** The stopband attenuation a spec states (Kaiser FIR, Chebyshev II, elliptic), in dB, or null. */
+function statedStopbandDb(spec: FilterSpec): number | null {
+  return "stopbandAttenuationDb" in spec && typeof spec.stopbandAttenuationDb === "number" ? spec.stopbandAttenuationDb : null;
+}
+
+/** What rounding to a device format does where it matters: the passband change and the stopband level reached. */
+export interface QuantizationImpact {
+  /** Largest |ΔdB| where the float64 response is within CAUTION_LIMITS.passbandDb of its peak. */
+  passbandDeviationDb: number;
+  /** The attenuation the stopband must keep, in dB below the peak (stated by the spec, else CAUTION_LIMITS.stopbandDb). */
+  stopbandLimitDb: number;
+  /** Highest quantized level, in dB relative to the float64 peak, where the float64 response is below the stopband limit; null when it never is. */
+  stopbandLevelDb: number | null;
+}
+
+/**
+ * The change quantization makes, judged where it matters: in the passband (float64 within 3 dB of its peak) and
+ * against the stopband limit (where float64 lies below it, the quantized response must too). Deviations deep in a
+ * stopband (a notch's −∞ dB becoming −70 dB, a −58 dB FIR floor moving to −62 dB) change nothing an engineer sees.
+ * Evaluated on a 4097-point linear grid plus the points around zeros and poles near the unit circle (responseGrid).
+ */
+export function quantizationImpact(spec: FilterSpec, design: FilterDesign, q: QuantizedDesign): QuantizationImpact {
+  const fs = design.sampleRateHz;
+  const freqs = [...freqGrid(fs, 4097, "linear"), ...responseGrid(design, 64)].sort((a, b) => a - b);
+  const ref = frequencyResponse(design, freqs).magnitudeDb;
+  const got = frequencyResponse(runnable(q), freqs).magnitudeDb;
+  const peak = Math.max(...ref);
+  const stopbandLimitDb = statedStopbandDb(spec) ?? CAUTION_LIMITS.stopbandDb;
+  let passbandDeviationDb = 0;
+  let stopbandLevelDb: number | null = null;
+  ref.forEach((r, i) => {
+    if (r >= peak - CAUTION_LIMITS.passbandDb) passbandDeviationDb = Math.max(passbandDeviationDb, Math.abs(got[i] - r));
+    else if (r <= peak - stopbandLimitDb) stopbandLevelDb = Math.max(stopbandLevelDb ?? -Infinity, got[i] - peak);
+  });
+  return { passbandDeviationDb, stopbandLimitDb, stopbandLevelDb };
+}
+
+function quantizationCaution(spec: FilterSpec, design: FilterDesign, format: QuantFormat): Caution | null {
   const name = format.toUpperCase();
   let q;
   try {
@@ -117,12 +166,19 @@ function quantizationCaution(design: FilterDesign, format: QuantFormat): Caution
       text: `Rounded to the device's ${name} format, a pole moves to radius ${withUnit(q.maxPoleRadius, "", 5)}: the filter that runs on the device is unstable.`,
     };
   }
-  if (q.maxDeviationDb <= CAUTION_LIMITS.quantizationDb) return null;
+  const impact = quantizationImpact(spec, design, q);
+  const passband = impact.passbandDeviationDb > CAUTION_LIMITS.quantizationDb;
+  const stopband = impact.stopbandLevelDb !== null && impact.stopbandLevelDb > -impact.stopbandLimitDb;
+  if (!passband && !stopband) return null;
+  const found = [
+    passband ? `the passband (within ${CAUTION_LIMITS.passbandDb} dB of the peak) moves by up to ${withUnit(impact.passbandDeviationDb, "dB")}, more than ${CAUTION_LIMITS.quantizationDb} dB` : null,
+    stopband ? `the stopband rises to ${withUnit(impact.stopbandLevelDb, "dB")}, above the ${withUnit(-impact.stopbandLimitDb, "dB")} it must stay below` : null,
+  ].filter((t): t is string => t !== null);
   return {
     kind: "quantization",
     level: "warning",
     title: `Response moves in ${name}`,
-    text: `Rounded to the device's ${name} format, the magnitude response moves by up to ${withUnit(q.maxDeviationDb, "dB")} (more than ${CAUTION_LIMITS.quantizationDb} dB): the device would not run the filter shown here.`,
+    text: `Rounded to the device's ${name} format, ${found.join(", and ")}: the device would not run the filter shown here. Changes deeper in the stopband are not counted.`,
   };
 }
 
@@ -161,7 +217,7 @@ export function cautionsFor(input: CautionInput): Caution[] {
   const settles = !onOrOutsideUnitCircle(maxPoleRadius);
   const found = [
     poleCaution(maxPoleRadius),
-    settles ? quantizationCaution(input.design, input.deviceFormat) : null,
+    settles ? quantizationCaution(input.spec, input.design, input.deviceFormat) : null,
     settles ? loopCaution(input.design, input.crossoverHz) : null,
     nyquistCaution(input.spec),
     notchCaution(input.spec),

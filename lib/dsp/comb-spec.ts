@@ -27,7 +27,7 @@ export const combSpecSchema = z
     const { fundamentalHz: f0, sampleRateHz: fs } = spec;
     const maxQ = NOTCH_LIMITS.maxBandwidthQ;
     if (!(spec.q > 1 && spec.q <= maxQ)) {
-      refuse(ctx, ["q"], `q must satisfy 1 < q ≤ ${maxQ} (got ${spec.q}); the −3 dB bandwidth f0/q must be narrower than the spacing f0 of the harmonics`);
+      refuse(ctx, ["q"], `Q must be above 1 and at most ${maxQ} (got ${spec.q}): the −3 dB bandwidth (fundamental / Q) must be narrower than the spacing of the harmonics`);
     }
     checkBelowNyquist(ctx, "fundamentalHz", f0, fs);
     if (!(f0 > 0 && f0 < fs / 2)) return;
@@ -39,13 +39,13 @@ export const combSpecSchema = z
       refuse(
         ctx,
         ["fundamentalHz"],
-        `sampleRateHz/fundamentalHz must be a whole number (the comb delays by that many samples), but ${fs}/${f0} = ${fs / f0}; the nearest fundamentals that divide ${fs} Hz are ${below} Hz and ${above} Hz`,
+        `The sample rate divided by the fundamental must be a whole number (the comb delays by that many samples), but ${fs}/${f0} = ${fs / f0}; the nearest fundamentals that divide ${fs} Hz are ${below} Hz and ${above} Hz`,
       );
     } else if (n > COMB_LIMITS.maxCombOrder) {
       refuse(
         ctx,
         ["fundamentalHz"],
-        `sampleRateHz/fundamentalHz = ${n} samples of delay; at most ${COMB_LIMITS.maxCombOrder} are allowed (fundamentalHz at least ${fs / COMB_LIMITS.maxCombOrder} Hz)`,
+        `The sample rate divided by the fundamental gives ${n} samples of delay; at most ${COMB_LIMITS.maxCombOrder} are allowed (a fundamental of at least ${fs / COMB_LIMITS.maxCombOrder} Hz)`,
       );
     }
   });

@@ -18,13 +18,13 @@ import type { FilterDesign } from "./types";
 
 /**
  * Designs any filter request. The spec is checked with filterSpecSchema first; an invalid spec
- * throws an Error listing each refused field path and the allowed range. A chain gives one design
+ * throws an Error listing each refusal in the editor's words with the allowed range (a chain's prefixed "stage N:"). A chain gives one design
  * whose `stages` are its running stages in order (bypassed stages left out).
  */
 export function designFilter(input: FilterSpec): FilterDesign {
   const parsed = filterSpecSchema.safeParse(input);
   if (!parsed.success) {
-    const lines = parsed.error.issues.map((i) => `${i.path.length > 0 ? i.path.join(".") : "(spec)"}: ${i.message}`);
+    const lines = parsed.error.issues.map((i) => (i.path[0] === "stages" && typeof i.path[1] === "number" ? `stage ${i.path[1] + 1}: ${i.message}` : i.message));
     throw new Error(`invalid filter spec:\n${lines.join("\n")}`);
   }
   const spec = parsed.data;

@@ -12,7 +12,7 @@ export const chainStageSchema = z.intersection(
         ? "a chain cannot hold another chain; add its stages to this chain instead"
         : `a stage needs a kind, one of: ${STAGE_KINDS}`,
   }),
-  z.object({ bypassed: z.boolean({ error: "bypassed must be true or false" }).optional() }),
+  z.object({ bypassed: z.boolean({ error: "Bypassed must be true or false" }).optional() }),
 );
 
 /**
@@ -22,8 +22,8 @@ export const chainStageSchema = z.intersection(
 export const chainSpecSchema = z
   .object({
     kind: z.literal("chain"),
-    sampleRateHz: z.number({ error: "sampleRateHz must be a finite number" }).positive({
-      error: "sampleRateHz must be a finite number > 0 Hz",
+    sampleRateHz: z.number({ error: "The sample rate must be a finite number" }).positive({
+      error: "The sample rate must be a finite number above 0 Hz",
     }),
     stages: z
       .array(chainStageSchema, { error: "stages must be a list of filter specs" })

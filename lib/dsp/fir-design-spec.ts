@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { firWindows, zeroEndedWindows } from "./fir/windows";
-import { checkInteger, finite, refuse, sampleRateHz } from "./spec-fields";
+import { checkInteger, finite, refuse, sampleRateHz, words } from "./spec-fields";
 
 /** Limits of the equiripple and arbitrary-magnitude FIR designs (product choices). */
 export const FIR_DESIGN_LIMITS = {
@@ -20,9 +20,9 @@ export const FIR_DESIGN_LIMITS = {
 
 const numberList = (what: string, max: number) =>
   z
-    .array(finite(`every ${what} value`), { error: `${what} must be a list of numbers` })
-    .min(1, { error: `${what} needs at least 1 value` })
-    .max(max, { error: `${what} holds at most ${max} values` });
+    .array(z.number({ error: `${words(what)}: every value must be a finite number` }), { error: `${words(what)} must be a list of numbers` })
+    .min(1, { error: `${words(what)} need at least 1 value` })
+    .max(max, { error: `${words(what)} may hold at most ${max} values` });
 
 /**
  * An equiripple FIR (Parks–McClellan, as scipy.signal.remez): band edges in Hz as pairs from 0 to
@@ -42,9 +42,9 @@ export const firEquirippleSpecSchema = z
     const { bandsHz: edges, desired } = spec;
     const nyquist = spec.sampleRateHz / 2;
     if (edges.length !== 2 * desired.length) {
-      refuse(ctx, ["bandsHz"], `bandsHz needs two edges [low, high] per band: ${desired.length} bands in desired, so ${2 * desired.length} edges (got ${edges.length})`);
+      refuse(ctx, ["bandsHz"], `The band edges need two values [low, high] per band: ${desired.length} desired gains, so ${2 * desired.length} edges (got ${edges.length})`);
     } else if (edges[0] !== 0 || edges[edges.length - 1] !== nyquist) {
-      refuse(ctx, ["bandsHz"], `bandsHz must start at 0 and end at sampleRateHz/2 = ${nyquist} Hz, so the response is pinned down at both ends (got ${edges[0]} … ${edges[edges.length - 1]} Hz)`);
+      refuse(ctx, ["bandsHz"], `The band edges must start at 0 Hz and end at half the sample rate (${nyquist} Hz), so the response is pinned down at both ends (got ${edges[0]} … ${edges[edges.length - 1]} Hz)`);
     } else {
       edges.forEach((f, i) => {
         if (i > 0 && !(f > edges[i - 1])) {
@@ -53,13 +53,13 @@ export const firEquirippleSpecSchema = z
       });
     }
     if (spec.weights !== undefined) {
-      if (spec.weights.length !== desired.length) refuse(ctx, ["weights"], `weights needs one value per band (${desired.length}; got ${spec.weights.length})`);
+      if (spec.weights.length !== desired.length) refuse(ctx, ["weights"], `Give one weight per band (${desired.length}; got ${spec.weights.length})`);
       spec.weights.forEach((w, i) => {
         if (!(w > 0)) refuse(ctx, ["weights", i], `every weight must be > 0 (got ${w})`);
       });
     }
     if (spec.taps % 2 === 0 && edges.length === 2 * desired.length && edges[edges.length - 1] === nyquist && desired[desired.length - 1] !== 0) {
-      refuse(ctx, ["taps"], "an even number of taps has zero gain at Nyquist: use an odd number of taps, or desire 0 in the last band");
+      refuse(ctx, ["taps"], "An even number of taps has zero gain at half the sample rate: use an odd number of taps, or desire 0 in the last band");
     }
   });
 
@@ -82,31 +82,31 @@ export const firArbitrarySpecSchema = z
     checkInteger(ctx, "taps", spec.taps, 1, limits.maxArbitraryTaps);
     const { freqsHz: f, gains } = spec;
     const nyquist = spec.sampleRateHz / 2;
-    if (gains.length !== f.length) refuse(ctx, ["gains"], `gains needs one value per frequency (${f.length}; got ${gains.length})`);
+    if (gains.length !== f.length) refuse(ctx, ["gains"], `Give one gain per frequency (${f.length}; got ${gains.length})`);
     if (f.length < 2 || f[0] !== 0 || f[f.length - 1] !== nyquist) {
-      refuse(ctx, ["freqsHz"], `freqsHz must start at 0 and end at sampleRateHz/2 = ${nyquist} Hz`);
+      refuse(ctx, ["freqsHz"], `The frequencies must start at 0 Hz and end at half the sample rate (${nyquist} Hz)`);
     } else {
       f.forEach((v, i) => {
-        if (i > 0 && v < f[i - 1]) refuse(ctx, ["freqsHz", i], `freqsHz must not decrease (${v} Hz after ${f[i - 1]} Hz)`);
+        if (i > 0 && v < f[i - 1]) refuse(ctx, ["freqsHz", i], `The frequencies must not decrease (${v} Hz after ${f[i - 1]} Hz)`);
         else if (i > 1 && v === f[i - 2]) refuse(ctx, ["freqsHz", i], `a frequency may appear at most twice, for a jump (${v} Hz)`);
       });
-      if (f[1] === 0 || f[f.length - 2] === nyquist) refuse(ctx, ["freqsHz"], "0 Hz and sampleRateHz/2 may appear only once");
+      if (f[1] === 0 || f[f.length - 2] === nyquist) refuse(ctx, ["freqsHz"], "0 Hz and half the sample rate may each appear only once");
     }
     gains.forEach((g, i) => {
       if (!(Math.abs(g) <= limits.maxArbitraryGain)) refuse(ctx, ["gains", i], `every gain must be within ±${limits.maxArbitraryGain} (got ${g})`);
     });
     if (spec.taps % 2 === 0 && gains.length > 0 && gains[gains.length - 1] !== 0) {
-      refuse(ctx, ["taps"], "an even number of taps has zero gain at Nyquist: use an odd number of taps, or make the last gain 0");
+      refuse(ctx, ["taps"], "An even number of taps has zero gain at half the sample rate: use an odd number of taps, or make the last gain 0");
     }
     if (zeroEndedWindows.includes(spec.window) && spec.taps === 2) {
-      refuse(ctx, ["taps"], `taps must be 1 or at least 3 for the ${spec.window} window (it is 0 at both ends)`);
+      refuse(ctx, ["taps"], `The number of taps must be 1 or at least 3 for the ${spec.window} window (it is 0 at both ends)`);
     }
     if (spec.window === "kaiser") {
       const beta = spec.kaiserBeta;
       if (beta === undefined || !(beta >= 0 && beta <= limits.maxArbitraryKaiserBeta)) {
-        refuse(ctx, ["kaiserBeta"], `the kaiser window needs kaiserBeta from 0 to ${limits.maxArbitraryKaiserBeta} (got ${beta})`);
+        refuse(ctx, ["kaiserBeta"], `The Kaiser window needs Kaiser β from 0 to ${limits.maxArbitraryKaiserBeta} (got ${beta})`);
       }
-    } else if (spec.kaiserBeta !== undefined) refuse(ctx, ["kaiserBeta"], "kaiserBeta is only used by the kaiser window");
+    } else if (spec.kaiserBeta !== undefined) refuse(ctx, ["kaiserBeta"], "Kaiser β is only used by the Kaiser window");
   });
 
 export type FirEquirippleSpec = z.infer<typeof firEquirippleSpecSchema>;

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { notchShapes } from "./notch";
-import { checkBelowNyquist, finite, refuse, sampleRateHz } from "./spec-fields";
+import { checkBelowNyquist, finite, halfRate, refuse, sampleRateHz } from "./spec-fields";
 
 /** Limits of the bandwidth-convention notch and comb (product choices). */
 export const NOTCH_LIMITS = {
@@ -23,12 +23,12 @@ export const notchSpecSchema = z
   .superRefine((spec, ctx) => {
     checkBelowNyquist(ctx, "centerHz", spec.centerHz, spec.sampleRateHz);
     const max = NOTCH_LIMITS.maxBandwidthQ;
-    if (!(spec.q > 0 && spec.q <= max)) refuse(ctx, ["q"], `q must satisfy 0 < q ≤ ${max} (got ${spec.q})`);
+    if (!(spec.q > 0 && spec.q <= max)) refuse(ctx, ["q"], `Q must be above 0 and at most ${max} (got ${spec.q})`);
     else if (spec.centerHz > 0 && spec.centerHz / spec.q >= spec.sampleRateHz / 2) {
       refuse(
         ctx,
         ["q"],
-        `the −3 dB bandwidth centerHz/q = ${spec.centerHz / spec.q} Hz must be below sampleRateHz/2 = ${spec.sampleRateHz / 2} Hz; raise q above ${(2 * spec.centerHz) / spec.sampleRateHz}`,
+        `The −3 dB bandwidth (centre frequency / Q = ${spec.centerHz / spec.q} Hz) must be below ${halfRate(spec.sampleRateHz)}; raise Q above ${(2 * spec.centerHz) / spec.sampleRateHz}`,
       );
     }
   });

@@ -8,7 +8,7 @@ import { COMB_LIMITS, combSpecSchema } from "./comb-spec";
 import { FIR_DESIGN_LIMITS, firArbitrarySpecSchema, firEquirippleSpecSchema } from "./fir-design-spec";
 import { checkCutoffs, iirSpecSchema } from "./iir/spec";
 import { NOTCH_LIMITS, notchSpecSchema } from "./notch-spec";
-import { checkBelowNyquist, checkInteger, coefficientList, finite, refuse, sampleRateHz } from "./spec-fields";
+import { checkBelowNyquist, checkInteger, coefficientList, finite, halfRate, refuse, sampleRateHz } from "./spec-fields";
 
 /**
  * Limits of the design requests (product choices; each refusal message states the allowed range).
@@ -50,17 +50,17 @@ export const biquadSpecSchema = z
   .superRefine((spec, ctx) => {
     checkBelowNyquist(ctx, "centerHz", spec.centerHz, spec.sampleRateHz);
     if (!(spec.q > 0 && spec.q <= SPEC_LIMITS.maxQ)) {
-      refuse(ctx, ["q"], `q must satisfy 0 < q ≤ ${SPEC_LIMITS.maxQ} (got ${spec.q})`);
+      refuse(ctx, ["q"], `Q must be above 0 and at most ${SPEC_LIMITS.maxQ} (got ${spec.q})`);
     }
     const max = SPEC_LIMITS.maxGainDb;
     if (gainShapes.includes(spec.shape)) {
       if (spec.gainDb === undefined) {
-        refuse(ctx, ["gainDb"], `gainDb is required for a ${spec.shape} biquad (−${max} to ${max} dB)`);
+        refuse(ctx, ["gainDb"], `The gain is required for a ${spec.shape} biquad (−${max} to ${max} dB)`);
       } else if (Math.abs(spec.gainDb) > max) {
-        refuse(ctx, ["gainDb"], `gainDb must be from −${max} to ${max} dB (got ${spec.gainDb})`);
+        refuse(ctx, ["gainDb"], `The gain must be from −${max} to ${max} dB (got ${spec.gainDb} dB)`);
       }
     } else if (spec.gainDb !== undefined) {
-      refuse(ctx, ["gainDb"], `gainDb is only used by ${gainShapes.join(", ")}; remove it for a ${spec.shape}`);
+      refuse(ctx, ["gainDb"], `A gain is only used by ${gainShapes.join(", ")}; remove it for a ${spec.shape}`);
     }
   });
 
@@ -71,8 +71,8 @@ export const firSpecSchema = z
     response: z.enum(firResponses),
     window: z.enum(firWindows),
     taps: finite("taps"),
-    cutoffHz: z.union([finite("cutoffHz"), z.tuple([finite("cutoffHz[0]"), finite("cutoffHz[1]")])], {
-      error: "cutoffHz must be a finite frequency in Hz, or a pair [low, high] of them for bandpass and bandstop",
+    cutoffHz: z.union([finite("cutoffHz"), z.tuple([finite("cutoffHz"), finite("cutoffHz")])], {
+      error: "The cutoff must be a frequency in Hz, or a pair [low, high] of them for bandpass and bandstop",
     }),
     kaiserBeta: finite("kaiserBeta").optional(),
     stopbandAttenuationDb: finite("stopbandAttenuationDb").optional(),
@@ -81,31 +81,31 @@ export const firSpecSchema = z
   .superRefine((spec, ctx) => {
     checkInteger(ctx, "taps", spec.taps, 1, SPEC_LIMITS.maxFirTaps);
     if (zeroEndedWindows.includes(spec.window) && spec.taps === 2) {
-      refuse(ctx, ["taps"], `taps must be 1 or at least 3 for the ${spec.window} window (it is 0 at both ends)`);
+      refuse(ctx, ["taps"], `The number of taps must be 1 or at least 3 for the ${spec.window} window (it is 0 at both ends)`);
     }
     if ((spec.response === "highpass" || spec.response === "bandstop") && spec.taps % 2 === 0) {
-      refuse(ctx, ["taps"], `taps must be odd for a ${spec.response} (an even-length linear-phase FIR has zero gain at Nyquist)`);
+      refuse(ctx, ["taps"], `The number of taps must be odd for a ${spec.response} (an even-length linear-phase FIR has zero gain at half the sample rate)`);
     }
     checkCutoffs(ctx, "cutoffHz", spec.cutoffHz, spec.response, spec.sampleRateHz);
     const { kaiserBeta: beta, stopbandAttenuationDb: atten } = spec;
     if (spec.window !== "kaiser") {
-      if (beta !== undefined) refuse(ctx, ["kaiserBeta"], "kaiserBeta is only used by the kaiser window");
+      if (beta !== undefined) refuse(ctx, ["kaiserBeta"], "Kaiser β is only used by the Kaiser window");
       if (atten !== undefined) {
-        refuse(ctx, ["stopbandAttenuationDb"], "stopbandAttenuationDb is only used by the kaiser window");
+        refuse(ctx, ["stopbandAttenuationDb"], "A stopband attenuation is only used by the Kaiser window");
       }
       return;
     }
     if ((beta === undefined) === (atten === undefined)) {
-      refuse(ctx, ["kaiserBeta"], "the kaiser window needs exactly one of kaiserBeta and stopbandAttenuationDb");
+      refuse(ctx, ["kaiserBeta"], "The Kaiser window needs exactly one of Kaiser β and the stopband attenuation");
     }
     if (beta !== undefined && !(beta >= 0 && beta <= SPEC_LIMITS.maxKaiserBeta)) {
-      refuse(ctx, ["kaiserBeta"], `kaiserBeta must be from 0 to ${SPEC_LIMITS.maxKaiserBeta} (got ${beta})`);
+      refuse(ctx, ["kaiserBeta"], `Kaiser β must be from 0 to ${SPEC_LIMITS.maxKaiserBeta} (got ${beta})`);
     }
     if (atten !== undefined && !(atten > 0 && atten <= SPEC_LIMITS.maxAttenuationDb)) {
       refuse(
         ctx,
         ["stopbandAttenuationDb"],
-        `stopbandAttenuationDb must satisfy 0 < A ≤ ${SPEC_LIMITS.maxAttenuationDb} dB (got ${atten})`,
+        `The stopband attenuation must be above 0 dB and at most ${SPEC_LIMITS.maxAttenuationDb} dB (got ${atten} dB)`,
       );
     }
   });
@@ -133,21 +133,21 @@ export const analogSpecSchema = z
   .superRefine((spec, ctx) => {
     const degree = (p: number[]) => p.length - 1 - p.findIndex((c) => c !== 0);
     const allZero = (p: number[]) => p.length > 0 && p.every((c) => c === 0);
-    if (allZero(spec.num)) refuse(ctx, ["num"], "num must have a nonzero coefficient");
-    if (allZero(spec.den)) refuse(ctx, ["den"], "den must have a nonzero coefficient");
+    if (allZero(spec.num)) refuse(ctx, ["num"], "The numerator b(s) needs a nonzero coefficient");
+    if (allZero(spec.den)) refuse(ctx, ["den"], "The denominator a(s) needs a nonzero coefficient");
     else if (spec.num.some((c) => c !== 0) && spec.den.length > 0 && degree(spec.num) > degree(spec.den)) {
       refuse(
         ctx,
         ["num"],
-        `H(s) must be proper: num has degree ${degree(spec.num)}, at most the degree of den (${degree(spec.den)})`,
+        `H(s) must be proper: the numerator has degree ${degree(spec.num)}, more than the denominator's ${degree(spec.den)}`,
       );
     }
     if (spec.method === "tustin-prewarp") {
       if (spec.prewarpHz === undefined) {
-        refuse(ctx, ["prewarpHz"], `prewarpHz is required for tustin-prewarp (0 < f < ${spec.sampleRateHz / 2} Hz)`);
+        refuse(ctx, ["prewarpHz"], `A prewarp frequency is required for Tustin with prewarping (above 0 Hz and below ${halfRate(spec.sampleRateHz)})`);
       } else checkBelowNyquist(ctx, "prewarpHz", spec.prewarpHz, spec.sampleRateHz);
     } else if (spec.prewarpHz !== undefined) {
-      refuse(ctx, ["prewarpHz"], "prewarpHz is only used by the tustin-prewarp method");
+      refuse(ctx, ["prewarpHz"], "A prewarp frequency is only used by Tustin with prewarping");
     }
   });
 
@@ -159,33 +159,33 @@ export const coefficientsSpecSchema = z
     a: coefficientList("a", SPEC_LIMITS.maxPastedDenominator).optional(),
     sos: z
       .array(
-        z.array(finite("every sos coefficient")).length(6, { error: "each sos row must have 6 numbers [b0, b1, b2, a0, a1, a2]" }),
-        { error: "sos must be a list of rows" },
+        z.array(z.number({ error: "every SOS coefficient must be a finite number" })).length(6, { error: "each SOS row must have 6 numbers [b0, b1, b2, a0, a1, a2]" }),
+        { error: "The SOS rows must be a list of rows" },
       )
-      .min(1, { error: "sos must have at least 1 row" })
-      .max(SPEC_LIMITS.maxSosRows, { error: `sos must have at most ${SPEC_LIMITS.maxSosRows} rows` })
+      .min(1, { error: "Give at least 1 SOS row" })
+      .max(SPEC_LIMITS.maxSosRows, { error: `At most ${SPEC_LIMITS.maxSosRows} SOS rows are allowed` })
       .optional(),
     sampleRateHz,
   })
   .superRefine((spec, ctx) => {
     if (spec.sos !== undefined) {
-      if (spec.b !== undefined) refuse(ctx, ["b"], "give either b (and a) or sos, not both");
-      if (spec.a !== undefined) refuse(ctx, ["a"], "give either b (and a) or sos, not both");
+      if (spec.b !== undefined) refuse(ctx, ["b"], "Give either b (and a) or SOS rows, not both");
+      if (spec.a !== undefined) refuse(ctx, ["a"], "Give either b (and a) or SOS rows, not both");
       spec.sos.forEach((row, i) => {
         if (row.length !== 6) return;
-        if (row[3] === 0) refuse(ctx, ["sos", i, 3], `sos row ${i} has a0 = 0; a0 must be nonzero`);
+        if (row[3] === 0) refuse(ctx, ["sos", i, 3], `SOS row ${i + 1} has a0 = 0; a0 must be nonzero`);
         if (row.slice(0, 3).every((c) => c === 0)) {
-          refuse(ctx, ["sos", i], `sos row ${i} has an all-zero numerator`);
+          refuse(ctx, ["sos", i], `SOS row ${i + 1} has an all-zero numerator`);
         }
       });
       return;
     }
     if (spec.b === undefined) {
-      refuse(ctx, ["b"], "b is required (with optional a) unless sos is given");
+      refuse(ctx, ["b"], "b (numerator) is required, with a (denominator) if any, unless SOS rows are given");
       return;
     }
-    if (spec.b.length > 0 && spec.b.every((c) => c === 0)) refuse(ctx, ["b"], "b must have a nonzero coefficient");
-    if (spec.a !== undefined && spec.a[0] === 0) refuse(ctx, ["a", 0], "a[0] must be nonzero (it is normalised to 1)");
+    if (spec.b.length > 0 && spec.b.every((c) => c === 0)) refuse(ctx, ["b"], "b (numerator) needs a nonzero coefficient");
+    if (spec.a !== undefined && spec.a[0] === 0) refuse(ctx, ["a", 0], "The first coefficient of a (denominator), a0, must be nonzero (it is normalised to 1)");
   });
 
 /** Every single-stage design request, told apart by `kind` (a chain's stages are these). */

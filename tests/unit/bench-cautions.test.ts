@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { CAUTION_LIMITS, cautionsFor, onOrOutsideUnitCircle, phaseLagDeg, REVIEW_LINE } from "@/lib/bench/cautions";
-import { designFilter, type FilterSpec } from "@/lib/dsp";
+import { CAUTION_LIMITS, cautionsFor, highestLevel, onOrOutsideUnitCircle, phaseLagDeg, quantizationImpact, REVIEW_LINE } from "@/lib/bench/cautions";
+import { defaultSpec } from "@/lib/bench/spec-defaults";
+import { designFilter, quantizeDesign, type FilterSpec } from "@/lib/dsp";
 
 const fs = 1000;
 const kinds = (spec: FilterSpec, deviceFormat: "f32" | "q15" | "q31" = "f32", crossoverHz: number | null = null) =>
@@ -71,5 +72,38 @@ describe("cautions", () => {
     // fs = 1 MHz the bilinear warping at 1 kHz is negligible.
     const design = designFilter({ kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 1000, sampleRateHz: 1e6 });
     expect(phaseLagDeg(design, 100)).toBeCloseTo(8.1, 1);
+  });
+
+  it("judge quantization in the passband and against the stopband limit, not deep in the stopband", () => {
+    // The default windowed-sinc FIR (Hamming, 101 taps): its stopband near −53 dB moves by more than 1 dB in Q15,
+    // yet stays far below the 40 dB limit, and its passband barely moves.
+    const fir = defaultSpec("fir", fs);
+    const design = designFilter(fir);
+    const q = quantizeDesign(design, "q15");
+    expect(q.maxDeviationDb).toBeGreaterThan(CAUTION_LIMITS.quantizationDb);
+    const impact = quantizationImpact(fir, design, q);
+    expect(impact.passbandDeviationDb).toBeLessThan(CAUTION_LIMITS.quantizationDb);
+    expect(impact.stopbandLimitDb).toBe(40);
+    expect(impact.stopbandLevelDb).toBeLessThan(-40);
+    expect(kinds(fir, "q15")).not.toContain("quantization");
+  });
+
+  it("keep a stated stopband attenuation as the limit, and name what moved", () => {
+    const kaiser: FilterSpec = { kind: "fir", response: "lowpass", window: "kaiser", stopbandAttenuationDb: 60, taps: 101, cutoffHz: 100, sampleRateHz: fs };
+    const design = designFilter(kaiser);
+    expect(quantizationImpact(kaiser, design, quantizeDesign(design, "q31")).stopbandLimitDb).toBe(60);
+    const slow: FilterSpec = { kind: "iir", family: "butterworth", response: "lowpass", order: 8, cutoffHz: 2, sampleRateHz: fs };
+    const found = cautionsFor({ spec: slow, design: designFilter(slow), deviceFormat: "q15" }).find((c) => c.kind === "quantization");
+    expect(found?.level).toBe("warning");
+    expect(found?.text).toContain("the passband (within 3 dB of the peak) moves by up to");
+  });
+
+  it("give a card's badge the loudest level among its cautions", () => {
+    expect(highestLevel([])).toBeNull();
+    expect(highestLevel([{ level: "note" }])).toBe("note");
+    expect(highestLevel([{ level: "note" }, { level: "warning" }])).toBe("warning");
+    expect(highestLevel([{ level: "warning" }, { level: "danger" }, { level: "note" }])).toBe("danger");
+    const slow: FilterSpec = { kind: "moving-average", length: 200, sampleRateHz: fs };
+    expect(highestLevel(cautionsFor({ spec: slow, design: designFilter(slow), deviceFormat: "q15" }))).toBe("note");
   });
 });

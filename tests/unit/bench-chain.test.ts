@@ -139,7 +139,7 @@ describe("refusals beside their stage", () => {
 
   it("give a single spec's lines to its one stage", () => {
     const bad = notch(600);
-    expect(chainIssues(bad, tryDesign(bad).error).byStage.get(0)).toEqual(["centerHz must satisfy 0 < f < sampleRateHz/2 = 500 Hz (got 600)"]);
+    expect(chainIssues(bad, tryDesign(bad).error).byStage.get(0)).toEqual(["The centre frequency must be above 0 Hz and below half the sample rate (500 Hz) (got 600 Hz)"]);
   });
 });
 

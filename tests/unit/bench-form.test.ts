@@ -35,53 +35,53 @@ describe("candidate editor validation (filterSpecSchema through zodResolver)", (
   });
 
   it("puts a cutoff at or above Nyquist beside the cutoff field, with the allowed range", async () => {
-    expect(await messageFor(filterSpecSchema, { ...iir, cutoffHz: 600 }, "cutoffHz")).toBe("cutoffHz must satisfy 0 < f < sampleRateHz/2 = 500 Hz (got 600)");
+    expect(await messageFor(filterSpecSchema, { ...iir, cutoffHz: 600 }, "cutoffHz")).toBe("The cutoff must be above 0 Hz and below half the sample rate (500 Hz) (got 600 Hz)");
   });
 
   it("puts an empty order (NaN from the input) beside the order field", async () => {
-    expect(await messageFor(filterSpecSchema, { ...iir, order: NaN }, "order")).toBe("order must be a finite number");
+    expect(await messageFor(filterSpecSchema, { ...iir, order: NaN }, "order")).toBe("The order must be a finite number");
   });
 
   it("refuses an order above the response's maximum", async () => {
     expect(await messageFor(filterSpecSchema, { ...iir, response: "bandpass", order: 9, cutoffHz: [40, 80] }, "order")).toBe(
-      `order must be an integer from 1 to ${MAX_ORDER.bandpass} for a bandpass (got 9)`,
+      `The order must be a whole number from 1 to ${MAX_ORDER.bandpass} for a bandpass (got 9)`,
     );
   });
 
   it("refuses a band whose low edge is not below the high edge, beside the cutoff pair", async () => {
-    expect(await messageFor(filterSpecSchema, { ...iir, response: "bandstop", cutoffHz: [80, 40] }, "cutoffHz")).toMatch(/strictly increasing/);
+    expect(await messageFor(filterSpecSchema, { ...iir, response: "bandstop", cutoffHz: [80, 40] }, "cutoffHz")).toMatch(/low edge must be below the high edge/);
   });
 
   it("asks for the passband ripple of an elliptic design", async () => {
     const values = { ...iir, family: "elliptic", stopbandAttenuationDb: 40 };
-    expect(await messageFor(filterSpecSchema, values, "passbandRippleDb")).toBe("passbandRippleDb is required for elliptic and must be > 0 dB");
+    expect(await messageFor(filterSpecSchema, values, "passbandRippleDb")).toBe("The passband ripple is required for elliptic and must be above 0 dB");
   });
 
   it("refuses Q = 0 for a biquad and asks for gain on a peaking biquad", async () => {
     const notch = { kind: "biquad", shape: "notch", centerHz: 50, q: 0, sampleRateHz: 1000 };
-    expect(await messageFor(filterSpecSchema, notch, "q")).toBe("q must satisfy 0 < q ≤ 1000 (got 0)");
+    expect(await messageFor(filterSpecSchema, notch, "q")).toBe("Q must be above 0 and at most 1000 (got 0)");
     const peak = { kind: "biquad", shape: "peaking", centerHz: 50, q: 2, sampleRateHz: 1000 };
-    expect(await messageFor(filterSpecSchema, peak, "gainDb")).toBe("gainDb is required for a peaking biquad (−60 to 60 dB)");
+    expect(await messageFor(filterSpecSchema, peak, "gainDb")).toBe("The gain is required for a peaking biquad (−60 to 60 dB)");
   });
 
   it("refuses an even-length highpass FIR beside the taps field", async () => {
     const fir = { kind: "fir", response: "highpass", window: "hamming", taps: 100, cutoffHz: 100, sampleRateHz: 1000 };
-    expect(await messageFor(filterSpecSchema, fir, "taps")).toMatch(/^taps must be odd for a highpass/);
+    expect(await messageFor(filterSpecSchema, fir, "taps")).toMatch(/^The number of taps must be odd for a highpass/);
   });
 
   it("refuses an improper analog H(s) beside the numerator", async () => {
     const analog = { kind: "analog", num: [1, 0, 0], den: [1, 1], method: "tustin", sampleRateHz: 1000 };
-    expect(await messageFor(filterSpecSchema, analog, "num")).toBe("H(s) must be proper: num has degree 2, at most the degree of den (1)");
+    expect(await messageFor(filterSpecSchema, analog, "num")).toBe("H(s) must be proper: the numerator has degree 2, more than the denominator's 1");
   });
 
   it("asks for the prewarp frequency of tustin-prewarp", async () => {
     const analog = { kind: "analog", num: [1], den: [1, 1], method: "tustin-prewarp", sampleRateHz: 1000 };
-    expect(await messageFor(filterSpecSchema, analog, "prewarpHz")).toBe("prewarpHz is required for tustin-prewarp (0 < f < 500 Hz)");
+    expect(await messageFor(filterSpecSchema, analog, "prewarpHz")).toBe("A prewarp frequency is required for Tustin with prewarping (above 0 Hz and below half the sample rate (500 Hz))");
   });
 
   it("refuses pasted coefficients with a[0] = 0 beside a", async () => {
     const pasted = { kind: "coefficients", b: [1, 2], a: [0, 1], sampleRateHz: 1000 };
-    expect(await messageFor(filterSpecSchema, pasted, "a.0")).toBe("a[0] must be nonzero (it is normalised to 1)");
+    expect(await messageFor(filterSpecSchema, pasted, "a.0")).toBe("The first coefficient of a (denominator), a0, must be nonzero (it is normalised to 1)");
   });
 
   it("has no errors for a valid spec", async () => {
@@ -94,7 +94,7 @@ describe("candidate editor validation (filterSpecSchema through zodResolver)", (
 describe("requirement mode (orderRequirementSchema + estimateOrder)", () => {
   it("puts edges in the wrong order beside the stop edge", async () => {
     const req = { ...defaultRequirement(1000), passbandHz: 200, stopbandHz: 100 };
-    expect(await messageFor(orderRequirementSchema, req, "stopbandHz")).toBe("a lowpass needs passbandHz < stopbandHz");
+    expect(await messageFor(orderRequirementSchema, req, "stopbandHz")).toBe("a lowpass needs the passband edge below the stopband edge");
   });
 
   it("turns the default requirement into a valid IIR spec at the estimated order", () => {

@@ -10,3 +10,4 @@ export { DC_BLOCKED_DB, MAX_STEP_SAMPLES, stepMetrics, type StepMetrics } from "
 export { impulseResponse, stepResponse } from "./time-response";
 export { MAGNITUDE_FLOOR_DB, toMs } from "./units";
 export { periodicHann, welch, type WelchOptions, type WelchResult } from "./welch";
+export { responseGrid, RESPONSE_GRID_LIMITS } from "./response-grid";

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { finite, halfRate, sampleRateHz } from "../spec-fields";
 import { kaiserBeta } from "./windows";
 
 /** Smallest ripple/attenuation in dB for which Kaiser's formulas hold (scipy.signal.kaiserord refuses below it). */
@@ -7,16 +8,16 @@ export const MIN_KAISER_RIPPLE_DB = 8;
 /** What a Kaiser-window FIR must do: the ripple (or stopband attenuation) in dB and the transition width in Hz. */
 export const firOrderRequirementSchema = z
   .object({
-    rippleDb: z.number({ error: "rippleDb must be a finite number" }),
-    widthHz: z.number({ error: "widthHz must be a finite number" }),
-    sampleRateHz: z.number({ error: "sampleRateHz must be a finite number" }).positive({ error: "sampleRateHz must be > 0 Hz" }),
+    rippleDb: finite("rippleDb"),
+    widthHz: finite("widthHz"),
+    sampleRateHz,
   })
   .superRefine((r, ctx) => {
     if (!(r.rippleDb >= MIN_KAISER_RIPPLE_DB && r.rippleDb <= 300)) {
-      ctx.addIssue({ code: "custom", path: ["rippleDb"], message: `rippleDb must be from ${MIN_KAISER_RIPPLE_DB} to 300 dB (Kaiser's formulas need at least ${MIN_KAISER_RIPPLE_DB}; got ${r.rippleDb})` });
+      ctx.addIssue({ code: "custom", path: ["rippleDb"], message: `The ripple must be from ${MIN_KAISER_RIPPLE_DB} to 300 dB (Kaiser's formulas need at least ${MIN_KAISER_RIPPLE_DB} dB; got ${r.rippleDb} dB)` });
     }
     if (!(r.widthHz > 0 && r.widthHz <= r.sampleRateHz / 2)) {
-      ctx.addIssue({ code: "custom", path: ["widthHz"], message: `widthHz must satisfy 0 < width ≤ sampleRateHz/2 = ${r.sampleRateHz / 2} Hz (got ${r.widthHz})` });
+      ctx.addIssue({ code: "custom", path: ["widthHz"], message: `The transition width must be above 0 Hz and at most ${halfRate(r.sampleRateHz)} (got ${r.widthHz} Hz)` });
     }
   });
 

@@ -3,6 +3,7 @@ import { cAbs, cSub } from "../complex";
 import { ellipK, ellipKm1 } from "./elliptic-functions";
 import { fminbound } from "./fminbound";
 import { besselap } from "./prototypes/bessel";
+import { sampleRateHz } from "../spec-fields";
 import { checkCutoffs, finite, frequencyOrPair, IIR_FAMILIES, IIR_RESPONSES, isBand, MAX_ORDER, type IirResponse } from "./spec";
 
 
@@ -16,10 +17,10 @@ function edgesInOrder(response: IirResponse, pass: number | [number, number], st
 }
 
 const EDGE_RULE: Record<IirResponse, string> = {
-  lowpass: "passbandHz < stopbandHz",
-  highpass: "stopbandHz < passbandHz",
-  bandpass: "stopbandHz[0] < passbandHz[0] < passbandHz[1] < stopbandHz[1]",
-  bandstop: "passbandHz[0] < stopbandHz[0] < stopbandHz[1] < passbandHz[1]",
+  lowpass: "the passband edge below the stopband edge",
+  highpass: "the stopband edge below the passband edge",
+  bandpass: "the passband inside the stopband edges (low stopband < low passband < high passband < high stopband)",
+  bandstop: "the stopband inside the passband edges (low passband < low stopband < high stopband < high passband)",
 };
 
 /** What the filter must do, in Hz and dB (the inputs of scipy.signal buttord/cheb1ord/cheb2ord/ellipord with fs). */
@@ -29,9 +30,9 @@ export const orderRequirementSchema = z
     response: z.enum(IIR_RESPONSES),
     passbandHz: frequencyOrPair("passbandHz"),
     stopbandHz: frequencyOrPair("stopbandHz"),
-    passbandRippleDb: finite("passbandRippleDb").positive({ error: "passbandRippleDb must be > 0 dB" }),
-    stopbandAttenuationDb: finite("stopbandAttenuationDb").positive({ error: "stopbandAttenuationDb must be > 0 dB" }),
-    sampleRateHz: finite("sampleRateHz").positive({ error: "sampleRateHz must be a finite number > 0" }),
+    passbandRippleDb: finite("passbandRippleDb").positive({ error: "The passband ripple must be above 0 dB" }),
+    stopbandAttenuationDb: finite("stopbandAttenuationDb").positive({ error: "The stopband attenuation must be above 0 dB" }),
+    sampleRateHz,
   })
   .superRefine((req, ctx) => {
     checkCutoffs(ctx, "passbandHz", req.passbandHz, req.response, req.sampleRateHz);
@@ -40,7 +41,7 @@ export const orderRequirementSchema = z
       ctx.addIssue({ code: "custom", path: ["stopbandHz"], message: `a ${req.response} needs ${EDGE_RULE[req.response]}` });
     }
     if (!(req.stopbandAttenuationDb > req.passbandRippleDb)) {
-      ctx.addIssue({ code: "custom", path: ["stopbandAttenuationDb"], message: `stopbandAttenuationDb must be greater than passbandRippleDb (${req.passbandRippleDb} dB)` });
+      ctx.addIssue({ code: "custom", path: ["stopbandAttenuationDb"], message: `The stopband attenuation must be greater than the passband ripple (${req.passbandRippleDb} dB)` });
     }
   });
 

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { finite, halfRate, sampleRateHz, words } from "../spec-fields";
 
 export const IIR_FAMILIES = ["butterworth", "chebyshev1", "chebyshev2", "elliptic", "bessel"] as const;
 export const IIR_RESPONSES = ["lowpass", "highpass", "bandpass", "bandstop"] as const;
@@ -10,12 +11,12 @@ export const MAX_ORDER: Record<IirResponse, number> = { lowpass: 12, highpass: 1
 
 export const isBand = (response: IirResponse): boolean => response === "bandpass" || response === "bandstop";
 
-export const finite = (what: string) => z.number({ error: `${what} must be a finite number` });
+export { finite };
 
 /** One frequency or a pair, each a finite number (Hz). */
 export const frequencyOrPair = (what: string) =>
-  z.union([finite(what), z.tuple([finite(`${what}[0]`), finite(`${what}[1]`)])], {
-    error: `${what} must be a finite number (Hz) or a pair of finite numbers [low, high]`,
+  z.union([finite(what), z.tuple([finite(what), finite(what)])], {
+    error: `${words(what)} must be a finite number (Hz), or a pair [low, high] of them`,
   });
 
 /** Cutoffs in Hz: one number for low/high-pass, a strictly increasing pair for band-pass/band-stop. */
@@ -28,24 +29,25 @@ export function checkCutoffs(
 ): void {
   const nyquist = sampleRateHz / 2;
   const inRange = (f: number) => f > 0 && f < nyquist;
-  const range = `0 < f < sampleRateHz/2 = ${nyquist} Hz`;
+  const range = `above 0 Hz and below ${halfRate(sampleRateHz)}`;
+  const name = words(path);
   if (!isBand(response)) {
     if (typeof cutoffHz !== "number") {
-      ctx.addIssue({ code: "custom", path: [path], message: `${path} must be a single frequency for a ${response} (${range})` });
+      ctx.addIssue({ code: "custom", path: [path], message: `${name} must be a single frequency for a ${response} (${range})` });
     } else if (!inRange(cutoffHz)) {
-      ctx.addIssue({ code: "custom", path: [path], message: `${path} must satisfy ${range} (got ${cutoffHz})` });
+      ctx.addIssue({ code: "custom", path: [path], message: `${name} must be ${range} (got ${cutoffHz} Hz)` });
     }
     return;
   }
   if (typeof cutoffHz === "number") {
-    ctx.addIssue({ code: "custom", path: [path], message: `${path} must be a pair [low, high] for a ${response}, each ${range}` });
+    ctx.addIssue({ code: "custom", path: [path], message: `${name} must be a pair [low, high] for a ${response}, each ${range}` });
     return;
   }
   cutoffHz.forEach((f, i) => {
-    if (!inRange(f)) ctx.addIssue({ code: "custom", path: [path, i], message: `${path}[${i}] must satisfy ${range} (got ${f})` });
+    if (!inRange(f)) ctx.addIssue({ code: "custom", path: [path, i], message: `${i === 0 ? "The low edge" : "The high edge"} must be ${range} (got ${f} Hz)` });
   });
   if (!(cutoffHz[0] < cutoffHz[1])) {
-    ctx.addIssue({ code: "custom", path: [path], message: `${path} must be strictly increasing: low < high (got [${cutoffHz[0]}, ${cutoffHz[1]}])` });
+    ctx.addIssue({ code: "custom", path: [path], message: `The low edge must be below the high edge (got ${cutoffHz[0]} Hz and ${cutoffHz[1]} Hz)` });
   }
 }
 
@@ -53,7 +55,7 @@ export function checkCutoffs(
 export function checkOrder(ctx: z.RefinementCtx, order: number, response: IirResponse): void {
   const max = MAX_ORDER[response];
   if (!(Number.isInteger(order) && order >= 1 && order <= max)) {
-    ctx.addIssue({ code: "custom", path: ["order"], message: `order must be an integer from 1 to ${max} for a ${response} (got ${order})` });
+    ctx.addIssue({ code: "custom", path: ["order"], message: `The order must be a whole number from 1 to ${max} for a ${response} (got ${order})` });
   }
 }
 
@@ -68,7 +70,7 @@ export const iirSpecSchema = z
     response: z.enum(IIR_RESPONSES),
     order: finite("order"),
     cutoffHz: frequencyOrPair("cutoffHz"),
-    sampleRateHz: finite("sampleRateHz").positive({ error: "sampleRateHz must be a finite number > 0" }),
+    sampleRateHz,
     passbandRippleDb: finite("passbandRippleDb").optional(),
     stopbandAttenuationDb: finite("stopbandAttenuationDb").optional(),
     besselNorm: z.enum(["phase", "delay", "mag"]).optional(),
@@ -80,13 +82,13 @@ export const iirSpecSchema = z
     const needsAttenuation = spec.family === "chebyshev2" || spec.family === "elliptic";
     const { passbandRippleDb: rp, stopbandAttenuationDb: rs } = spec;
     if (needsRipple && !(rp !== undefined && rp > 0)) {
-      ctx.addIssue({ code: "custom", path: ["passbandRippleDb"], message: `passbandRippleDb is required for ${spec.family} and must be > 0 dB` });
+      ctx.addIssue({ code: "custom", path: ["passbandRippleDb"], message: `The passband ripple is required for ${spec.family} and must be above 0 dB` });
     }
     if (needsAttenuation && !(rs !== undefined && rs > 0)) {
-      ctx.addIssue({ code: "custom", path: ["stopbandAttenuationDb"], message: `stopbandAttenuationDb is required for ${spec.family} and must be > 0 dB` });
+      ctx.addIssue({ code: "custom", path: ["stopbandAttenuationDb"], message: `The stopband attenuation is required for ${spec.family} and must be above 0 dB` });
     }
     if (spec.family === "elliptic" && rp !== undefined && rs !== undefined && rp > 0 && rs > 0 && !(rs > rp)) {
-      ctx.addIssue({ code: "custom", path: ["stopbandAttenuationDb"], message: `stopbandAttenuationDb must be greater than passbandRippleDb (${rp} dB) for elliptic` });
+      ctx.addIssue({ code: "custom", path: ["stopbandAttenuationDb"], message: `The stopband attenuation must be greater than the passband ripple (${rp} dB) for elliptic` });
     }
   });
 

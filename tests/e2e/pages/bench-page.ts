@@ -150,4 +150,45 @@ export class BenchPage {
     await save.getByRole("button", { name: "Save as a new set" }).click();
     return save;
   }
+
+  /** The live traces' controls: time window and pause. */
+  async setWindow(seconds: number): Promise<void> {
+    await this.page.getByLabel("Time window").selectOption(String(seconds));
+  }
+
+  async pause(): Promise<void> {
+    await this.page.getByRole("region", { name: "Live traces" }).getByRole("button", { name: "Pause" }).click();
+  }
+
+  /** Drags across a chart's plot area from one fraction of its width to another (a drag-zoom). */
+  async dragZoom(chart: Locator, fromFraction: number, toFraction: number): Promise<void> {
+    const box = await chart.locator(".u-over").boundingBox();
+    if (!box) throw new Error("the chart has no plot area");
+    const y = box.y + box.height / 2;
+    await this.page.mouse.move(box.x + box.width * fromFraction, y);
+    await this.page.mouse.down();
+    await this.page.mouse.move(box.x + box.width * ((fromFraction + toFraction) / 2), y, { steps: 4 });
+    await this.page.mouse.move(box.x + box.width * toFraction, y, { steps: 4 });
+    await this.page.mouse.up();
+  }
+
+  /**
+   * Opaque bright pixels of a chart's plot area (the drawn traces; the grid is translucent): 0 means the plot is blank.
+   * Read from the canvas inside the plot area only, so axis labels do not count.
+   */
+  async plottedPixels(chart: Locator): Promise<number> {
+    return chart.evaluate((host) => {
+      const canvas = host.querySelector("canvas");
+      const over = host.querySelector(".u-over");
+      const ctx = canvas?.getContext("2d");
+      if (!canvas || !over || !ctx) return 0;
+      const c = canvas.getBoundingClientRect();
+      const o = over.getBoundingClientRect();
+      const k = canvas.width / c.width;
+      const img = ctx.getImageData(Math.round((o.left - c.left) * k), Math.round((o.top - c.top) * k), Math.round(o.width * k), Math.round(o.height * k));
+      let bright = 0;
+      for (let i = 0; i < img.data.length; i += 4) if (Math.max(img.data[i], img.data[i + 1], img.data[i + 2]) > 110 && img.data[i + 3] > 160) bright++;
+      return bright;
+    });
+  }
 }

@@ -38,8 +38,8 @@ function expectZpkMatchesRunForm(d: FilterDesign): void {
 describe("designFilter", () => {
   it("throws a clear Error listing each refused field for an unvalidated spec", () => {
     const bad = unchecked<FilterSpec>({ kind: "biquad", shape: "notch", centerHz: 700, q: -1, sampleRateHz: 1000 });
-    expect(() => designFilter(bad)).toThrow(/invalid filter spec:\ncenterHz: centerHz must satisfy 0 < f < sampleRateHz\/2 = 500 Hz.*\nq: q must satisfy/s);
-    expect(() => designFilter(unchecked<FilterSpec>({ kind: "nope" }))).toThrow(/kind: Invalid discriminator value/);
+    expect(() => designFilter(bad)).toThrow(/invalid filter spec:\nThe centre frequency must be above 0 Hz and below half the sample rate \(500 Hz\).*\nQ must be above 0/s);
+    expect(() => designFilter(unchecked<FilterSpec>({ kind: "nope" }))).toThrow(/invalid filter spec:\nInvalid discriminator value/);
   });
 
   it("designs each kind with the matching run form", () => {

@@ -36,12 +36,12 @@ describe(`equiripple FIR against scipy ${remezFixture.scipyVersion} remez (${rem
       return r.success ? "" : r.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("\n");
     };
     expect(issues(base)).toBe("");
-    expect(issues({ ...base, bandsHz: [10, 100, 150, 500] })).toMatch(/bandsHz: bandsHz must start at 0 and end at sampleRateHz\/2 = 500 Hz/);
+    expect(issues({ ...base, bandsHz: [10, 100, 150, 500] })).toMatch(/bandsHz: The band edges must start at 0 Hz and end at half the sample rate \(500 Hz\)/);
     expect(issues({ ...base, bandsHz: [0, 150, 150, 500] })).toMatch(/bandsHz.2: band edges must increase strictly/);
-    expect(issues({ ...base, desired: [1, 0, 1] })).toMatch(/two edges \[low, high\] per band: 3 bands in desired, so 6 edges \(got 4\)/);
+    expect(issues({ ...base, desired: [1, 0, 1] })).toMatch(/two values \[low, high\] per band: 3 desired gains, so 6 edges \(got 4\)/);
     expect(issues({ ...base, weights: [1, 0] })).toMatch(/weights.1: every weight must be > 0/);
-    expect(issues({ ...base, taps: 32, desired: [0, 1] })).toMatch(/taps: an even number of taps has zero gain at Nyquist/);
-    expect(issues({ ...base, taps: 512 })).toMatch(/taps must be an integer from 3 to 511/);
+    expect(issues({ ...base, taps: 32, desired: [0, 1] })).toMatch(/taps: An even number of taps has zero gain at half the sample rate/);
+    expect(issues({ ...base, taps: 512 })).toMatch(/The number of taps must be a whole number from 3 to 511/);
   });
 });
 
@@ -124,7 +124,7 @@ describe(`arbitrary-magnitude FIR against scipy ${firwin2Fixture.scipyVersion} f
     expect(() => arbitraryFirTaps({ ...base, freqsHz: [0, 100, 100, 100, 500], gains: [1, 1, 0, 0, 0] })).toThrow(/more than twice/);
     expect(() => arbitraryFirTaps({ ...base, freqsHz: [0, 100, 200, 400] })).toThrow(/end at 500 Hz/);
     const parsed = filterSpecSchema.safeParse({ kind: "fir-arbitrary", ...base, window: "kaiser" });
-    expect(parsed.error?.issues[0].message).toMatch(/kaiser window needs kaiserBeta from 0 to 100/);
+    expect(parsed.error?.issues[0].message).toMatch(/Kaiser window needs Kaiser β from 0 to 100/);
   });
 });
 
@@ -136,6 +136,6 @@ describe(`Kaiser order estimate against scipy ${kaiserordFixture.scipyVersion} k
   });
 
   it("refuses a ripple below 8 dB, where Kaiser's formula does not hold (as kaiserord does)", () => {
-    expect(() => estimateFirOrder({ rippleDb: 6, widthHz: 10, sampleRateHz: 1000 })).toThrow(/rippleDb must be from 8 to 300 dB/);
+    expect(() => estimateFirOrder({ rippleDb: 6, widthHz: 10, sampleRateHz: 1000 })).toThrow(/The ripple must be from 8 to 300 dB/);
   });
 });

@@ -78,13 +78,13 @@ describe("refusals", () => {
   const issues = (r: unknown) => orderRequirementSchema.safeParse(r).error?.issues ?? [];
 
   it.each([
-    ["lowpass with the stop edge below the pass edge", { stopbandHz: 50 }, "stopbandHz", "passbandHz < stopbandHz"],
-    ["highpass with the stop edge above the pass edge", { response: "highpass" }, "stopbandHz", "stopbandHz < passbandHz"],
-    ["bandpass with the stopband inside the passband", { response: "bandpass", passbandHz: [100, 300], stopbandHz: [150, 250] }, "stopbandHz", "stopbandHz[0] < passbandHz[0]"],
-    ["bandstop with the passband inside the stopband", { response: "bandstop", passbandHz: [150, 250], stopbandHz: [100, 300] }, "stopbandHz", "passbandHz[0] < stopbandHz[0]"],
-    ["an edge at Nyquist", { stopbandHz: 500 }, "stopbandHz", "0 < f < sampleRateHz/2 = 500 Hz"],
-    ["attenuation not above ripple", { stopbandAttenuationDb: 1 }, "stopbandAttenuationDb", "greater than passbandRippleDb"],
-    ["ripple 0", { passbandRippleDb: 0 }, "passbandRippleDb", "> 0 dB"],
+    ["lowpass with the stop edge below the pass edge", { stopbandHz: 50 }, "stopbandHz", "the passband edge below the stopband edge"],
+    ["highpass with the stop edge above the pass edge", { response: "highpass" }, "stopbandHz", "the stopband edge below the passband edge"],
+    ["bandpass with the stopband inside the passband", { response: "bandpass", passbandHz: [100, 300], stopbandHz: [150, 250] }, "stopbandHz", "low stopband < low passband"],
+    ["bandstop with the passband inside the stopband", { response: "bandstop", passbandHz: [150, 250], stopbandHz: [100, 300] }, "stopbandHz", "low passband < low stopband"],
+    ["an edge at Nyquist", { stopbandHz: 500 }, "stopbandHz", "above 0 Hz and below half the sample rate (500 Hz)"],
+    ["attenuation not above ripple", { stopbandAttenuationDb: 1 }, "stopbandAttenuationDb", "greater than the passband ripple"],
+    ["ripple 0", { passbandRippleDb: 0 }, "passbandRippleDb", "above 0 dB"],
     ["NaN sample rate", { sampleRateHz: NaN }, "sampleRateHz", "finite number"],
   ] as const)("refuses %s", (_name, over, path, message) => {
     const found = issues({ ...base, ...over });

@@ -54,7 +54,7 @@ describe(`notch and peak in the bandwidth convention against scipy ${fixture.sci
   it("refuses a bandwidth that reaches Nyquist and a q out of range, naming the fix", () => {
     const bad = filterSpecSchema.safeParse({ kind: "notch", shape: "notch", centerHz: 200, q: 0.3, sampleRateHz: 1000 });
     expect(bad.success).toBe(false);
-    expect(bad.error?.issues[0].message).toMatch(/bandwidth centerHz\/q = 666\.6+\d* Hz must be below sampleRateHz\/2 = 500 Hz; raise q above 0\.4/);
+    expect(bad.error?.issues[0].message).toMatch(/bandwidth \(centre frequency \/ Q = 666\.6+\d* Hz\) must be below half the sample rate \(500 Hz\); raise Q above 0\.4/);
     expect(filterSpecSchema.safeParse({ kind: "notch", shape: "peak", centerHz: 50, q: 0, sampleRateHz: 1000 }).success).toBe(false);
     expect(filterSpecSchema.safeParse({ kind: "notch", shape: "peak", centerHz: 50, q: 1001, sampleRateHz: 1000 }).success).toBe(false);
   });
