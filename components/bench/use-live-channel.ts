@@ -3,7 +3,7 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import { reconnectDelayMs } from "@/lib/bench/backoff";
 import { HISTORY_SECONDS, LiveStore } from "@/lib/bench/live-store";
-import { parseServerMessage, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
+import { decodeFrame, parseServerMessage, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
 
 export type LinkState = "connecting" | "live" | "reconnecting" | "signed-out";
 
@@ -100,7 +100,13 @@ export function useLiveChannel(opts: Options): LiveChannel {
         send({ type: "window", channel: opts.path, seconds: HISTORY_SECONDS, maxPoints: 1_000_000 });
         onOpenRef.current(send);
       };
+      ws.binaryType = "arraybuffer";
       ws.onmessage = (ev) => {
+        if (ev.data instanceof ArrayBuffer) {
+          const decoded = decodeFrame(new Uint8Array(ev.data));
+          if (decoded.ok) handle(decoded.frame);
+          return;
+        }
         const message = typeof ev.data === "string" ? parseServerMessage(ev.data) : null;
         if (message) handle(message);
       };

@@ -20,7 +20,7 @@ import { createSession } from "@/db/queries/sessions";
 import { hashPassword } from "@/lib/auth/password";
 import { designFilter } from "@/lib/dsp";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
-import { encodeBinarySamples, samplesTopic, type ServerMessage } from "@/lib/protocol";
+import { decodeFrame, encodeBinarySamples, samplesTopic, type ServerMessage } from "@/lib/protocol";
 import { migrateToLatest } from "@/migrations/migrator";
 import { startSidecar } from "@/server/sidecar";
 import { systemClock } from "@/server/clock";
@@ -78,8 +78,9 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
   /** Sequence numbers published inside the measured window. */
   const window = { first: Infinity, last: Infinity };
   let barrier: (() => void) | undefined;
-  ws.on("message", (data) => {
-    const m = JSON.parse(data.toString()) as ServerMessage;
+  ws.on("message", (data, isBinary) => {
+    const decoded = isBinary ? decodeFrame(new Uint8Array(data as Buffer)) : null;
+    const m = decoded?.ok ? decoded.frame : (JSON.parse(data.toString()) as ServerMessage);
     if (m.type === "frame") {
       const t = sentAt.get(`${m.channel}#${m.seq}`);
       if (m.seq >= window.first && m.seq <= window.last && t !== undefined) {
