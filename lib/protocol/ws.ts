@@ -61,6 +61,8 @@ export const serverMessageSchema = z.discriminatedUnion("type", [
     })
     .strict(),
   z.object({ type: z.literal("error"), code: z.enum(WS_ERROR_CODES), message: z.string() }).strict(),
+  /** The channel is now filtered by another sidecar: ask the web app where (GET /api/live/owners) and connect there. */
+  z.object({ type: z.literal("moved"), channel: channelPathSchema }).strict(),
   z
     .object({
       type: z.literal("status"),

@@ -87,6 +87,8 @@ export interface Hub {
   /** Sends metrics for the channels in one slice (channel index mod slices); no arguments: all of them. */
   metricsTick(slice?: number, slices?: number): void;
   statusTick(): void;
+  /** Tells the channel's subscribers it moved to another sidecar. */
+  moved(path: string): void;
   /** Sends one message to every open connection (lab-wide news such as alarms), stringified once. */
   broadcast(message: ControlMessage): void;
   /**
@@ -384,6 +386,9 @@ export function createHub(opts: HubOptions): Hub {
         for (const [path, sub] of state.subs) live.add(viewFor(state, path, sub));
       }
       for (const [key, view] of views) if (!live.has(view)) views.delete(key);
+    },
+    moved(path) {
+      for (const state of clients.values()) if (state.subs.has(path)) send(state, { type: "moved", channel: path });
     },
     broadcast(message) {
       const text = JSON.stringify(message);
