@@ -143,12 +143,13 @@ export function freePort(): Promise<number> {
 /**
  * Debian's mosquitto on a loopback port with a throwaway config; stop() kills it, start() brings it
  * back on the same port. `auth` switches anonymous access off and loads a password file (made with
- * mosquitto_passwd) and an ACL file.
+ * mosquitto_passwd) and an ACL file. `port` pins the listener (default: a free one).
  */
 export async function mosquitto(
   auth?: { users: Array<{ username: string; password: string }>; aclFile: string },
+  fixedPort?: number,
 ): Promise<{ port: number; url: string; start: () => Promise<void>; stop: () => Promise<void> }> {
-  const port = await freePort();
+  const port = fixedPort ?? (await freePort());
   const dir = mkdtempSync(join(tmpdir(), "tw-mosquitto-"));
   const conf = join(dir, "mosquitto.conf");
   let access = "allow_anonymous true\n";
