@@ -37,6 +37,12 @@ const envSchema = z.object({
   SIDECAR_ID: z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "SIDECAR_ID must be a key of a-z, 0-9 and -").optional(),
   /** Where browsers reach this sidecar's WebSocket; default ws://127.0.0.1:SIDECAR_PORT/ws. */
   SIDECAR_WS_URL: z.string().regex(/^wss?:\/\/[^\s]{1,500}$/, "SIDECAR_WS_URL must be a ws:// or wss:// URL").optional(),
+  /** For the web app of a partitioned deployment: the sidecars' WebSocket origins, comma-separated (allowed by the pages' CSP). */
+  SIDECAR_WS_ORIGINS: z
+    .string()
+    .default("")
+    .transform((s) => s.split(",").map((o) => o.trim()).filter(Boolean))
+    .pipe(z.array(z.string().regex(/^wss?:\/\/[a-z0-9.-]+(:\d{1,5})?$/i, "SIDECAR_WS_ORIGINS must list ws:// or wss:// origins (scheme, host, port)"))),
   /** A channel lease lives this long past its last renewal; a silent sidecar's channels move after it. */
   LEASE_TTL_MS: z.coerce.number().int().min(1000).max(60_000).default(5000),
   LEASE_HEARTBEAT_MS: z.coerce.number().int().min(100).max(20_000).default(1000),

@@ -116,3 +116,13 @@ export async function activeRevisionIds(db: Conn, channelIds: number[]): Promise
     .execute();
   return new Map(rows.map((r) => [r.channel_id, r.revision_id]));
 }
+
+/** Sidecars whose heartbeat is younger than ttlMs (partitioned deployments; empty with one sidecar). */
+export function liveSidecars(db: Conn, ttlMs: number): Promise<Array<{ id: string; wsUrl: string }>> {
+  return db
+    .selectFrom("sidecars")
+    .select(["id", "ws_url as wsUrl"])
+    .where("heartbeat_at", ">", sql<Date>`now() - make_interval(secs => ${ttlMs / 1000})`)
+    .orderBy("id")
+    .execute();
+}

@@ -6,4 +6,5 @@ export * from "./samples";
 export * from "./topics";
 export * from "./ws";
 export * from "./overview";
+export * from "./merge-overviews";
 export * from "./alarms";
