@@ -145,6 +145,7 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     busState: () => bus.state,
     sessions: (ids) => liveSessionAccounts(opts.db, ids),
     design: opts.design,
+    serves: opts.leases ? (path) => leases?.owns(path) ?? false : undefined,
     messageRate: opts.ws?.messageRate,
     maxBufferedBytes: opts.maxBufferedBytes,
   });

@@ -70,6 +70,8 @@ export interface HubOptions {
   design: (spec: FilterSpec, owner: string) => Promise<FilterDesign>;
   /** Message rate per connection: `perSecond` sustained, `burst` at once (default 20/s, 40). */
   messageRate?: { perSecond: number; burst: number };
+  /** Partitioned: whether this sidecar filters the channel now; a subscriber of another's channel is told it moved. */
+  serves?: (path: string) => boolean;
   /** A client with more than this many bytes queued loses frames until it catches up. */
   maxBufferedBytes?: number;
   frameIntervalMs?: number;
@@ -181,6 +183,7 @@ export function createHub(opts: HubOptions): Hub {
     switch (msg.type) {
       case "subscribe":
         state.subs.set(msg.channel, state.subs.get(msg.channel) ?? { window: null });
+        if (opts.serves && !opts.serves(msg.channel)) send(state, { type: "moved", channel: msg.channel });
         return;
       case "unsubscribe":
         state.subs.delete(msg.channel);
