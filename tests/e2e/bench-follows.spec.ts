@@ -40,9 +40,10 @@ test("the bench follows its channel to another sidecar without a reload", async 
   const broker = await mosquitto(undefined, MQTT_PORT);
   const device = await mqtt.connectAsync(broker.url, { reconnectPeriod: 0 });
   let seq = 0;
+  const start = Date.now();
   const publishing = setInterval(() => {
     const values = Array.from({ length: 50 }, (_, i) => 20 * Math.sin((2 * Math.PI * 50 * (seq * 50 + i)) / 1000));
-    void device.publishAsync(samplesTopic(CHANNEL), JSON.stringify({ seq, t0: Date.now(), sampleRateHz: 1000, values }));
+    void device.publishAsync(samplesTopic(CHANNEL), JSON.stringify({ seq, t0: start + seq * 50, sampleRateHz: 1000, values }));
     seq++;
   }, 50);
   const sidecars = new Map<string, ChildProcess>();
@@ -76,11 +77,11 @@ test("the bench follows its channel to another sidecar without a reload", async 
   } finally {
     clearInterval(publishing);
     for (const child of sidecars.values()) {
-      if (child.exitCode !== null) continue;
+      if (child.exitCode !== null || child.signalCode !== null) continue; // the killed one
       const exited = new Promise((r) => child.once("exit", r));
       child.send({ type: "stop" }); // leaves the sidecar list, so the other specs see the run's one sidecar again
       await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
-      if (child.exitCode === null) child.kill("SIGKILL");
+      if (child.exitCode === null && child.signalCode === null) child.kill("SIGKILL");
     }
     await device.endAsync();
     await broker.stop();
