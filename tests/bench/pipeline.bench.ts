@@ -245,24 +245,24 @@ function startLeaseSidecar(dbUrl: string, mqttUrl: string, id: string, port: num
 }
 
 /** CLUSTER_CHANNELS channels on CLUSTER_SIDECARS sidecars sharing one Debian mosquitto, once the leases are balanced. */
-async function clusterRun(db: Db, dbUrl: string, cookie: string) {
+async function clusterRun(db: Db, dbUrl: string, cookie: string, paths: string[]) {
   const broker = await mosquitto(undefined, Number(process.env.BENCH_MQTT_PORT ?? 18950));
   const basePort = Number(process.env.BENCH_SIDECAR_PORT ?? 3350);
   const ids = Array.from({ length: CLUSTER_SIDECARS }, (_, i) => `bench-${i}`);
   const children: ChildProcess[] = [];
   try {
     for (const [i, id] of ids.entries()) children.push(await startLeaseSidecar(dbUrl, broker.url, id, basePort + i));
-    const share = CLUSTER_CHANNELS / CLUSTER_SIDECARS;
+    const share = paths.length / CLUSTER_SIDECARS;
     const end = Date.now() + 60_000;
     let owners = await channelOwners(db);
-    while (owners.size < CLUSTER_CHANNELS || ids.some((id) => [...owners.values()].filter((o) => o.sidecarId === id).length !== share)) {
+    while (owners.size < paths.length || ids.some((id) => [...owners.values()].filter((o) => o.sidecarId === id).length !== share)) {
       if (Date.now() > end) throw new Error("the leases did not balance within 60 s");
       await new Promise((r) => setTimeout(r, 200));
       owners = await channelOwners(db);
     }
     const targets = ids.map((id, i) => ({
       wsUrl: `ws://127.0.0.1:${basePort + i}/ws`,
-      paths: [...owners].filter(([, o]) => o.sidecarId === id).map(([path]) => path),
+      paths: paths.slice(0, CLUSTER_CHANNELS).filter((path) => owners.get(path)?.sidecarId === id),
     }));
     return await step({ mqttUrl: broker.url, targets, cookie, seconds: MAIN_SECONDS }, childrenCpuMs(children.map((c) => c.pid ?? 0)));
   } finally {
@@ -346,7 +346,7 @@ async function main(): Promise<void> {
     } finally {
       await sidecar.close();
     }
-    const cluster = await clusterRun(db, url.toString(), cookie);
+    const cluster = await clusterRun(db, url.toString(), cookie, paths);
     console.log(`${CLUSTER_CHANNELS} channels on ${CLUSTER_SIDECARS} sidecars and mosquitto:`, cluster);
     console.log(JSON.stringify({ bench: "pipeline-cluster", sidecars: CLUSTER_SIDECARS, target: { channels: CLUSTER_CHANNELS, p99Ms: P99_LIMIT_MS }, ...cluster }));
   } finally {
