@@ -51,7 +51,7 @@ test("the bench follows its channel to another sidecar without a reload", async 
   page.on("websocket", (ws) => sockets.push(ws.url()));
   try {
     sidecars.set("follow-a", await startSidecar("follow-a", broker.url));
-    await new SignInPage(page).signInAs("operator");
+    await new SignInPage(page).signInAs("engineer");
     await expect.poll(() => owner(page), { timeout: 15_000 }).toBe(`ws://127.0.0.1:${PORTS["follow-a"]}/ws`);
     const bench = new BenchPage(page);
     await bench.open(CHANNEL);
