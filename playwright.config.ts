@@ -5,6 +5,7 @@ import { WEB_PORT } from "./tests/e2e/pages/origin";
 const SIDECAR_PORT = Number(process.env.E2E_SIDECAR_PORT ?? 3101);
 const MQTT_PORT = Number(process.env.E2E_MQTT_PORT ?? 18831);
 const SMTP_PORT = Number(process.env.E2E_SMTP_PORT ?? 25251);
+const LEASE_ORIGINS = [process.env.E2E_LEASE_PORT_A ?? 3310, process.env.E2E_LEASE_PORT_B ?? 3311].map((p) => `ws://127.0.0.1:${p}`).join(",");
 const ports = {
   PORT: String(WEB_PORT),
   SIDECAR_PORT: String(SIDECAR_PORT),
@@ -31,7 +32,16 @@ export default defineConfig({
       timeout: 120_000,
       // Loopback counts as a proxy here, so tests can play clients at other addresses with X-Forwarded-For;
       // the first sign-in delay is 5 s so a slow machine still sees it before it runs out.
-      env: { DEMO: "1", NODE_ENV: "production", HOST: "127.0.0.1", TRUSTED_PROXIES: "127.0.0.1", LOGIN_DELAY_BASE_MS: "5000", ...ports },
+      // The partitioned sidecars of bench-follows.spec.ts may be connected to as well.
+      env: {
+        DEMO: "1",
+        NODE_ENV: "production",
+        HOST: "127.0.0.1",
+        TRUSTED_PROXIES: "127.0.0.1",
+        LOGIN_DELAY_BASE_MS: "5000",
+        SIDECAR_WS_ORIGINS: LEASE_ORIGINS,
+        ...ports,
+      },
     },
     {
       command: "node --import tsx server/mail/fake-smtp-main.ts",

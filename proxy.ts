@@ -11,7 +11,7 @@ export function proxy(request: NextRequest): NextResponse {
   const e = env();
   const https = new URL(appOrigin(e)).protocol === "https:";
   const nonce = btoa(String.fromCharCode(...crypto.getRandomValues(new Uint8Array(16))));
-  const csp = contentSecurityPolicy({ nonce, host: hostName(request.headers.get("host")), sidecarPort: e.SIDECAR_PORT, https });
+  const csp = contentSecurityPolicy({ nonce, host: hostName(request.headers.get("host")), sidecarPort: e.SIDECAR_PORT, sidecarOrigins: e.SIDECAR_WS_ORIGINS, https });
   const headers = new Headers(request.headers);
   headers.set("x-nonce", nonce);
   headers.set("content-security-policy", csp);

@@ -241,6 +241,20 @@ export interface AlarmEventsTable {
   stored_at: CreatedAt;
 }
 
+export interface SidecarsTable {
+  id: string;
+  ws_url: string;
+  started_at: CreatedAt;
+  heartbeat_at: ColumnType<Date, Date | string | undefined, Date | string>;
+}
+
+export interface ChannelLeasesTable {
+  channel_id: number;
+  sidecar_id: string;
+  acquired_at: ColumnType<Date, Date | string | undefined, Date | string>;
+  expires_at: ColumnType<Date, Date | string, Date | string>;
+}
+
 export interface AnnotationsTable {
   id: Generated<number>;
   channel_id: ColumnType<number, number, never>;
@@ -283,6 +297,8 @@ export interface Database {
   alarm_events: AlarmEventsTable;
   annotations: AnnotationsTable;
   bench_candidates: BenchCandidatesTable;
+  sidecars: SidecarsTable;
+  channel_leases: ChannelLeasesTable;
 }
 
 export type User = Selectable<UsersTable>;

@@ -33,6 +33,19 @@ const envSchema = z.object({
   WS_CONNECTIONS_PER_USER: z.coerce.number().int().min(1).max(1000).default(8),
   REQUIRE_DEVICE_AUTH: z.enum(["0", "1"]).default("1"),
   MQTT_CA_FILE: z.string().optional(),
+  /** Set to partition channels across sidecars on one external broker (MQTT_URL): this sidecar's unique key. */
+  SIDECAR_ID: z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "SIDECAR_ID must be a key of a-z, 0-9 and -").optional(),
+  /** Where browsers reach this sidecar's WebSocket; default ws://127.0.0.1:SIDECAR_PORT/ws. */
+  SIDECAR_WS_URL: z.string().regex(/^wss?:\/\/[^\s]{1,500}$/, "SIDECAR_WS_URL must be a ws:// or wss:// URL").optional(),
+  /** For the web app of a partitioned deployment: the sidecars' WebSocket origins, comma-separated (allowed by the pages' CSP). */
+  SIDECAR_WS_ORIGINS: z
+    .string()
+    .default("")
+    .transform((s) => s.split(",").map((o) => o.trim()).filter(Boolean))
+    .pipe(z.array(z.string().regex(/^wss?:\/\/[a-z0-9.-]+(:\d{1,5})?$/i, "SIDECAR_WS_ORIGINS must list ws:// or wss:// origins (scheme, host, port)"))),
+  /** A channel lease lives this long past its last renewal; a silent sidecar's channels move after it. */
+  LEASE_TTL_MS: z.coerce.number().int().min(1000).max(60_000).default(5000),
+  LEASE_HEARTBEAT_MS: z.coerce.number().int().min(100).max(20_000).default(1000),
   SHARED_GROUP: z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, "SHARED_GROUP must be a key of a-z, 0-9 and -").optional(),
   REPUBLISH_FILTERED: z.enum(["0", "1"]).default("0"),
   DEMO_SEED: z.coerce.number().int().min(0).max(0xffffffff).default(20261201),

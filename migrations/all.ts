@@ -10,6 +10,7 @@ import * as m0008 from "./20261203_0008_sessions_throttle";
 import * as m0009 from "./20261203_0009_alarms_annotations";
 import * as m0010 from "./20261203_0010_token_scopes";
 import * as m0011 from "./20261203_0011_bench_candidates";
+import * as m0012 from "./20261203_0012_sidecar_leases";
 
 /** Every migration in order; a static list so tsx, vitest and bundlers load them alike. */
 export const migrations: Record<string, Migration> = {
@@ -24,6 +25,7 @@ export const migrations: Record<string, Migration> = {
   "20261203_0009_alarms_annotations": m0009,
   "20261203_0010_token_scopes": m0010,
   "20261203_0011_bench_candidates": m0011,
+  "20261203_0012_sidecar_leases": m0012,
 };
 
 export const migrationProvider: MigrationProvider = { getMigrations: async () => migrations };

@@ -2,12 +2,15 @@ import { readFileSync } from "node:fs";
 import { createDb } from "@/db/client";
 import { SESSION_TTL_SECONDS } from "@/lib/auth/session-config";
 import { appOrigin, appUrl, env } from "@/lib/env";
+import { demoDeviceCredential } from "@/lib/demo/device-credentials";
 import { MAX_CANDIDATES_PER_CLIENT } from "@/lib/protocol";
 import { createWorkPool, poolSettings, workerEntry } from "@/lib/workers";
 import { startAlarms, type AlarmService } from "./alarms/service";
 import { consoleLogger, systemClock } from "./clock";
-import { startDeploymentWorker, type DeploymentWorker } from "./deploy/worker";
-import { smtpTransport, startOutboxSender, type OutboxSender } from "./mail/outbox-sender";
+import { startLeadership, type Leadership } from "./cluster/leader";
+import { startDemoRig } from "./demo-rig/rig";
+import { startDeploymentWorker } from "./deploy/worker";
+import { smtpTransport, startOutboxSender } from "./mail/outbox-sender";
 import { startSidecar, type Sidecar } from "./sidecar";
 import { errorMessage } from "@/lib/errors";
 
@@ -25,8 +28,7 @@ const work = createWorkPool({
 });
 
 let sidecar: Sidecar | undefined;
-let deployments: DeploymentWorker | undefined;
-let outbox: OutboxSender | undefined;
+let leadership: Leadership | undefined;
 let alarms: AlarmService | undefined;
 let stopping = false;
 
@@ -37,9 +39,8 @@ async function shutdown(signal: string): Promise<void> {
   const force = setTimeout(() => process.exit(1), 5000);
   force.unref();
   try {
-    await outbox?.stop();
+    await leadership?.close();
     await alarms?.stop();
-    await deployments?.stop();
     await sidecar?.close();
     await work.close();
     await db.destroy();
@@ -51,6 +52,15 @@ async function shutdown(signal: string): Promise<void> {
 }
 process.on("SIGTERM", () => void shutdown("SIGTERM"));
 process.on("SIGINT", () => void shutdown("SIGINT"));
+
+if (e.SIDECAR_ID && !e.MQTT_URL) {
+  consoleLogger.warn("SIDECAR_ID partitions channels across sidecars sharing an external broker: set MQTT_URL as well.");
+  process.exit(1);
+}
+// Partitioned (docs/scale-out.md): this sidecar filters the channels it holds leases on.
+const leases = e.SIDECAR_ID
+  ? { id: e.SIDECAR_ID, wsUrl: e.SIDECAR_WS_URL ?? `ws://127.0.0.1:${e.SIDECAR_PORT}/ws`, ttlMs: e.LEASE_TTL_MS, heartbeatMs: e.LEASE_HEARTBEAT_MS }
+  : undefined;
 
 if (!e.MQTT_URL && e.REQUIRE_DEVICE_AUTH === "0") {
   consoleLogger.warn(
@@ -92,35 +102,67 @@ sidecar = await startSidecar({
         internal: e.MQTT_USERNAME && e.MQTT_PASSWORD ? [{ username: e.MQTT_USERNAME, password: e.MQTT_PASSWORD }] : [],
       },
   republishFiltered: e.REPUBLISH_FILTERED === "1",
-  demo: e.DEMO === "1" ? { seed: e.DEMO_SEED } : undefined,
+  leases,
+  // Partitioned, the demo rig is lab-wide work: the leading sidecar runs it (below).
+  demo: e.DEMO === "1" && !leases ? { seed: e.DEMO_SEED } : undefined,
 });
+const started = sidecar;
 
-// Promotion: pending deployments go to devices through the config exchange; acknowledged ones switch the production slot.
-deployments = await startDeploymentWorker({
-  db,
+// Lab-wide work runs on one sidecar at a time (a PostgreSQL advisory lock; with one sidecar, this one):
+// promotion — pending deployments go to devices through the config exchange, acknowledged ones switch
+// the production slot — with the reconciliation of retained configs, and the mail outbox, whose
+// notifications (written with their event) are delivered with retries.
+leadership = startLeadership({
   databaseUrl: e.DATABASE_URL,
-  exchange: sidecar.configs,
-  bus: sidecar.bus,
-  pipeline: sidecar.pipeline,
-  // Open benches follow: they reload the channel's production filter when told.
-  onProductionChange: (channel, revisionId) => sidecar?.hub.toSubscribers(channel, { type: "production-changed", channel, revisionId }),
   clock: systemClock,
   logger: consoleLogger,
-  ackTimeoutMs: e.DEPLOY_ACK_TIMEOUT_MS,
+  async lead() {
+    const deployments = await startDeploymentWorker({
+      db,
+      databaseUrl: e.DATABASE_URL,
+      exchange: started.configs,
+      bus: started.bus,
+      // Partitioned, each sidecar picks up its channels' production filters at its next lease round.
+      pipeline: leases ? undefined : started.pipeline,
+      // Open benches follow (partitioned, the channel's owner tells its own subscribers when it switches).
+      onProductionChange: leases
+        ? undefined
+        : (channel, revisionId) => started.hub.toSubscribers(channel, { type: "production-changed", channel, revisionId }),
+      clock: systemClock,
+      logger: consoleLogger,
+      ackTimeoutMs: e.DEPLOY_ACK_TIMEOUT_MS,
+    });
+    const outbox = startOutboxSender({
+      db,
+      transport: smtpTransport("127.0.0.1", e.SMTP_PORT),
+      from: e.MAIL_FROM,
+      appUrl: appUrl(e),
+      clock: systemClock,
+      logger: consoleLogger,
+    });
+    const demo =
+      leases && e.DEMO === "1"
+        ? await startDemoRig({
+            url: started.mqttUrl,
+            credentials: (rig, device) => demoDeviceCredential(e.SESSION_SECRET, rig, device),
+            clock: systemClock,
+            logger: consoleLogger,
+            seed: e.DEMO_SEED,
+          })
+        : undefined;
+    return {
+      async stop() {
+        await demo?.stop();
+        await outbox.stop();
+        await deployments.stop();
+      },
+    };
+  },
 });
+await leadership.attempt();
 
 // Alarms: rules run on every sample after the production filter; events are stored (buffered through a database outage) and pushed.
 alarms = await startAlarms({ db, databaseUrl: e.DATABASE_URL, pipeline: sidecar.pipeline, hub: sidecar.hub, clock: systemClock, logger: consoleLogger });
-
-// Mail: notifications written to the outbox in the same transaction as their event are delivered with retries.
-outbox = startOutboxSender({
-  db,
-  transport: smtpTransport("127.0.0.1", e.SMTP_PORT),
-  from: e.MAIL_FROM,
-  appUrl: appUrl(e),
-  clock: systemClock,
-  logger: consoleLogger,
-});
 
 consoleLogger.info(
   `listening on http://${loopback}:${sidecar.httpPort} (health: /health, WebSocket: /ws); MQTT ${sidecar.mqttUrl}`,

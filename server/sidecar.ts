@@ -17,6 +17,8 @@ import { createHttpServer, listen } from "./http";
 import { createFaultLog, type FaultLog } from "./ingest/fault-log";
 import { createIngest, type Ingest } from "./ingest/ingest";
 import { trackDeviceStatus, type DeviceStatusTracker } from "./ingest/status";
+import { partitionChannels, type LeaseSettings } from "./cluster/partition";
+import type { LeaseKeeper } from "./cluster/lease-keeper";
 import { createPipeline, type Pipeline } from "./pipeline/pipeline";
 import { throttledWarn } from "./throttled-log";
 import { createHub, type Hub } from "./ws/hub";
@@ -47,6 +49,11 @@ export interface SidecarOptions {
   ws?: { messageRate?: { perSecond: number; burst: number }; maxConnectionsPerUser?: number };
   mqtt: MqttSetup;
   republishFiltered: boolean;
+  /**
+   * Partitioned across sidecars (an external broker): hold leases on a share of the channels and
+   * subscribe only to theirs. Without it this sidecar filters every channel (one sidecar).
+   */
+  leases?: LeaseSettings;
   /** Start the demo rig (its own MQTT connections) with this seed. */
   demo?: { seed: number };
   /** Start the frame, metrics and status timers (tests may drive hub.tick() themselves). */
@@ -70,6 +77,8 @@ export interface Sidecar {
   devices: DeviceStatusTracker;
   /** The demo rig, when started. */
   demo: DemoRigHandle | undefined;
+  /** The channel leases, when partitioned. */
+  leases: LeaseKeeper | undefined;
   health(): { status: "ok" | "degraded" } & Record<string, unknown>;
   overview(): LiveOverview;
   close(): Promise<void>;
@@ -116,10 +125,13 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
       : undefined,
     onMetricsError: (path, id, err) => warnEvery(`metrics ${path} ${id}`, `metrics of candidate ${id} on ${path} failed: ${errorMessage(err)}`),
   });
-  const ingest = createIngest({ channels, sink: pipeline, faults });
-  const samplesFilter =
-    opts.mqtt.mode === "external" && opts.mqtt.sharedGroup ? sharedFilter(opts.mqtt.sharedGroup, SAMPLES_FILTER) : SAMPLES_FILTER;
-  await bus.subscribe(samplesFilter, (topic, payload) => ingest.handle(topic, payload));
+  let leases: LeaseKeeper | undefined;
+  const ingest = createIngest({ channels, sink: pipeline, faults, accepts: opts.leases ? (path) => leases?.owns(path) ?? false : undefined });
+  if (!opts.leases) {
+    const samplesFilter =
+      opts.mqtt.mode === "external" && opts.mqtt.sharedGroup ? sharedFilter(opts.mqtt.sharedGroup, SAMPLES_FILTER) : SAMPLES_FILTER;
+    await bus.subscribe(samplesFilter, (topic, payload) => ingest.handle(topic, payload));
+  }
   const configs = await createConfigExchange({
     bus,
     clock,
@@ -137,6 +149,7 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     busState: () => bus.state,
     sessions: (ids) => liveSessionAccounts(opts.db, ids),
     design: opts.design,
+    serves: opts.leases ? (path) => leases?.owns(path) ?? false : undefined,
     messageRate: opts.ws?.messageRate,
     maxBufferedBytes: opts.maxBufferedBytes,
   });
@@ -144,6 +157,13 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     logger.info(`MQTT ${state}`);
     hub.statusTick();
   });
+  if (opts.leases) {
+    leases = partitionChannels({ db: opts.db, bus, pipeline, ingest, hub, leases: opts.leases, clock, logger });
+    await leases.round();
+    if (opts.timers !== false) leases.start();
+  }
+  /** The channels this sidecar filters now: its leases', or every channel. */
+  const served = () => (leases ? leases.owned() : pipeline.paths());
   const ws = createWsEndpoint({
     db: opts.db,
     sessionSecret: opts.sessionSecret,
@@ -158,11 +178,12 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     return {
       status: bus.state === "connected" ? ("ok" as const) : ("degraded" as const),
       mqtt: bus.state,
-      channels: channels.length,
+      channels: served().length,
+      sidecarId: opts.leases?.id,
       production: Object.fromEntries(
-        channels.flatMap((c) => {
-          const revision = pipeline.productionRevision(c.path);
-          return revision === null ? [] : [[c.path, revision]];
+        served().flatMap((path) => {
+          const revision = pipeline.productionRevision(path);
+          return revision === null ? [] : [[path, revision]];
         }),
       ),
       clients: hub.clientCount,
@@ -177,7 +198,7 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
       now: clock.now(),
       mqtt: bus.state,
       channels: Object.fromEntries(
-        channels.map(({ path }) => {
+        served().map((path) => {
           const [rig, device] = path.split("/");
           const entry: LiveOverview["channels"][string] = {
             online: devices.online(rig, device),
@@ -217,9 +238,11 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     broker,
     devices,
     demo,
+    leases,
     health,
     overview,
     async close() {
+      await leases?.close();
       hub.stop();
       await demo?.stop().catch((err: unknown) => logger.warn(`demo rig did not stop cleanly: ${errorMessage(err)}`));
       await ws.close();

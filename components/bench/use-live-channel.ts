@@ -5,7 +5,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import { reconnectDelayMs } from "@/lib/bench/backoff";
 import { HISTORY_SECONDS, LiveStore } from "@/lib/bench/live-store";
 import { productionQueryKey } from "./api";
-import { parseServerMessage, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
+import { decodeFrame, parseServerMessage, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
 import { useLatest } from "@/components/hooks/use-latest";
 
 export type LinkState = "connecting" | "live" | "reconnecting" | "signed-out";
@@ -41,12 +41,28 @@ interface Options {
   onOpen: (send: (m: ClientMessage) => void) => void;
 }
 
+/**
+ * The WebSocket URL of the sidecar filtering `path` now (partitioned sidecars hold leases on their
+ * channels), or `fallback` (one sidecar, or the web app not answering: the reconnect loop asks again).
+ */
+async function ownerUrl(path: string, fallback: string): Promise<string> {
+  try {
+    const res = await fetch(`/api/v1/live/owner?channel=${encodeURIComponent(path)}`, { cache: "no-store" });
+    const body: unknown = res.ok ? await res.json() : null;
+    const wsUrl = body && typeof body === "object" && "wsUrl" in body ? body.wsUrl : null;
+    return typeof wsUrl === "string" && /^wss?:\/\//.test(wsUrl) ? wsUrl : fallback;
+  } catch {
+    return fallback; // the web app is down or restarting: the page's sidecar is the best guess
+  }
+}
+
 const INITIAL: LiveStatus = { link: "connecting", retryAt: null, mqtt: null, droppedFrames: 0, lastFrameAt: null, error: null };
 
 /**
  * The live WebSocket of one channel: subscribes at full rate (no server decimation, so spectra see
  * every sample), feeds frames into a LiveStore, keeps status and metrics, and reconnects by itself
- * with exponential backoff.
+ * with exponential backoff. Each connection goes to the sidecar that holds the channel now; when
+ * the channel moves (the sidecar says so, or goes away) the hook asks again and follows.
  */
 export function useLiveChannel(opts: Options): LiveChannel {
   const queryClient = useQueryClient();
@@ -62,7 +78,7 @@ export function useLiveChannel(opts: Options): LiveChannel {
     let closed = false;
     let lastFrameShown = 0;
     const scheme = window.location.protocol === "https:" ? "wss" : "ws";
-    const url = `${scheme}://${window.location.hostname}:${opts.port}${opts.wsPath}`;
+    const fallback = `${scheme}://${window.location.hostname}:${opts.port}${opts.wsPath}`;
 
     const handle = (msg: ServerMessage) => {
       switch (msg.type) {
@@ -88,13 +104,21 @@ export function useLiveChannel(opts: Options): LiveChannel {
         case "production-changed":
           // A deployment was acknowledged: the production label, trace and analysis reload.
           if (msg.channel === opts.path) void queryClient.invalidateQueries({ queryKey: productionQueryKey(msg.channel) });
+        case "moved":
+          // The channel is filtered elsewhere now: drop this socket and connect to the new owner at once.
+          if (msg.channel === opts.path) {
+            attempt = 0;
+            socketRef.current?.close();
+          }
           return;
         case "hello":
           return;
       }
     };
 
-    const connect = () => {
+    const connect = async () => {
+      const url = await ownerUrl(opts.path, fallback);
+      if (closed) return;
       const ws = new WebSocket(url);
       socketRef.current = ws;
       const send = (m: ClientMessage) => {
@@ -107,7 +131,13 @@ export function useLiveChannel(opts: Options): LiveChannel {
         send({ type: "window", channel: opts.path, seconds: HISTORY_SECONDS, maxPoints: 1_000_000 });
         onOpenRef.current(send);
       };
+      ws.binaryType = "arraybuffer";
       ws.onmessage = (ev) => {
+        if (ev.data instanceof ArrayBuffer) {
+          const decoded = decodeFrame(new Uint8Array(ev.data));
+          if (decoded.ok) handle(decoded.frame);
+          return;
+        }
         const message = typeof ev.data === "string" ? parseServerMessage(ev.data) : null;
         if (message) handle(message);
       };
@@ -120,10 +150,10 @@ export function useLiveChannel(opts: Options): LiveChannel {
         }
         const delay = reconnectDelayMs(attempt++, Math.random());
         setStatus((s) => ({ ...s, link: "reconnecting", retryAt: Date.now() + delay }));
-        timer = setTimeout(connect, delay);
+        timer = setTimeout(() => void connect(), delay);
       };
     };
-    connect();
+    void connect();
     return () => {
       closed = true;
       if (timer) clearTimeout(timer);

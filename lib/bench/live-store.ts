@@ -51,7 +51,7 @@ export class LiveStore {
    * placed at the bucket's quarter and three-quarter times. A jump forward of more than two steps
    * leaves a gap (NaN row); time going backwards (a restarted rig) starts the history afresh.
    */
-  push(frame: FrameMessage): void {
+  push(frame: FrameMessage<ArrayLike<number>>): void {
     const n = frame.raw.length;
     if (n === 0) return;
     const step = frame.decimated && frame.bucketSamples ? frame.bucketSamples / (2 * frame.sampleRateHz) : 1 / frame.sampleRateHz;

@@ -5,6 +5,8 @@ export interface CspInput {
   /** Host name the browser used for the page (the sidecar's WebSocket is on the same host). */
   host: string | null;
   sidecarPort: number;
+  /** Partitioned sidecars' WebSocket origins (SIDECAR_WS_ORIGINS), each allowed beside the page's own sidecar. */
+  sidecarOrigins?: readonly string[];
   /** The app is served over HTTPS: the WebSocket is wss:, and plain http: subresources are upgraded. */
   https: boolean;
 }
@@ -18,8 +20,9 @@ const HOST_NAME = /^(?:[a-z0-9.-]+|\[[0-9a-f:.]+\])$/i;
  * no eval, so the DSP engine runs its generic loops in the browser; connections to the app and to
  * the sidecar's WebSocket; no plugins, no <base>, forms only to the app, and no framing at all.
  */
-export function contentSecurityPolicy({ nonce, host, sidecarPort, https }: CspInput): string {
-  const ws = host && HOST_NAME.test(host) ? ` ${https ? "wss" : "ws"}://${host}:${sidecarPort}` : "";
+export function contentSecurityPolicy({ nonce, host, sidecarPort, sidecarOrigins = [], https }: CspInput): string {
+  const own = host && HOST_NAME.test(host) ? ` ${https ? "wss" : "ws"}://${host}:${sidecarPort}` : "";
+  const ws = own + sidecarOrigins.map((o) => ` ${o}`).join("");
   return [
     "default-src 'self'",
     `script-src 'self' 'nonce-${nonce}' 'strict-dynamic'`,

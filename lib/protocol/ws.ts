@@ -2,10 +2,11 @@ import { z } from "zod";
 import { filterSpecSchema } from "@/lib/dsp";
 import { alarmMessageSchema } from "./alarms";
 import { FAULT_KINDS } from "./faults";
+import type { FrameMessage } from "./frames";
 import { channelPathSchema } from "./topics";
 
-/** WebSocket protocol version; the server says it in its hello message. */
-export const WS_PROTOCOL_VERSION = 1;
+/** WebSocket protocol version; the server says it in its hello message. 2: frames are binary (lib/protocol/frames.ts). */
+export const WS_PROTOCOL_VERSION = 2;
 
 export const MAX_CANDIDATES_PER_CLIENT = 6;
 export const MAX_WINDOW_SECONDS = 60;
@@ -48,29 +49,6 @@ export type WsErrorCode = (typeof WS_ERROR_CODES)[number];
 const number = z.number();
 
 /**
- * New samples of one channel since the previous frame to this client; `samples` input samples
- * starting at t0 (ms), `seq` the newest message they came from. Without decimation, point i is at
- * t0 + i·1000/sampleRateHz. With decimation, each bucket of `bucketSamples` consecutive samples
- * (the last one possibly shorter) becomes two points, its minimum and maximum in the order they
- * occurred; raw, production and every candidate are decimated alike, each keeping its own extremes.
- */
-export const frameMessageSchema = z
-  .object({
-    type: z.literal("frame"),
-    channel: channelPathSchema,
-    seq: z.number().int(),
-    t0: number,
-    sampleRateHz: number,
-    raw: z.array(number),
-    traces: z.record(z.string(), z.array(number)),
-    samples: z.number().int().min(1),
-    decimated: z.boolean(),
-    bucketSamples: z.number().int().min(1).optional(),
-  })
-  .strict();
-export type FrameMessage = z.infer<typeof frameMessageSchema>;
-
-/**
  * A channel's production filter changed: a deployment was acknowledged by its device (a promotion, a
  * rollback, or a return to pass-through). Sent as JSON to every open connection; clients reload what
  * they show of that channel's production filter. `revisionId` is the revision now active, null for
@@ -83,6 +61,7 @@ export type ProductionChanged = z.infer<typeof productionChangedSchema>;
 
 const faultCounts = z.partialRecord(z.enum(FAULT_KINDS), z.number().int());
 
+/** The server's JSON control messages (WebSocket text messages); frames travel as binary messages. */
 export const serverMessageSchema = z.discriminatedUnion("type", [
   z
     .object({
@@ -92,8 +71,9 @@ export const serverMessageSchema = z.discriminatedUnion("type", [
       channels: z.array(z.object({ path: channelPathSchema, sampleRateHz: number })),
     })
     .strict(),
-  frameMessageSchema,
   z.object({ type: z.literal("error"), code: z.enum(WS_ERROR_CODES), message: z.string() }).strict(),
+  /** The channel is now filtered by another sidecar: ask the web app where (GET /api/v1/live/owner) and connect there. */
+  z.object({ type: z.literal("moved"), channel: channelPathSchema }).strict(),
   z
     .object({
       type: z.literal("status"),
@@ -121,10 +101,12 @@ export const serverMessageSchema = z.discriminatedUnion("type", [
   alarmMessageSchema,
   productionChangedSchema,
 ]);
-export type ServerMessage = z.infer<typeof serverMessageSchema>;
+export type ControlMessage = z.infer<typeof serverMessageSchema>;
+/** Everything a client receives: JSON control messages and decoded binary frames. */
+export type ServerMessage = ControlMessage | FrameMessage;
 
-/** A server message from a WebSocket text frame, or null when it is not JSON or not a message of this protocol. */
-export function parseServerMessage(text: string): ServerMessage | null {
+/** A control message from a WebSocket text message, or null when it is not JSON or not a message of this protocol. */
+export function parseServerMessage(text: string): ControlMessage | null {
   let json: unknown;
   try {
     json = JSON.parse(text);
@@ -134,7 +116,7 @@ export function parseServerMessage(text: string): ServerMessage | null {
   const parsed = serverMessageSchema.safeParse(json);
   return parsed.success ? parsed.data : null;
 }
-export type CandidateMetrics = Extract<ServerMessage, { type: "metrics" }>["candidates"][string];
+export type CandidateMetrics = Extract<ControlMessage, { type: "metrics" }>["candidates"][string];
 
 /** The sidecar's WebSocket path. */
 export const WS_PATH = "/ws";

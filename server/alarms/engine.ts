@@ -3,7 +3,7 @@ import type { Db } from "@/db/client";
 import { findAlarmEvent, listRaisedRecords, type AlarmEventRecord } from "@/db/queries/alarm-events";
 import { listAlarmRules, type AlarmRuleView } from "@/db/queries/alarm-rules";
 import { closeTracker, createTracker, limitsChanged, resumeRaised, trackBlock, type AlarmTransition, type RuleTracker } from "@/lib/alarms";
-import type { AlarmEventView, AlarmKind, SampleBatch, ServerMessage } from "@/lib/protocol";
+import type { AlarmEventView, AlarmKind, ControlMessage, SampleBatch } from "@/lib/protocol";
 import type { Clock, Logger } from "../clock";
 import type { EventStore } from "./event-store";
 import { errorMessage } from "@/lib/errors";
@@ -38,7 +38,7 @@ export interface AlarmEngineDeps {
   /** The production revision running on a channel now (a revision id), or null. */
   productionRevision: (path: string) => string | null;
   /** Sends a message to every connected browser. */
-  broadcast: (message: ServerMessage) => void;
+  broadcast: (message: ControlMessage) => void;
   clock: Clock;
   logger: Logger;
 }

@@ -14,6 +14,8 @@ export interface PublishOptions {
  */
 export interface MessageBus {
   subscribe(filter: string, handler: MessageHandler): Promise<void>;
+  /** Drops every handler of this filter and, for an external broker, the subscription itself. */
+  unsubscribe(filter: string): Promise<void>;
   publish(topic: string, payload: Buffer | string, opts?: PublishOptions): Promise<void>;
   readonly state: BusState;
   onState(listener: (state: BusState) => void): void;

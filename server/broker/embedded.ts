@@ -45,26 +45,31 @@ export async function startEmbeddedBroker(opts: {
   };
 }
 
+type Deliver = Parameters<Aedes["subscribe"]>[1];
+
 /** A bus subscribed inside the broker's process: no socket, no serialisation between them. */
 export function inProcessBus(broker: Aedes): MessageBus {
   const listeners: Array<(s: BusState) => void> = [];
+  /** Aedes unsubscribes a handler by the same function it was given. */
+  const subscribed = new Map<string, Deliver[]>();
   let state: BusState = "connected";
   return {
     get state() {
       return state;
     },
     subscribe(filter: string, handler: MessageHandler) {
-      return new Promise<void>((resolve) => {
-        broker.subscribe(
-          filter,
-          (packet, done) => {
-            const payload = typeof packet.payload === "string" ? Buffer.from(packet.payload) : packet.payload;
-            handler(packet.topic, payload);
-            done();
-          },
-          resolve,
-        );
-      });
+      const deliver: Deliver = (packet, done) => {
+        const payload = typeof packet.payload === "string" ? Buffer.from(packet.payload) : packet.payload;
+        handler(packet.topic, payload);
+        done();
+      };
+      subscribed.set(filter, [...(subscribed.get(filter) ?? []), deliver]);
+      return new Promise<void>((resolve) => broker.subscribe(filter, deliver, resolve));
+    },
+    async unsubscribe(filter: string) {
+      const delivers = subscribed.get(filter) ?? [];
+      subscribed.delete(filter);
+      for (const deliver of delivers) await new Promise<void>((resolve) => broker.unsubscribe(filter, deliver, resolve));
     },
     publish(topic, payload, opts = {}) {
       return new Promise<void>((resolve, reject) => {

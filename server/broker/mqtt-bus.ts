@@ -35,7 +35,9 @@ export function backoffDelay(attempt: number, initial: number, max: number, rand
 export function connectMqttBus(opts: MqttBusOptions): MessageBus & { client: MqttClient } {
   const random = opts.random ?? Math.random;
   const { initial, max } = opts.backoffMs ?? { initial: 250, max: 10_000 };
+  /** Filters with wildcards are matched one by one; plain topics (a channel's samples) by one map lookup. */
   const handlers: Array<{ filter: string; handler: MessageHandler }> = [];
+  const exact = new Map<string, MessageHandler[]>();
   const listeners: Array<(s: BusState) => void> = [];
   let state: BusState = "reconnecting";
   let attempt = 0;
@@ -64,7 +66,7 @@ export function connectMqttBus(opts: MqttBusOptions): MessageBus & { client: Mqt
   // "connected" is reported once the broker has acknowledged the subscriptions, so messages flow from then on.
   client.on("connect", () => {
     attempt = 0;
-    const filters = [...new Set(handlers.map((h) => h.filter))];
+    const filters = [...new Set([...handlers.map((h) => h.filter), ...exact.keys()])];
     if (!filters.length) return setState("connected");
     client.subscribe(filters, { qos: 0 }, (err) => {
       if (err) opts.logger.warn(`MQTT subscribe failed: ${err.message}`);
@@ -72,6 +74,7 @@ export function connectMqttBus(opts: MqttBusOptions): MessageBus & { client: Mqt
     });
   });
   client.on("message", (topic, payload) => {
+    for (const handler of exact.get(topic) ?? []) handler(topic, payload);
     for (const h of handlers) if (topicMatches(h.filter, topic)) h.handler(topic, payload);
   });
   client.on("error", (err) => opts.logger.warn(`MQTT: ${err.message}`));
@@ -92,8 +95,14 @@ export function connectMqttBus(opts: MqttBusOptions): MessageBus & { client: Mqt
       return state;
     },
     async subscribe(filter, handler) {
-      handlers.push({ filter, handler });
+      if (/[+#]/.test(filter) || filter.startsWith("$share/")) handlers.push({ filter, handler });
+      else exact.set(filter, [...(exact.get(filter) ?? []), handler]);
       if (client.connected) await client.subscribeAsync(filter, { qos: 0 });
+    },
+    async unsubscribe(filter) {
+      exact.delete(filter);
+      for (let i = handlers.length - 1; i >= 0; i--) if (handlers[i].filter === filter) handlers.splice(i, 1);
+      if (client.connected) await client.unsubscribeAsync(filter);
     },
     async publish(topic, payload, publishOpts = {}) {
       await client.publishAsync(topic, payload, { qos: publishOpts.qos ?? 0, retain: publishOpts.retain ?? false });

@@ -19,6 +19,8 @@ const RATE_TOLERANCE = 1e-6;
 export interface Ingest {
   /** Handles one MQTT message; never throws (a thrown error is counted as handler_error). */
   handle(topic: string, payload: Uint8Array): void;
+  /** Knows a channel from now on (one created after start) and forgets its last sequence number (a fresh start). */
+  addChannel(info: ChannelInfo): void;
   /** Accepted messages and samples so far. */
   readonly accepted: { messages: number; samples: number };
 }
@@ -28,7 +30,13 @@ export interface Ingest {
  * sequence. A sequence gap is counted and the batch still used: the filter state carries on
  * across the gap as if the missing samples never existed.
  */
-export function createIngest(deps: { channels: readonly ChannelInfo[]; sink: BatchSink; faults: FaultLog }): Ingest {
+export function createIngest(deps: {
+  channels: readonly ChannelInfo[];
+  sink: BatchSink;
+  faults: FaultLog;
+  /** Whether this sidecar filters the channel now (its lease); messages of others are dropped uncounted. */
+  accepts?: (path: string) => boolean;
+}): Ingest {
   const channels = new Map(deps.channels.map((c) => [c.path, c]));
   const lastSeq = new Map<string, number>();
   const accepted = { messages: 0, samples: 0 };
@@ -40,6 +48,7 @@ export function createIngest(deps: { channels: readonly ChannelInfo[]; sink: Bat
     if (payload.byteLength > MAX_PAYLOAD_BYTES) return deps.faults.record(path, "oversized", `${payload.byteLength} bytes`);
     const channel = channels.get(path);
     if (!channel) return deps.faults.record(path, "unknown_channel");
+    if (deps.accepts && !deps.accepts(path)) return;
     const result = decodeSamples(payload);
     if (!result.ok) return deps.faults.record(path, result.fault);
     const { batch } = result;
@@ -58,6 +67,10 @@ export function createIngest(deps: { channels: readonly ChannelInfo[]; sink: Bat
 
   return {
     accepted,
+    addChannel(info) {
+      channels.set(info.path, info);
+      lastSeq.delete(info.path);
+    },
     handle(topic, payload) {
       try {
         handleUnsafe(topic, payload);

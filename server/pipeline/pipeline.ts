@@ -66,6 +66,10 @@ export interface Pipeline extends BatchSink {
   /** Live metrics of an owner's candidates on a channel (null fields until a candidate has settled). */
   metrics(path: string, owner: string): Record<string, CandidateMetrics>;
   channel(path: string): ChannelInfo | undefined;
+  /** Adds a channel created after start; known channels are left as they are. */
+  addChannel(info: ChannelInfo): void;
+  /** Stops a channel handed to another sidecar: production filter cleared, samples not yet sent dropped. */
+  resetChannel(path: string): void;
   paths(): string[];
   /** When the channel's newest batch arrived (epoch ms, the `now` given), or null before the first. */
   lastSampleAt(path: string): number | null;
@@ -110,22 +114,18 @@ export function createPipeline(deps: {
   const settleSeconds = deps.settleSeconds ?? 1;
   const bank = createFilterBank();
   const listeners: SamplesListener[] = [];
-  const live = new Map<string, LiveChannel>(
-    deps.channels.map((info) => [
-      info.path,
-      {
-        info,
-        raw: new SampleRing(Math.ceil(historySeconds * info.sampleRateHz)),
-        production: null,
-        candidates: new Map(),
-        pending: [],
-        nextSeq: null,
-        breakBlock: false,
-        lastSampleAt: null,
-        spark: new SparkEnvelope(info.sampleRateHz),
-      },
-    ]),
-  );
+  const fresh = (info: ChannelInfo): LiveChannel => ({
+    info,
+    raw: new SampleRing(Math.ceil(historySeconds * info.sampleRateHz)),
+    production: null,
+    candidates: new Map(),
+    pending: [],
+    nextSeq: null,
+    breakBlock: false,
+    lastSampleAt: null,
+    spark: new SparkEnvelope(info.sampleRateHz),
+  });
+  const live = new Map<string, LiveChannel>(deps.channels.map((info) => [info.path, fresh(info)]));
 
   function channelOf(path: string): LiveChannel {
     const ch = live.get(path);
@@ -259,6 +259,17 @@ export function createPipeline(deps: {
       return result;
     },
     channel: (path) => live.get(path)?.info,
+    addChannel(info) {
+      if (!live.has(info.path)) live.set(info.path, fresh(info));
+    },
+    resetChannel(path) {
+      const ch = channelOf(path);
+      if (ch.production) bank.remove(path, PRODUCTION);
+      ch.production = null;
+      ch.pending = [];
+      ch.nextSeq = null;
+      ch.breakBlock = true;
+    },
     paths: () => [...live.keys()],
     lastSampleAt: (path) => channelOf(path).lastSampleAt,
     spark: (path) => channelOf(path).spark.read(),

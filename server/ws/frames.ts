@@ -13,17 +13,17 @@ export interface ViewState {
   carry: PendingBlock | null;
 }
 
-function pick(view: ViewState, block: PendingBlock, from: number, to: number, bucket: number): FrameMessage {
+function pick(view: ViewState, block: PendingBlock, from: number, to: number, bucket: number): FrameMessage<number[]> {
   const reduce = (v: number[]) => (bucket === 1 ? v.slice(from, to) : minMaxDecimate(v.slice(from, to), bucket));
   const traces: Record<string, number[]> = {};
   for (const [key, id] of view.traceIds) {
     const trace = block.traces.get(key);
     if (!trace) continue;
-    // JSON has no NaN or ±∞: a trace that diverged (an unstable candidate) is left out of the frame.
+    // A trace that diverged (an unstable candidate) is left out of the frame: the chart shows no NaN or ±∞.
     const points = reduce(trace);
     if (points.every(Number.isFinite)) traces[id] = points;
   }
-  const frame: FrameMessage = {
+  const frame: FrameMessage<number[]> = {
     type: "frame",
     channel: view.path,
     seq: block.lastSeq,
@@ -60,8 +60,8 @@ function continues(view: ViewState, carry: PendingBlock, block: PendingBlock): b
  * rollback), flushes the remainder as a short last bucket, so a new filter's trace shows from its
  * first sample. A frame's seq is the newest message it draws on.
  */
-export function buildFrames(view: ViewState, blocks: readonly PendingBlock[]): FrameMessage[] {
-  const frames: FrameMessage[] = [];
+export function buildFrames(view: ViewState, blocks: readonly PendingBlock[]): FrameMessage<number[]>[] {
+  const frames: FrameMessage<number[]>[] = [];
   for (const block of blocks) {
     if (view.bucket === 1) {
       frames.push(pick(view, block, 0, block.raw.length, 1));

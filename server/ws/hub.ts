@@ -5,11 +5,13 @@ import type { SessionData } from "@/lib/auth/session-config";
 import { AppError, errorMessage } from "@/lib/errors";
 import {
   clientMessageSchema,
+  encodeFrame,
   MAX_CANDIDATES_PER_CLIENT,
   SESSION_ENDED,
   TOO_MANY_MESSAGES,
+  WS_PROTOCOL_VERSION,
   type ClientMessage,
-  type ServerMessage,
+  type ControlMessage,
   type WsErrorCode,
 } from "@/lib/protocol";
 import { WorkBusy, WorkFailed, WorkTimeout } from "@/lib/workers/pool";
@@ -29,7 +31,8 @@ export interface ClientConn {
   user: SessionUser;
   /** What the session cookie held (user, session version, stored session), rechecked against the database. */
   session: SessionData;
-  send(text: string): void;
+  /** Sends a text message (JSON control) or a binary one (a frame). */
+  send(data: string | Uint8Array): void;
   /** Closes the socket (WebSocket close code and reason). */
   close(code: number, reason: string): void;
   /** Bytes queued for the socket but not yet sent (ws.bufferedAmount). */
@@ -67,6 +70,8 @@ export interface HubOptions {
   design: (spec: FilterSpec, owner: string) => Promise<FilterDesign>;
   /** Message rate per connection: `perSecond` sustained, `burst` at once (default 20/s, 40). */
   messageRate?: { perSecond: number; burst: number };
+  /** Partitioned: whether this sidecar filters the channel now; a subscriber of another's channel is told it moved. */
+  serves?: (path: string) => boolean;
   /** A client with more than this many bytes queued loses frames until it catches up. */
   maxBufferedBytes?: number;
   frameIntervalMs?: number;
@@ -84,10 +89,12 @@ export interface Hub {
   /** Sends metrics for the channels in one slice (channel index mod slices); no arguments: all of them. */
   metricsTick(slice?: number, slices?: number): void;
   statusTick(): void;
+  /** Tells the channel's subscribers it moved to another sidecar. */
+  moved(path: string): void;
   /** Sends one message to every open connection (lab-wide news such as alarms), stringified once. */
-  broadcast(message: ServerMessage): void;
+  broadcast(message: ControlMessage): void;
   /** Sends one message about a channel to the connections subscribed to it, stringified once. */
-  toSubscribers(channel: string, message: ServerMessage): void;
+  toSubscribers(channel: string, message: ControlMessage): void;
   /**
    * Checks every open connection's session against its account (one query): a missing or disabled
    * account or a bumped session version closes the socket with SESSION_ENDED; a changed role
@@ -128,7 +135,7 @@ function designRefusal(err: unknown): unknown {
 
 /**
  * Fans the pipeline out to WebSocket clients. Each tick drains every channel once; clients that
- * share a view (same trace set and bucket size) get one JSON text stringified once. A client whose
+ * share a view (same trace set and bucket size) get one binary frame encoded once. A client whose
  * socket is backed up loses frames (counted, reported in its status), never slowing the others.
  */
 export function createHub(opts: HubOptions): Hub {
@@ -139,11 +146,11 @@ export function createHub(opts: HubOptions): Hub {
   const timers: Timer[] = [];
   let recheck: Promise<void> | null = null;
 
-  function send(state: ClientState, message: ServerMessage): void {
+  function send(state: ClientState, message: ControlMessage): void {
     state.conn.send(JSON.stringify(message));
   }
 
-  function statusMessage(state: ClientState): ServerMessage {
+  function statusMessage(state: ClientState): ControlMessage {
     const all = opts.faults.byChannel();
     const faults = Object.fromEntries([...state.subs.keys()].filter((p) => all[p]).map((p) => [p, all[p]]));
     return { type: "status", mqtt: opts.busState(), droppedFrames: state.droppedFrames, faults };
@@ -178,6 +185,7 @@ export function createHub(opts: HubOptions): Hub {
     switch (msg.type) {
       case "subscribe":
         state.subs.set(msg.channel, state.subs.get(msg.channel) ?? { window: null });
+        if (opts.serves && !opts.serves(msg.channel)) send(state, { type: "moved", channel: msg.channel });
         return;
       case "unsubscribe":
         state.subs.delete(msg.channel);
@@ -270,18 +278,18 @@ export function createHub(opts: HubOptions): Hub {
   }
 
   function sendFrames(path: string, blocks: PendingBlock[]): void {
-    const texts = new Map<ViewState, string[]>();
+    const encoded = new Map<ViewState, Uint8Array[]>();
     for (const state of clients.values()) {
       const sub = state.subs.get(path);
       if (!sub) continue;
       const view = viewFor(state, path, sub);
-      let out = texts.get(view);
-      if (!out) texts.set(view, (out = buildFrames(view, blocks).map((f) => JSON.stringify(f))));
+      let out = encoded.get(view);
+      if (!out) encoded.set(view, (out = buildFrames(view, blocks).map(encodeFrame)));
       if (state.conn.bufferedAmount() > maxBuffered) {
         state.droppedFrames += out.length;
         continue;
       }
-      for (const text of out) state.conn.send(text);
+      for (const bytes of out) state.conn.send(bytes);
     }
   }
 
@@ -332,7 +340,7 @@ export function createHub(opts: HubOptions): Hub {
       };
       clients.set(conn.id, state);
       const channels = opts.pipeline.paths().map((path) => ({ path, sampleRateHz: opts.pipeline.channel(path)!.sampleRateHz }));
-      send(state, { type: "hello", protocol: 1, role: conn.user.role, channels });
+      send(state, { type: "hello", protocol: WS_PROTOCOL_VERSION, role: conn.user.role, channels });
       send(state, statusMessage(state));
     },
     remove(id) {
@@ -383,6 +391,9 @@ export function createHub(opts: HubOptions): Hub {
         for (const [path, sub] of state.subs) live.add(viewFor(state, path, sub));
       }
       for (const [key, view] of views) if (!live.has(view)) views.delete(key);
+    },
+    moved(path) {
+      for (const state of clients.values()) if (state.subs.has(path)) send(state, { type: "moved", channel: path });
     },
     broadcast(message) {
       const text = JSON.stringify(message);

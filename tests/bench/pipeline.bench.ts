@@ -7,21 +7,28 @@
  * browser-like WebSocket client run in a child process so they are not counted. Latency is from
  * the publish of a message to the arrival of the frame that carries it, frame interval included.
  * Loopback only; the channel-count search is bounded and stops by itself. Last line: JSON.
+ *
+ * Then the partitioned set-up: CLUSTER_CHANNELS channels held by two sidecars (child processes, their
+ * CPU read from /proc) on one Debian mosquitto (BENCH_MQTT_PORT, default 18950), the browser-like
+ * client connected to both, each channel on the socket of its owner (from the leases).
  */
-import { fork } from "node:child_process";
+import { fork, type ChildProcess } from "node:child_process";
+import { readFileSync } from "node:fs";
 import { monitorEventLoopDelay } from "node:perf_hooks";
 import { fileURLToPath } from "node:url";
 import { sealData } from "iron-session";
 import mqtt from "mqtt";
 import pg from "pg";
 import WebSocket from "ws";
-import { createDb } from "@/db/client";
+import { createDb, type Db } from "@/db/client";
 import { createSession } from "@/db/queries/sessions";
 import { hashPassword } from "@/lib/auth/password";
 import { designFilter } from "@/lib/dsp";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
-import { encodeBinarySamples, samplesTopic, type ServerMessage } from "@/lib/protocol";
+import { decodeFrame, encodeBinarySamples, samplesTopic, type ServerMessage } from "@/lib/protocol";
+import { channelOwners } from "@/db/queries/leases";
 import { migrateToLatest } from "@/migrations/migrator";
+import { mosquitto } from "../integration/sidecar-support";
 import { startSidecar } from "@/server/sidecar";
 import { systemClock } from "@/server/clock";
 
@@ -34,8 +41,11 @@ const MAIN_SECONDS = 10;
 const STEP_SECONDS = 5;
 const MAX_CHANNELS = 512; // bound of the search
 const STEP = 64;
+/** Channels of the partitioned run (two sidecars); BENCH_CLUSTER_CHANNELS runs a smaller one (512 divided by a power of two). */
+const CLUSTER_CHANNELS = Number(process.env.BENCH_CLUSTER_CHANNELS ?? 1024);
+const CLUSTER_SIDECARS = 2;
 /** A step is sustained when p99 latency stays under this and no frame was dropped or lost. */
-const P99_LIMIT_MS = 250;
+const P99_LIMIT_MS = 50;
 const SECRET = "pipeline-bench-secret-0123456789abcdef0123456789";
 
 const CANDIDATES = [
@@ -47,9 +57,9 @@ const CANDIDATES = [
 
 interface LoadJob {
   mqttUrl: string;
-  httpPort: number;
+  /** One WebSocket per sidecar, with the channels it holds. */
+  targets: Array<{ wsUrl: string; paths: string[] }>;
   cookie: string;
-  paths: string[];
   seconds: number;
 }
 
@@ -68,35 +78,25 @@ function quantile(sorted: number[], q: number): number {
   return sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))];
 }
 
-/** Child process: devices publishing binary batches and one engineer's WebSocket with candidates on every channel. */
-async function runLoad(job: LoadJob): Promise<LoadResult> {
-  const ws = new WebSocket(`ws://127.0.0.1:${job.httpPort}/ws`, { headers: { cookie: job.cookie } });
-  const sentAt = new Map<string, number>();
-  const latencies: number[] = [];
-  let receivedSamples = 0;
-  let droppedFrames = 0;
-  /** Sequence numbers published inside the measured window. */
-  const window = { first: Infinity, last: Infinity };
+/** One engineer's WebSocket to a sidecar with candidates on each of its channels; resolves once all are added. */
+async function openLoadSocket(
+  target: LoadJob["targets"][number],
+  cookie: string,
+  onMessage: (m: ServerMessage) => void,
+): Promise<WebSocket> {
+  const ws = new WebSocket(target.wsUrl, { headers: { cookie } });
   let barrier: (() => void) | undefined;
-  ws.on("message", (data) => {
-    const m = JSON.parse(data.toString()) as ServerMessage;
-    if (m.type === "frame") {
-      const t = sentAt.get(`${m.channel}#${m.seq}`);
-      if (m.seq >= window.first && m.seq <= window.last && t !== undefined) {
-        latencies.push(performance.now() - t);
-        receivedSamples += m.samples;
-      }
-    } else if (m.type === "status") {
-      droppedFrames = Math.max(droppedFrames, m.droppedFrames);
-    } else if (m.type === "error" && m.code === "unknown_channel") {
-      barrier?.();
-    }
+  ws.on("message", (data, isBinary) => {
+    const decoded = isBinary ? decodeFrame(new Uint8Array(data as Buffer)) : null;
+    const m = decoded?.ok ? decoded.frame : (JSON.parse(data.toString()) as ServerMessage);
+    if (m.type === "error" && m.code === "unknown_channel") barrier?.();
+    else onMessage(m);
   });
   await new Promise<void>((resolve, reject) => {
     ws.once("open", () => resolve());
     ws.once("error", reject);
   });
-  for (const channel of job.paths) {
+  for (const channel of target.paths) {
     ws.send(JSON.stringify({ type: "subscribe", channel }));
     CANDIDATES.forEach((spec, i) => ws.send(JSON.stringify({ type: "candidate.add", channel, id: `k${i}`, spec })));
   }
@@ -104,9 +104,35 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
     barrier = resolve;
     ws.send(JSON.stringify({ type: "subscribe", channel: "no/such/channel" }));
   });
+  return ws;
+}
 
+/** Child process: devices publishing binary batches and one engineer's WebSocket per sidecar with candidates on every channel. */
+async function runLoad(job: LoadJob): Promise<LoadResult> {
+  const sentAt = new Map<string, number>();
+  const latencies: number[] = [];
+  let receivedSamples = 0;
+  const dropped = new Map<number, number>();
+  /** Sequence numbers published inside the measured window. */
+  const window = { first: Infinity, last: Infinity };
+  const sockets = await Promise.all(
+    job.targets.map((target, k) =>
+      openLoadSocket(target, job.cookie, (m) => {
+        if (m.type === "frame") {
+          const t = sentAt.get(`${m.channel}#${m.seq}`);
+          if (m.seq >= window.first && m.seq <= window.last && t !== undefined) {
+            latencies.push(performance.now() - t);
+            receivedSamples += m.samples;
+          }
+        } else if (m.type === "status") {
+          dropped.set(k, Math.max(dropped.get(k) ?? 0, m.droppedFrames));
+        }
+      }),
+    ),
+  );
+  const paths = job.targets.flatMap((t) => t.paths);
   const devices = new Map<string, string[]>();
-  for (const p of job.paths) {
+  for (const p of paths) {
     const device = p.split("/").slice(0, 2).join("/");
     devices.set(device, [...(devices.get(device) ?? []), p]);
   }
@@ -146,26 +172,41 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
   process.send?.({ type: "stopped" });
   await new Promise((r) => setTimeout(r, 1000)); // let the last frames arrive
   clearInterval(timer);
-  ws.close();
-  await Promise.all(clients.map((c) => c.endAsync()));
+  for (const ws of sockets) ws.close();
+  // Forced: an overloaded run may hold a backlog of QoS 0 publishes that would otherwise be flushed first.
+  await Promise.all(clients.map((c) => c.endAsync(true)));
+  const droppedFrames = [...dropped.values()].reduce((a, b) => a + b, 0);
   return { published, publishedSamples, receivedSamples, latenciesMs: latencies, droppedFrames, loadCpuShare };
 }
 
-async function step(job: LoadJob) {
+/** CPU time (ms) this process has used: the in-process sidecar's. */
+const ownCpuMs = (): number => {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1000;
+};
+
+/** CPU time (ms) of child processes from /proc/<pid>/stat (utime + stime, fields 14 and 15, in ticks of 10 ms: CLK_TCK 100). */
+const childrenCpuMs = (pids: number[]) => (): number =>
+  pids.reduce((sum, pid) => {
+    const fields = readFileSync(`/proc/${pid}/stat`, "utf8").replace(/^.*\) /, "").split(" ");
+    return sum + (Number(fields[11]) + Number(fields[12])) * 10;
+  }, 0);
+
+/** One measured run; `cpuMs` reads the sidecars' CPU time (this process's when the sidecar runs here, then its event loop delay is read too). */
+async function step(job: LoadJob, cpuMs: () => number = ownCpuMs) {
   const child = fork(fileURLToPath(import.meta.url), ["--load"], { execArgv: ["--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
-  let cpuStart = process.cpuUsage();
+  let cpuStart = cpuMs();
   let wallStart = performance.now();
   let cpuShare = Number.NaN;
   const loopDelay = monitorEventLoopDelay({ resolution: 5 });
   const result = await new Promise<LoadResult>((resolve, reject) => {
     child.on("message", (m: { type: string; result?: LoadResult }) => {
       if (m.type === "measuring") {
-        cpuStart = process.cpuUsage();
+        cpuStart = cpuMs();
         wallStart = performance.now();
         loopDelay.enable();
       } else if (m.type === "stopped") {
-        const used = process.cpuUsage(cpuStart);
-        cpuShare = (used.user + used.system) / 1000 / (performance.now() - wallStart);
+        cpuShare = (cpuMs() - cpuStart) / (performance.now() - wallStart);
         loopDelay.disable();
       } else if (m.type === "result" && m.result) {
         resolve(m.result);
@@ -179,17 +220,57 @@ async function step(job: LoadJob) {
   const coverage = result.publishedSamples ? result.receivedSamples / result.publishedSamples : 0;
   const p99 = quantile(sorted, 0.99);
   return {
-    channels: job.paths.length,
+    channels: job.targets.reduce((n, t) => n + t.paths.length, 0),
     messagesPerSecond: Math.round(result.published / job.seconds),
     p50Ms: Number(quantile(sorted, 0.5).toFixed(2)),
     p99Ms: Number(p99.toFixed(2)),
     sidecarCpuShare: Number(cpuShare.toFixed(3)),
-    sidecarLoopDelayP99Ms: Number((loopDelay.percentile(99) / 1e6).toFixed(1)),
+    sidecarCpuPerChannel: Number((cpuShare / job.targets.reduce((n, t) => n + t.paths.length, 0)).toFixed(5)),
+    sidecarLoopDelayP99Ms: cpuMs === ownCpuMs ? Number((loopDelay.percentile(99) / 1e6).toFixed(1)) : null,
     loadCpuShare: Number(result.loadCpuShare.toFixed(3)),
     droppedFrames: result.droppedFrames,
     sampleCoverage: Number(coverage.toFixed(4)),
     sustained: p99 < P99_LIMIT_MS && result.droppedFrames === 0 && coverage > 0.99,
   };
+}
+
+/** A partitioned sidecar as its own process (the lease tests' runner, in bench mode); resolves when it serves. */
+function startLeaseSidecar(dbUrl: string, mqttUrl: string, id: string, port: number): Promise<ChildProcess> {
+  const entry = fileURLToPath(new URL("../integration/support/lease-sidecar.ts", import.meta.url));
+  const child = fork(entry, [dbUrl, mqttUrl, id, String(port), SECRET, "bench"], { execArgv: ["--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
+  return new Promise((resolve, reject) => {
+    child.on("message", (m: { type: string }) => m.type === "ready" && resolve(child));
+    child.once("exit", (code) => reject(new Error(`sidecar ${id} exited with ${code}`)));
+  });
+}
+
+/** CLUSTER_CHANNELS channels on CLUSTER_SIDECARS sidecars sharing one Debian mosquitto, once the leases are balanced. */
+async function clusterRun(db: Db, dbUrl: string, cookie: string, paths: string[]) {
+  const broker = await mosquitto(undefined, Number(process.env.BENCH_MQTT_PORT ?? 18950));
+  const basePort = Number(process.env.BENCH_SIDECAR_PORT ?? 3350);
+  const ids = Array.from({ length: CLUSTER_SIDECARS }, (_, i) => `bench-${i}`);
+  const children: ChildProcess[] = [];
+  try {
+    for (const [i, id] of ids.entries()) children.push(await startLeaseSidecar(dbUrl, broker.url, id, basePort + i));
+    const share = paths.length / CLUSTER_SIDECARS;
+    const stride = Math.max(1, Math.floor(paths.length / CLUSTER_CHANNELS));
+    const end = Date.now() + 60_000;
+    let owners = await channelOwners(db);
+    while (owners.size < paths.length || ids.some((id) => [...owners.values()].filter((o) => o.sidecarId === id).length !== share)) {
+      if (Date.now() > end) throw new Error("the leases did not balance within 60 s");
+      await new Promise((r) => setTimeout(r, 200));
+      owners = await channelOwners(db);
+    }
+    const targets = ids.map((id, i) => ({
+      wsUrl: `ws://127.0.0.1:${basePort + i}/ws`,
+      // Every stride-th channel, so a smaller run still spreads over both halves of the lab.
+      paths: paths.filter((path, i) => i % stride === 0 && owners.get(path)?.sidecarId === id),
+    }));
+    return await step({ mqttUrl: broker.url, targets, cookie, seconds: MAIN_SECONDS }, childrenCpuMs(children.map((c) => c.pid ?? 0)));
+  } finally {
+    for (const child of children) child.kill("SIGKILL");
+    await broker.stop();
+  }
 }
 
 async function main(): Promise<void> {
@@ -206,7 +287,7 @@ async function main(): Promise<void> {
     await migrateToLatest(db);
     const rig = await db.insertInto("rigs").values({ key: "bench", name: "Bench rig" }).returning("id").executeTakeFirstOrThrow();
     const paths: string[] = [];
-    for (let d = 0; d < MAX_CHANNELS / CHANNELS_PER_DEVICE; d++) {
+    for (let d = 0; d < Math.max(CLUSTER_CHANNELS, MAX_CHANNELS) / CHANNELS_PER_DEVICE; d++) {
       const key = `node-${String(d).padStart(3, "0")}`;
       const dev = await db.insertInto("devices").values({ rig_id: rig.id, key, name: key }).returning("id").executeTakeFirstOrThrow();
       const rows = Array.from({ length: CHANNELS_PER_DEVICE }, (_, c) => ({
@@ -231,7 +312,12 @@ async function main(): Promise<void> {
       ws: { messageRate: { perSecond: 1e6, burst: 1e6 } },
     });
     try {
-      const job = (n: number, seconds: number): LoadJob => ({ mqttUrl: sidecar.mqttUrl, httpPort: sidecar.httpPort, cookie, paths: paths.slice(0, n), seconds });
+      const job = (n: number, seconds: number): LoadJob => ({
+        mqttUrl: sidecar.mqttUrl,
+        targets: [{ wsUrl: `ws://127.0.0.1:${sidecar.httpPort}/ws`, paths: paths.slice(0, n) }],
+        cookie,
+        seconds,
+      });
       const main = await step(job(MAIN_CHANNELS, MAIN_SECONDS));
       console.log(`${MAIN_CHANNELS} channels × ${FS} Hz × ${CANDIDATES_PER_CHANNEL} candidates:`, main);
       let largestSustained = main.sustained ? MAIN_CHANNELS : 0;
@@ -262,6 +348,9 @@ async function main(): Promise<void> {
     } finally {
       await sidecar.close();
     }
+    const cluster = await clusterRun(db, url.toString(), cookie, paths);
+    console.log(`${CLUSTER_CHANNELS} channels on ${CLUSTER_SIDECARS} sidecars and mosquitto:`, cluster);
+    console.log(JSON.stringify({ bench: "pipeline-cluster", sidecars: CLUSTER_SIDECARS, target: { channels: CLUSTER_CHANNELS, p99Ms: P99_LIMIT_MS }, ...cluster }));
   } finally {
     await db.destroy();
     await admin.query(`drop database if exists "${name}" with (force)`);

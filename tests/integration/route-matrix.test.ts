@@ -61,6 +61,7 @@ const ROUTES: Record<string, RoutePolicy> = {
   "GET /api/v1/deployments/[id]": { access: "operator", token: true },
   "POST /api/v1/deployments/rollback": { access: "lead" },
   "GET /api/v1/live/overview": { access: "operator" },
+  "GET /api/v1/live/owner": { access: "operator", query: `channel=${CHANNEL}` },
   "GET /api/v1/recordings": { access: "operator" },
   "POST /api/v1/recordings": { access: "engineer" },
   "GET /api/v1/recordings/[id]": { access: "operator" },

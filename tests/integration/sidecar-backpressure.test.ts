@@ -35,7 +35,8 @@ describe("a slow WebSocket client", () => {
     // The slow browser stops reading: its socket fills, then the sidecar's send buffer for it grows.
     unchecked<{ _socket: { pause(): void } }>(slow.ws)._socket.pause();
 
-    const rounds = 150;
+    // Frames are float32 (4 bytes a value): enough rounds to fill the loopback socket buffers well past maxBufferedBytes.
+    const rounds = 500;
     const values = Array.from({ length: 5000 }, (_, i) => Math.sin(i / 7) * 12.345678901234);
     const payload = (seq: number) => encodeBinarySamples({ seq, t0: seq * 1000, sampleRateHz: 5000, values });
     for (let seq = 0; seq < rounds; seq++) {

@@ -48,6 +48,8 @@ async function publishAndTick(path: string, payloads: Array<string | Uint8Array>
   sidecar.hub.tick();
 }
 
+const asFloat32 = (values: ArrayLike<number>): number[] => Array.from(values, Math.fround);
+
 function framesFor(path: string, from: number): FrameMessage[] {
   return socket.messages.slice(from).filter((m): m is FrameMessage => m.type === "frame" && m.channel === path);
 }
@@ -69,13 +71,14 @@ describe("live stream end to end (device → embedded broker → pipeline → We
     await publishAndTick(STRAIN, payloads);
     await until(() => framesFor(STRAIN, mark).length > 0, 5000, "a frame");
 
+    // Frames carry float32 columns (protocol 2): each value is the float32 rounding of the sidecar's float64 result.
     const [frame] = framesFor(STRAIN, mark);
-    expect(frame.raw).toEqual(Array.from(x));
+    expect(Array.from(frame.raw)).toEqual(asFloat32(x));
     expect(frame.decimated).toBe(false);
     expect(frame.t0).toBe(1_700_000_000_000);
     expect(frame.seq).toBe(11);
-    expect(frame.traces.lp).toEqual(Array.from(filterSignal(designFilter(candidate), x, { initial: "step" })));
-    expect(frame.traces.production).toEqual(Array.from(filterSignal(notch, x, { initial: "step" })));
+    expect(Array.from(frame.traces.lp)).toEqual(asFloat32(filterSignal(designFilter(candidate), x, { initial: "step" })));
+    expect(Array.from(frame.traces.production)).toEqual(asFloat32(filterSignal(notch, x, { initial: "step" })));
   });
 
   it("binary payloads are filtered like their float32 values", async () => {
@@ -90,8 +93,8 @@ describe("live stream end to end (device → embedded broker → pipeline → We
     await until(() => framesFor(RAM, mark).length > 0, 5000, "a frame");
     const stored = Float64Array.from(new Float32Array(x));
     const [frame] = framesFor(RAM, mark);
-    expect(frame.raw).toEqual(Array.from(stored));
-    expect(frame.traces.b1).toEqual(Array.from(filterSignal(designFilter(spec), stored, { initial: "step" })));
+    expect(Array.from(frame.raw)).toEqual(Array.from(stored));
+    expect(Array.from(frame.traces.b1)).toEqual(asFloat32(filterSignal(designFilter(spec), stored, { initial: "step" })));
   });
 
   it("a window wider than maxPoints decimates with min/max buckets that keep every extreme", async () => {
@@ -115,7 +118,7 @@ describe("live stream end to end (device → embedded broker → pipeline → We
       const slice = Array.from(x.subarray(b * 200, b * 200 + 200));
       const lo = slice.indexOf(Math.min(...slice));
       const hi = slice.indexOf(Math.max(...slice));
-      expect(frame.raw.slice(2 * b, 2 * b + 2)).toEqual(lo < hi ? [slice[lo], slice[hi]] : [slice[hi], slice[lo]]);
+      expect(Array.from(frame.raw.slice(2 * b, 2 * b + 2))).toEqual(asFloat32(lo < hi ? [slice[lo], slice[hi]] : [slice[hi], slice[lo]]));
     }
     expect(Math.max(...frame.raw)).toBe(5000);
     expect(Math.min(...frame.raw)).toBe(-5000);

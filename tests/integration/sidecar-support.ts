@@ -13,7 +13,7 @@ import { designFilter } from "@/lib/dsp";
 import { seedDemo } from "@/db/seed";
 import { seedDemoDeviceCredentials } from "@/db/seed-device-credentials";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
-import { configTopic, deviceConfigSchema, type DeviceConfig, type ServerMessage } from "@/lib/protocol";
+import { configTopic, decodeFrame, deviceConfigSchema, type DeviceConfig, type ServerMessage } from "@/lib/protocol";
 import { systemClock, type Logger } from "@/server/clock";
 import { startSidecar, type Sidecar, type SidecarOptions } from "@/server/sidecar";
 import { freshDb } from "./support/fresh-db";
@@ -91,7 +91,12 @@ export function openSocket(port: number, cookie?: string): Promise<TestSocket> {
     const ws = new WebSocket(`ws://127.0.0.1:${port}/ws`, { headers: cookie ? { cookie } : {} });
     const messages: ServerMessage[] = [];
     let seen = 0;
-    ws.on("message", (data) => messages.push(JSON.parse(data.toString()) as ServerMessage));
+    ws.on("message", (data, isBinary) => {
+      if (!isBinary) return messages.push(JSON.parse(data.toString()) as ServerMessage);
+      const decoded = decodeFrame(new Uint8Array(data as Buffer));
+      if (!decoded.ok) throw new Error(`bad frame: ${decoded.reason}`);
+      messages.push(decoded.frame);
+    });
     ws.on("unexpected-response", (_req, res) => reject(new Error(`HTTP ${res.statusCode}`)));
     ws.on("error", reject);
     ws.on("open", () =>
@@ -138,12 +143,13 @@ export function freePort(): Promise<number> {
 /**
  * Debian's mosquitto on a loopback port with a throwaway config; stop() kills it, start() brings it
  * back on the same port. `auth` switches anonymous access off and loads a password file (made with
- * mosquitto_passwd) and an ACL file.
+ * mosquitto_passwd) and an ACL file. `port` pins the listener (default: a free one).
  */
 export async function mosquitto(
   auth?: { users: Array<{ username: string; password: string }>; aclFile: string },
+  fixedPort?: number,
 ): Promise<{ port: number; url: string; start: () => Promise<void>; stop: () => Promise<void> }> {
-  const port = await freePort();
+  const port = fixedPort ?? (await freePort());
   const dir = mkdtempSync(join(tmpdir(), "tw-mosquitto-"));
   const conf = join(dir, "mosquitto.conf");
   let access = "allow_anonymous true\n";

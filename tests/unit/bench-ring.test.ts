@@ -43,7 +43,7 @@ describe("TraceRing", () => {
   });
 });
 
-function frame(t0: number, raw: number[], traces: Record<string, number[]> = {}): FrameMessage {
+function frame(t0: number, raw: number[], traces: Record<string, number[]> = {}): FrameMessage<number[]> {
   return { type: "frame", channel: "a/b/c", seq: 1, t0, sampleRateHz: 1000, raw, traces, samples: raw.length, decimated: false };
 }
 

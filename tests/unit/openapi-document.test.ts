@@ -13,6 +13,7 @@ import { createSetSchema } from "@/app/api/v1/sets/schema";
  */
 const UNDOCUMENTED = [
   "/api/v1/live/overview",
+  "/api/v1/live/owner",
   "/api/v1/recordings",
   "/api/v1/recordings/{id}",
   "/api/v1/recordings/{id}/samples",

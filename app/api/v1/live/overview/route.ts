@@ -1,5 +1,7 @@
 import { requireUser } from "@/app/_lib/auth";
-import { liveOverviewSchema, type LiveOverview } from "@/lib/protocol";
+import { db } from "@/db";
+import { liveSidecars } from "@/db/queries/leases";
+import { liveOverviewSchema, mergeOverviews, type LiveOverview } from "@/lib/protocol";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { handler } from "@/lib/http/handler";
@@ -11,11 +13,11 @@ const SIDECAR_TIMEOUT_MS = 1_500;
 
 const DOWN = "The live service is not running or not answering. Start the sidecar (node --import tsx server/main.ts) and reload.";
 
-/** The sidecar's lab-wide live state, from its loopback /overview; 503 when it cannot be reached or answers badly. */
-async function sidecarOverview(port: number): Promise<LiveOverview> {
+/** A sidecar's live state of its channels, from its /overview; 503 when it cannot be reached or answers badly. */
+async function sidecarOverview(url: string): Promise<LiveOverview> {
   let res: Response;
   try {
-    res = await fetch(`http://127.0.0.1:${port}/overview`, { cache: "no-store", signal: AbortSignal.timeout(SIDECAR_TIMEOUT_MS) });
+    res = await fetch(url, { cache: "no-store", signal: AbortSignal.timeout(SIDECAR_TIMEOUT_MS) });
   } catch {
     throw new AppError("unavailable", DOWN);
   }
@@ -24,9 +26,27 @@ async function sidecarOverview(port: number): Promise<LiveOverview> {
   return parsed.data;
 }
 
-/** GET /api/v1/live/overview: online state, last sample, production revision, sparkline and faults of every channel. Any signed-in role. */
+/** A partitioned sidecar's /overview, beside the WebSocket URL it advertises (ws → http, wss → https). */
+function overviewUrl(wsUrl: string): string {
+  const url = new URL(wsUrl);
+  url.protocol = url.protocol === "wss:" ? "https:" : "http:";
+  url.pathname = "/overview";
+  return url.toString();
+}
+
+/**
+ * GET /api/v1/live/overview: online state, last sample, production revision, sparkline and faults of
+ * every channel, from the one sidecar or merged from every live partitioned sidecar. Any signed-in role.
+ */
 export const GET = handler(async () => {
   await requireUser();
-  const overview = await sidecarOverview(env().SIDECAR_PORT);
+  const e = env();
+  const sidecars = await liveSidecars(db(), e.LEASE_TTL_MS);
+  const urls = sidecars.length ? sidecars.map((s) => overviewUrl(s.wsUrl)) : [`http://127.0.0.1:${e.SIDECAR_PORT}/overview`];
+  // A sidecar that just died is listed until its heartbeat ages out: the others' channels still show.
+  const answers = await Promise.allSettled(urls.map(sidecarOverview));
+  const parts = answers.flatMap((a) => (a.status === "fulfilled" ? [a.value] : []));
+  if (!parts.length) throw new AppError("unavailable", DOWN);
+  const overview = mergeOverviews(parts);
   return Response.json(overview, { headers: { "cache-control": "no-store" } });
 });

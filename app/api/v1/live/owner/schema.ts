@@ -1,0 +1,4 @@
+import { z } from "zod";
+import { channelPathSchema } from "@/lib/protocol";
+
+export const ownerQuerySchema = z.object({ channel: channelPathSchema }).strict();

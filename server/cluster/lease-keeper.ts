@@ -1,0 +1,119 @@
+import type { Db } from "@/db/client";
+import { leaseRound, leaveSidecars, releaseLeases, type LeasedChannel } from "@/db/queries/leases";
+import type { Clock, Logger, Timer } from "../clock";
+
+export interface LeaseKeeperOptions {
+  db: Db;
+  /** SIDECAR_ID: a key unique among the sidecars sharing the database. */
+  id: string;
+  /** Where browsers reach this sidecar's WebSocket (SIDECAR_WS_URL). */
+  wsUrl: string;
+  /** A lease lives this long past its last renewal (ms); a silent sidecar's channels move after it. */
+  ttlMs: number;
+  /** Heartbeat and renewal period (ms), well under ttlMs. */
+  heartbeatMs: number;
+  clock: Clock;
+  logger: Logger;
+  /** Starts filtering a channel whose lease this sidecar now holds (subscribe, production filter). */
+  start(channel: LeasedChannel): Promise<void>;
+  /** Stops filtering a channel (unsubscribe, clear); it is released or already lost. */
+  stop(path: string): Promise<void>;
+  /** After each round, with the channels held (to pick up promotions made by another sidecar). */
+  refresh?(held: LeasedChannel[]): Promise<void>;
+}
+
+export interface LeaseKeeper {
+  /** Whether this sidecar may filter the channel now: it holds the lease and its last renewal is still in force. */
+  owns(path: string): boolean;
+  /** Paths held and in force now. */
+  owned(): string[];
+  /** One heartbeat round (the timer runs them; tests may call it). */
+  round(): Promise<void>;
+  start(): void;
+  /** Stops every channel, gives up the leases and leaves, so the others take over at once. */
+  close(): Promise<void>;
+}
+
+/**
+ * Keeps this sidecar's share of the channels through PostgreSQL leases (db/queries/leases.ts). Every
+ * heartbeat it renews what it holds, takes free channels up to its fair share, and stops then
+ * releases what is past it. It fences itself: a lease counts only until the local time the last
+ * renewal started plus the ttl less a margin, so when the database cannot be reached it stops its
+ * channels before any other sidecar may take them (they wait for expiry on the database's clock).
+ */
+export function createLeaseKeeper(opts: LeaseKeeperOptions): LeaseKeeper {
+  const { clock, logger } = opts;
+  /** Stop this long before the lease's own expiry: timer lateness and clock-rate differences. */
+  const marginMs = Math.max(opts.heartbeatMs, opts.ttlMs / 5);
+  const running = new Map<string, LeasedChannel>();
+  let validUntil = 0;
+  let inFlight: Promise<void> | null = null;
+  let timer: Timer | undefined;
+  let closed = false;
+
+  const inForce = () => clock.now() < validUntil;
+
+  async function stopAll(why: string): Promise<void> {
+    if (!running.size) return;
+    logger.warn(`stopping ${running.size} channels: ${why}`);
+    for (const path of [...running.keys()]) await stopOne(path);
+  }
+
+  async function stopOne(path: string): Promise<void> {
+    running.delete(path);
+    await opts.stop(path).catch((err: unknown) => logger.warn(`stopping ${path}: ${err instanceof Error ? err.message : String(err)}`));
+  }
+
+  async function roundOnce(): Promise<void> {
+    const startedAt = clock.now();
+    const result = await leaseRound(opts.db, opts.id, opts.wsUrl, opts.ttlMs);
+    if (closed) return;
+    validUntil = startedAt + opts.ttlMs - marginMs;
+    const held = new Map(result.held.map((c) => [c.path, c]));
+    for (const path of [...running.keys()]) if (!held.has(path)) await stopOne(path);
+    if (result.surplus.length) {
+      await releaseLeases(opts.db, opts.id, result.surplus.map((c) => c.channelId));
+      logger.info(`released ${result.surplus.length} channels to the other sidecars (${result.sidecars} live)`);
+    }
+    for (const channel of held.values()) {
+      if (running.has(channel.path) || !inForce()) continue;
+      try {
+        await opts.start(channel);
+        running.set(channel.path, channel);
+      } catch (err) {
+        logger.warn(`starting ${channel.path}: ${err instanceof Error ? err.message : String(err)}`);
+      }
+    }
+    await opts.refresh?.([...running.values()]);
+  }
+
+  const keeper: LeaseKeeper = {
+    owns: (path) => running.has(path) && inForce(),
+    owned: () => (inForce() ? [...running.keys()] : []),
+    round() {
+      inFlight ??= roundOnce()
+        .catch((err: unknown) => logger.warn(`lease round failed: ${err instanceof Error ? err.message : String(err)}`))
+        .finally(() => {
+          inFlight = null;
+        });
+      return inFlight;
+    },
+    start() {
+      timer = clock.setInterval(() => {
+        if (!inForce()) void stopAll("leases not renewed in time (database unreachable?)");
+        void keeper.round();
+      }, opts.heartbeatMs);
+    },
+    async close() {
+      closed = true;
+      if (timer !== undefined) clock.clearInterval(timer);
+      await inFlight;
+      validUntil = 0;
+      await stopAll("shutting down");
+      await leaveSidecars(opts.db, opts.id).catch((err: unknown) =>
+        logger.warn(`leaving the sidecar list: ${err instanceof Error ? err.message : String(err)}`),
+      );
+    },
+  };
+  return keeper;
+}
