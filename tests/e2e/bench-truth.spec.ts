@@ -48,7 +48,7 @@ test("pasted coefficients with a0 = 0 are refused beside the field, and nothing 
   await expect(bench.summary(candidate)).toHaveText("Pasted b/a · 3/1 coefficients");
 
   await bench.editor.getByLabel("a (denominator, empty for FIR)").fill("0, 1");
-  await expect(bench.editor.getByRole("alert").filter({ hasText: "a[0] must be nonzero" })).toBeVisible();
+  await expect(bench.editor.getByRole("alert").filter({ hasText: "a0, must be nonzero" })).toBeVisible();
   await expect(bench.editor.getByRole("status").filter({ hasText: "Not applied" })).toBeVisible();
   await expect(bench.editor.getByRole("region", { name: "Save" }).getByRole("button", { name: "Save as a new set" })).toBeDisabled();
   await expect(bench.summary(candidate)).toHaveText("Pasted b/a · 3/1 coefficients");
