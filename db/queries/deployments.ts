@@ -17,6 +17,7 @@ import { deploymentMail, type DeploymentRef } from "@/lib/mail/templates";
 import { decide } from "@/lib/workflow";
 import type { Db } from "../client";
 import type { Database, DeploymentKind } from "../types";
+import { readChannelConfig, readDesign, readSpec } from "../json-columns";
 import { appendAudit } from "./audit";
 import { channelPathSql, findChannelByPath, type ChannelRow } from "./channels";
 import { enqueueMail, leadAddresses, userAddress } from "./mail";
@@ -29,7 +30,8 @@ export const DEPLOY_CHANNEL = "tapwright_deploy";
 
 const pathExpr = channelPathSql("rg", "d", "c");
 
-function deploymentQuery(db: Db) {
+/** Deployments with their channel, revision, set and requester: every column but the JSON ones. */
+function summaryQuery(db: Db) {
   return db
     .selectFrom("deployments as p")
     .innerJoin("revisions as r", "r.id", "p.revision_id")
@@ -47,7 +49,6 @@ function deploymentQuery(db: Db) {
       "p.state",
       "p.format",
       "p.checksum",
-      "p.config",
       "p.previous_id as previousId",
       "p.requested_at as requestedAt",
       "p.activated_at as activatedAt",
@@ -64,8 +65,6 @@ function deploymentQuery(db: Db) {
       "r.id as revisionId",
       "r.revision",
       "r.author_id as authorId",
-      "r.design",
-      "r.spec",
       "s.id as setId",
       "s.name as setName",
       channelPathSql("sr", "sd", "sc").as("setChannel"),
@@ -74,18 +73,32 @@ function deploymentQuery(db: Db) {
     ]);
 }
 
-export interface DeploymentView {
+/** The summary with the stored channel entry and the revision's spec and design (still unchecked). */
+function deploymentQuery(db: Db) {
+  return summaryQuery(db).select(["p.config", "r.design", "r.spec"]);
+}
+
+type DeploymentRow = Awaited<ReturnType<ReturnType<typeof deploymentQuery>["executeTakeFirstOrThrow"]>>;
+
+/** A deployment row with its JSON columns opened (each checked, see db/json-columns.ts). */
+function toView(row: DeploymentRow): DeploymentView {
+  const revision = { table: "revisions", id: row.revisionId } as const;
+  return {
+    ...row,
+    config: readChannelConfig(row.config, { table: "deployments", id: row.id }),
+    design: readDesign(row.design, revision),
+    spec: readSpec(row.spec, revision),
+  };
+}
+
+/** A deployment as lists show it: no stored entry, spec or design. */
+export interface DeploymentSummary {
   id: number;
   kind: DeploymentKind;
   state: "pending" | "active" | "superseded" | "failed" | "rolled_back";
   format: "f32" | "q15" | "q31";
   /** SHA-256 of canonicalJson(config): the content hash of what this channel runs. */
   checksum: string;
-  /**
-   * This channel's entry of the device configuration document as stored: the current form (lib/protocol
-   * channelConfigSchema) or, for deployments made before chains, the v2 form (see currentChannelConfig).
-   */
-  config: StoredChannelConfig;
   previousId: number | null;
   requestedAt: Date;
   activatedAt: Date | null;
@@ -102,8 +115,6 @@ export interface DeploymentView {
   revisionId: number;
   revision: number;
   authorId: number;
-  design: FilterDesign;
-  spec: FilterSpec;
   setId: number;
   setName: string;
   /** The set's own channel (a deployment may go to another channel of the same sample rate). */
@@ -115,23 +126,34 @@ export interface DeploymentView {
   passThrough: boolean;
 }
 
+/** A deployment with what it runs: the stored channel entry and the revision's spec and design. */
+export interface DeploymentView extends DeploymentSummary {
+  /**
+   * This channel's entry of the device configuration document as stored: the current form (lib/protocol
+   * channelConfigSchema) or, for deployments made before chains, the v2 form (see currentChannelConfig).
+   */
+  config: StoredChannelConfig;
+  design: FilterDesign;
+  spec: FilterSpec;
+}
+
 export async function findDeployment(db: Db, id: number): Promise<DeploymentView | undefined> {
-  return (await deploymentQuery(db).where("p.id", "=", id).executeTakeFirst()) as DeploymentView | undefined;
+  const row = await deploymentQuery(db).where("p.id", "=", id).executeTakeFirst();
+  return row && toView(row);
 }
 
-export async function listSetDeployments(db: Db, setId: number): Promise<DeploymentView[]> {
-  return (await deploymentQuery(db).where("s.id", "=", setId).orderBy("p.id", "desc").execute()) as DeploymentView[];
+export function listSetDeployments(db: Db, setId: number): Promise<DeploymentSummary[]> {
+  return summaryQuery(db).where("s.id", "=", setId).orderBy("p.id", "desc").execute();
 }
 
-export async function listChannelDeployments(db: Db, channelId: number, limit = 50): Promise<DeploymentView[]> {
-  return (await deploymentQuery(db).where("p.channel_id", "=", channelId).orderBy("p.id", "desc").limit(limit).execute()) as DeploymentView[];
+export function listChannelDeployments(db: Db, channelId: number, limit = 50): Promise<DeploymentSummary[]> {
+  return summaryQuery(db).where("p.channel_id", "=", channelId).orderBy("p.id", "desc").limit(limit).execute();
 }
 
 /** The active deployment of a channel: its production filter as the device acknowledged it. */
 export async function findActiveDeployment(db: Db, channelId: number): Promise<DeploymentView | undefined> {
-  return (await deploymentQuery(db).where("p.channel_id", "=", channelId).where("p.state", "=", "active").executeTakeFirst()) as
-    | DeploymentView
-    | undefined;
+  const row = await deploymentQuery(db).where("p.channel_id", "=", channelId).where("p.state", "=", "active").executeTakeFirst();
+  return row && toView(row);
 }
 
 /** The channel's production filter: its active deployment unless that is a return to no filter. */
@@ -141,7 +163,18 @@ export async function findProductionDeployment(db: Db, channelId: number): Promi
 }
 
 export async function listActiveDeployments(db: Db): Promise<DeploymentView[]> {
-  return (await deploymentQuery(db).where("p.state", "=", "active").execute()) as DeploymentView[];
+  return (await deploymentQuery(db).where("p.state", "=", "active").execute()).map(toView);
+}
+
+/** The revision each active deployment carries, with its set (no stored entries read). */
+export function listActiveRevisions(db: Db): Promise<{ revisionId: number; setId: number; setName: string; revision: number }[]> {
+  return db
+    .selectFrom("deployments as p")
+    .innerJoin("revisions as r", "r.id", "p.revision_id")
+    .innerJoin("coefficient_sets as s", "s.id", "r.set_id")
+    .select(["r.id as revisionId", "s.id as setId", "s.name as setName", "r.revision"])
+    .where("p.state", "=", "active")
+    .execute();
 }
 
 /** A channel of a device with its active deployment, if any (what the device runs once it acknowledged). */
@@ -163,7 +196,10 @@ export async function listDeviceChannelStates(db: Db, deviceId: number): Promise
   return rows.map((r) => ({
     channelId: r.channelId,
     channelKey: r.channelKey,
-    active: r.deploymentId === null ? null : { id: r.deploymentId, config: r.config as StoredChannelConfig, checksum: r.checksum! },
+    active:
+      r.deploymentId === null || r.config === null || r.checksum === null
+        ? null
+        : { id: r.deploymentId, config: readChannelConfig(r.config, { table: "deployments", id: r.deploymentId }), checksum: r.checksum },
   }));
 }
 

@@ -7,6 +7,7 @@ import { reviewDecisionMail, reviewRequestedMail, type RevisionRef } from "@/lib
 import { decide, TRANSITIONS, type RevisionState, type Transition } from "@/lib/workflow";
 import type { Db } from "../client";
 import type { Database } from "../types";
+import { readAnalysis, readDesign, readQuantized, readSpec } from "../json-columns";
 import { appendAudit } from "./audit";
 import { channelPathSql } from "./channels";
 import { enqueueMail, leadAddresses, userAddress } from "./mail";
@@ -69,21 +70,33 @@ export interface RevisionView {
   channel: string;
 }
 
+type RevisionRow = Awaited<ReturnType<ReturnType<typeof revisionQuery>["executeTakeFirstOrThrow"]>>;
+
+/** A revision row with its JSON columns opened (each checked, see db/json-columns.ts). */
+function toView(row: RevisionRow): RevisionView {
+  const at = { table: "revisions", id: row.id } as const;
+  return {
+    ...row,
+    spec: readSpec(row.spec, at),
+    design: readDesign(row.design, at),
+    quantized: readQuantized(row.quantized, at),
+    analysis: readAnalysis(row.analysis, at),
+  };
+}
+
 export async function findRevision(db: Db, id: number): Promise<RevisionView | undefined> {
-  return (await revisionQuery(db).where("r.id", "=", id).executeTakeFirst()) as RevisionView | undefined;
+  const row = await revisionQuery(db).where("r.id", "=", id).executeTakeFirst();
+  return row && toView(row);
 }
 
 export async function listRevisions(db: Db, setId: number): Promise<RevisionView[]> {
-  return (await revisionQuery(db).where("r.set_id", "=", setId).orderBy("r.revision", "desc").execute()) as RevisionView[];
+  return (await revisionQuery(db).where("r.set_id", "=", setId).orderBy("r.revision", "desc").execute()).map(toView);
 }
 
 /** Revisions waiting for a lead, oldest submission first. */
 export async function listAwaitingReview(db: Db): Promise<RevisionView[]> {
-  return (await revisionQuery(db)
-    .where("r.state", "=", "in_review")
-    .where("s.retired_at", "is", null)
-    .orderBy("r.state_changed_at")
-    .execute()) as RevisionView[];
+  const rows = await revisionQuery(db).where("r.state", "=", "in_review").where("s.retired_at", "is", null).orderBy("r.state_changed_at").execute();
+  return rows.map(toView);
 }
 
 export function listReviews(db: Db, setId: number) {
@@ -113,7 +126,8 @@ export interface TransitionInput {
 export async function transitionRevision(trx: Transaction<Database>, actor: SessionUser, input: TransitionInput): Promise<RevisionView> {
   const locked = await trx.selectFrom("revisions").select(["id", "state_version"]).where("id", "=", input.revisionId).forUpdate().executeTakeFirst();
   if (!locked) throw new AppError("not_found", "No such revision.");
-  const rev = (await findRevision(trx, input.revisionId)) as RevisionView;
+  const rev = await findRevision(trx, input.revisionId);
+  if (!rev) throw new AppError("not_found", "No such revision.");
   if (rev.stateVersion !== input.expectedVersion) {
     throw new AppError("conflict", `This revision changed since you opened it (it is now ${rev.state}). Reload and try again.`);
   }

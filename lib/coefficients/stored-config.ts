@@ -16,6 +16,9 @@ type LegacyChannelConfig = z.infer<typeof legacyChannelConfigSchema>;
 /** A deployment's stored channel entry: the current form, or the v2 form of deployments made before chains. */
 export type StoredChannelConfig = ChannelConfig | LegacyChannelConfig;
 
+/** Checks a stored channel entry in either form (db/json-columns.ts reads deployments.config with it). */
+export const storedChannelConfigSchema: z.ZodType<StoredChannelConfig> = z.union([channelConfigSchema, legacyChannelConfigSchema]);
+
 /**
  * The current (v3) form of a stored entry: a legacy entry's sections become one sections stage (an
  * empty list stays a unit filter), every word and row exactly as stored. Throws when the entry is

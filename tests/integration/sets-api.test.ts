@@ -1,5 +1,6 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { readAnalysis, readDesign, readQuantized } from "@/db/json-columns";
 import { actAs, butterSpec, jsonRequest, params, pathParams, setUpLab, type Accounts } from "./sets-fixture";
 
 vi.mock("@/db", async () => (await import("./sets-fixture")).dbModule);
@@ -33,7 +34,7 @@ describe("POST /api/v1/sets", () => {
     const rev = await lab.db.selectFrom("revisions").selectAll().where("id", "=", body.revisionId).executeTakeFirstOrThrow();
     expect(rev.device_format).toBe("q15");
     expect(rev.state).toBe("draft");
-    const analysis = rev.analysis as { stable: boolean; cutoffsHz: number[]; deployable: { ok: boolean } };
+    const analysis = readAnalysis(rev.analysis, { table: "revisions", id: rev.id });
     expect(analysis.stable).toBe(true);
     expect(analysis.cutoffsHz[0]).toBeCloseTo(100, 6); // a Butterworth is −3.0103 dB at fc: |H(jωc)|² = 1/2 (Butterworth 1930), kept by the prewarped bilinear map
     expect(analysis.deployable.ok).toBe(true);
@@ -116,8 +117,8 @@ describe("chains through the sets API", () => {
     const { setId, revisionId } = await res.json();
     const rev = await lab.db.selectFrom("revisions").select(["spec", "design", "quantized"]).where("id", "=", revisionId).executeTakeFirstOrThrow();
     expect(rev.spec).toEqual(chain);
-    expect((rev.design as { stages: unknown[] }).stages).toHaveLength(3);
-    expect((rev.quantized as { stages: { stage: number }[] }).stages.map((s) => s.stage)).toEqual([0, 1, 2]);
+    expect(readDesign(rev.design, { table: "revisions", id: revisionId }).stages).toHaveLength(3);
+    expect(readQuantized(rev.quantized, { table: "revisions", id: revisionId })?.stages?.map((s) => s.stage)).toEqual([0, 1, 2]);
     const next = { ...chain, stages: [{ ...notch(50), bypassed: true }, notch(150), butterSpec(150)] };
     const second = await revisionsRoute.POST(
       jsonRequest("POST", `/api/v1/sets/${setId}/revisions`, { spec: next, expectedLatestRevision: 1 }),
@@ -126,7 +127,7 @@ describe("chains through the sets API", () => {
     expect(second.status).toBe(201);
     const { revisionId: r2 } = await second.json();
     const stored = await lab.db.selectFrom("revisions").select("quantized").where("id", "=", r2).executeTakeFirstOrThrow();
-    expect((stored.quantized as { stages: { stage: number }[] }).stages.map((s) => s.stage)).toEqual([1, 2]); // the bypassed stage is kept in the spec, not run
+    expect(readQuantized(stored.quantized, { table: "revisions", id: r2 })?.stages?.map((s) => s.stage)).toEqual([1, 2]); // the bypassed stage is kept in the spec, not run
   });
 
   it("refuses a bad chain with 400 and the stage's path: 9 stages, a nested chain, a stage at another rate, no stages", async () => {
