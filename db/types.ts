@@ -2,7 +2,7 @@ import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "
 import type { Role } from "@/lib/auth/roles";
 import type { AlarmKind, AlarmSeverity, AlarmSignal, AlarmState, LimitSide } from "@/lib/protocol";
 import type { TokenScope } from "@/lib/auth/token-scope";
-import type { DeploymentState, RevisionState } from "@/lib/workflow/states";
+import type { DeploymentKind, DeploymentState, RevisionState } from "@/lib/workflow/states";
 import type { RevisionContent, StoredChannelConfig } from "@/lib/coefficients";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 
@@ -87,7 +87,7 @@ export interface DeviceCredentialsTable {
   created_at: CreatedAt;
 }
 
-export type DeploymentKind = "promote" | "rollback";
+export type { DeploymentKind };
 
 declare const stored: unique symbol;
 /**

@@ -75,3 +75,11 @@ export function entryDesign(entry: ChannelConfig, reference: FilterDesign): Filt
   if (stages.length === 1) return stages[0];
   return chainDesign(stages.map((s, k) => ({ ...s, stage: reference.stages?.[k].stage ?? k })), fs);
 }
+
+/**
+ * The production filter a deployment makes its channel run: exactly what its device acknowledged, the
+ * stored entry's coefficients at their real values (a chain for several stages); null for a unit filter.
+ */
+export function deployedDesign(d: { config: StoredChannelConfig; design: FilterDesign }): FilterDesign | null {
+  return entryDesign(currentChannelConfig(d.config), d.design);
+}

@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { findChannelByPath } from "@/db/queries/channels";
-import { deployedDesign, findActiveDeployment, findDeployment } from "@/db/queries/deployments";
-import { createSet } from "@/db/queries/sets";
+import { findActiveDeployment, findDeployment } from "@/db/queries/deployments";
+import { deployedDesign } from "@/lib/coefficients";
+import { createSet } from "@/db/workflow/sets";
 import { readQuantized } from "@/db/json-columns";
 import { buildRevisionContent, channelConfigChecksum, type StoredCoefficients } from "@/lib/coefficients";
 import { filterSignal, quantizedParts, simulateFixed, type FilterSpec } from "@/lib/dsp";
