@@ -9,6 +9,7 @@ vi.mock("@/app/_lib/auth", async () => (await import("./sets-fixture")).authModu
 const setsRoute = await import("@/app/api/v1/sets/route");
 const revisionsRoute = await import("@/app/api/v1/sets/[id]/revisions/route");
 const productionRoute = await import("@/app/api/v1/channels/[rig]/[device]/[channel]/production/route");
+const revisionRoute = await import("@/app/api/v1/revisions/[id]/route");
 
 let lab: Awaited<ReturnType<typeof setUpLab>>;
 let users: Accounts;
@@ -145,5 +146,44 @@ describe("chains through the sets API", () => {
     });
     expect(await refusal({ ...chain, stages: [] })).toEqual({ path: "spec.stages", message: "a chain needs at least 1 stage (got 0)" });
     expect((await createSet("chain at 2 kHz", { ...chain, sampleRateHz: 2000, stages: [notch(50, 2000)] })).status).toBe(422);
+  });
+});
+
+describe("a stored revision that no longer parses", () => {
+  it("is refused with 500 and a safe body, and the log names the table, the row and the column", async () => {
+    actAs(users.engineer);
+    const { revisionId } = await (await createSet("Torque LP stale row")).json();
+    const bad = await lab.db
+      .insertInto("revisions")
+      .columns(["set_id", "revision", "spec", "design", "device_format", "quantized", "analysis", "sample_rate_hz", "author_id"])
+      .expression((eb) =>
+        eb
+          .selectFrom("revisions")
+          .select([
+            "set_id",
+            sql<number>`2`.as("revision"),
+            sql<string>`'{"kind":"iir","family":"butterworth"}'::jsonb`.as("spec"),
+            "design",
+            "device_format",
+            "quantized",
+            "analysis",
+            "sample_rate_hz",
+            "author_id",
+          ])
+          .where("id", "=", revisionId),
+      )
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    const log = vi.spyOn(console, "error").mockImplementation(() => undefined);
+    try {
+      actAs(users.operator);
+      const res = await revisionRoute.GET(new Request(`http://test.local/api/v1/revisions/${bad.id}`), params({ id: String(bad.id) }));
+      expect(res.status).toBe(500);
+      expect(await res.json()).toEqual({ error: { code: "internal", message: "Something went wrong on the server." } });
+      expect(log.mock.calls.map((c) => c.join(" ")).join("\n")).toContain(`revisions row ${bad.id}: the stored spec no longer parses`);
+      expect((await revisionRoute.GET(new Request(`http://test.local/api/v1/revisions/${revisionId}`), params({ id: String(revisionId) }))).status).toBe(200);
+    } finally {
+      log.mockRestore();
+    }
   });
 });
