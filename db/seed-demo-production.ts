@@ -3,9 +3,9 @@ import type { SessionUser } from "@/lib/auth/guard";
 import { DEMO_PRODUCTION } from "@/lib/demo/lab";
 import type { Db } from "./client";
 import { findChannelByPath } from "./queries/channels";
-import { requestPromotion } from "./queries/deployments";
-import { transitionRevision } from "./queries/revisions";
-import { createSet } from "./queries/sets";
+import { requestPromotion } from "./workflow/deployments";
+import { transitionRevision } from "./workflow/review";
+import { createSet } from "./workflow/sets";
 import { findUserByEmail } from "./queries/users";
 
 async function demoUser(db: Db, email: string): Promise<SessionUser> {

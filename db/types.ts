@@ -2,7 +2,9 @@ import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "
 import type { Role } from "@/lib/auth/roles";
 import type { AlarmKind, AlarmSeverity, AlarmSignal, AlarmState, LimitSide } from "@/lib/protocol";
 import type { TokenScope } from "@/lib/auth/token-scope";
-import type { DeploymentState, RevisionState } from "@/lib/workflow/states";
+import type { DeploymentKind, DeploymentState, RevisionState } from "@/lib/workflow/states";
+import type { RevisionContent, StoredChannelConfig } from "@/lib/coefficients";
+import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 
 type CreatedAt = ColumnType<Date, Date | string | undefined, never>;
 
@@ -85,8 +87,17 @@ export interface DeviceCredentialsTable {
   created_at: CreatedAt;
 }
 
-export type DeploymentKind = "promote" | "rollback";
-type Json<T> = ColumnType<T, string, never>;
+export type { DeploymentKind };
+
+declare const stored: unique symbol;
+/**
+ * A JSON column's value as read: written as a T, but not yet checked. Only its reader in
+ * db/json-columns.ts opens it (parsing it with the column's zod schema), so nothing uses a stored
+ * value that no longer has the shape its type claims.
+ */
+export type StoredJson<T> = { readonly [stored]: T };
+/** A JSON column written once as JSON text (immutable after insert). */
+type Json<T> = ColumnType<StoredJson<T>, string, never>;
 
 export interface CoefficientSetsTable {
   id: Generated<number>;
@@ -105,11 +116,11 @@ export interface RevisionsTable {
   id: Generated<number>;
   set_id: ColumnType<number, number, never>;
   revision: ColumnType<number, number, never>;
-  spec: Json<unknown>;
-  design: Json<unknown>;
+  spec: Json<FilterSpec>;
+  design: Json<FilterDesign>;
   device_format: ColumnType<CoefficientFormat, CoefficientFormat, never>;
-  quantized: Json<unknown>;
-  analysis: Json<unknown>;
+  quantized: Json<RevisionContent["quantized"]>;
+  analysis: Json<RevisionContent["analysis"]>;
   sample_rate_hz: ColumnType<number, number, never>;
   author_id: ColumnType<number, number, never>;
   notes: ColumnType<string, string | undefined, never>;
@@ -135,7 +146,7 @@ export interface DeploymentsTable {
   kind: DeploymentKind;
   state: ColumnType<DeploymentState, DeploymentState | undefined, DeploymentState>;
   format: CoefficientFormat;
-  config: Json<unknown>;
+  config: Json<StoredChannelConfig>;
   checksum: string;
   previous_id: number | null;
   requested_by: number;
@@ -271,7 +282,7 @@ export interface BenchCandidatesTable {
   channel_id: ColumnType<number, number, never>;
   key: ColumnType<string, string, never>;
   color_index: number;
-  spec: ColumnType<unknown, string, string>;
+  spec: ColumnType<StoredJson<FilterSpec>, string, string>;
   created_at: CreatedAt;
   updated_at: ColumnType<Date, Date | string | undefined, Date | string>;
 }

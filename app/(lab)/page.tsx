@@ -7,7 +7,7 @@ import { LiveBanner } from "@/components/overview/live-banner";
 import { db } from "@/db";
 import { listAlarmRules } from "@/db/queries/alarm-rules";
 import { listChannels, type ChannelRow } from "@/db/queries/channels";
-import { listActiveDeployments } from "@/db/queries/deployments";
+import { listActiveRevisions } from "@/db/queries/deployments";
 import { env } from "@/lib/env";
 import { formatHz } from "@/lib/format/units";
 import { WS_PATH } from "@/lib/protocol";
@@ -26,7 +26,7 @@ function groupByRig(channels: ChannelRow[]) {
 
 /** Active revisions by id, so a card can name the production filter the sidecar reports and link its set. */
 async function knownRevisions(): Promise<Record<string, KnownRevision>> {
-  const active = await listActiveDeployments(db());
+  const active = await listActiveRevisions(db());
   return Object.fromEntries(active.map((d) => [String(d.revisionId), { setId: d.setId, setName: d.setName, revision: d.revision }]));
 }
 

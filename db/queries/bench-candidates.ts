@@ -4,6 +4,7 @@ import type { FilterSpec } from "@/lib/dsp";
 import { AppError } from "@/lib/errors";
 import { MAX_CANDIDATES_PER_CLIENT } from "@/lib/protocol";
 import type { Db } from "../client";
+import { readSpec } from "../json-columns";
 import type { Database } from "../types";
 
 /** A candidate kept on an engineer's bench of one channel. */
@@ -17,12 +18,12 @@ export interface StoredCandidate {
 export async function listBenchCandidates(db: Db, userId: number, channelId: number): Promise<StoredCandidate[]> {
   const rows = await db
     .selectFrom("bench_candidates")
-    .select(["key", "color_index as colorIndex", "spec"])
+    .select(["id", "key", "color_index as colorIndex", "spec"])
     .where("user_id", "=", userId)
     .where("channel_id", "=", channelId)
     .orderBy("id")
     .execute();
-  return rows as StoredCandidate[];
+  return rows.map((r) => ({ key: r.key, colorIndex: r.colorIndex, spec: readSpec(r.spec, { table: "bench_candidates", id: r.id }) }));
 }
 
 /**

@@ -1,27 +1,12 @@
 import { sql, type Transaction } from "kysely";
-import type { SessionUser } from "@/lib/auth/guard";
-import {
-  channelConfigChecksum,
-  channelConfigEntry,
-  currentChannelConfig,
-  DeploymentRefusal,
-  entryDesign,
-  quantizeForTarget,
-  type DeploymentTarget,
-  type StoredChannelConfig,
-} from "@/lib/coefficients";
+import type { StoredChannelConfig } from "@/lib/coefficients";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { AppError } from "@/lib/errors";
-import { channelConfigSchema, type ChannelConfig } from "@/lib/protocol";
-import { deploymentMail, type DeploymentRef } from "@/lib/mail/templates";
-import { decide } from "@/lib/workflow";
+import type { ActiveDeploymentRef } from "@/lib/workflow/deployment";
 import type { Db } from "../client";
 import type { Database, DeploymentKind } from "../types";
-import { appendAudit } from "./audit";
-import { channelPathSql, findChannelByPath, type ChannelRow } from "./channels";
-import { enqueueMail, leadAddresses, userAddress } from "./mail";
-import { findRevision } from "./revisions";
-import { enforce } from "./sets";
+import { readChannelConfig, readDesign, readSpec } from "../json-columns";
+import { channelPathSql } from "./channels";
 
 
 /** Channel the sidecar's deployment worker LISTENs on; the payload is the deployment id. */
@@ -29,7 +14,13 @@ export const DEPLOY_CHANNEL = "tapwright_deploy";
 
 const pathExpr = channelPathSql("rg", "d", "c");
 
-function deploymentQuery(db: Db) {
+/** Whether a stored entry has no stages (chains store `stages`, entries from before chains `sections`). */
+function passThroughSql(config: "p.config" | "config") {
+  return sql<boolean>`jsonb_array_length(coalesce(${sql.ref(config)} -> 'stages', ${sql.ref(config)} -> 'sections')) = 0`;
+}
+
+/** Deployments with their channel, revision, set and requester: every column but the JSON ones. */
+function summaryQuery(db: Db) {
   return db
     .selectFrom("deployments as p")
     .innerJoin("revisions as r", "r.id", "p.revision_id")
@@ -47,7 +38,6 @@ function deploymentQuery(db: Db) {
       "p.state",
       "p.format",
       "p.checksum",
-      "p.config",
       "p.previous_id as previousId",
       "p.requested_at as requestedAt",
       "p.activated_at as activatedAt",
@@ -64,28 +54,39 @@ function deploymentQuery(db: Db) {
       "r.id as revisionId",
       "r.revision",
       "r.author_id as authorId",
-      "r.design",
-      "r.spec",
       "s.id as setId",
       "s.name as setName",
       channelPathSql("sr", "sd", "sc").as("setChannel"),
-      // No stages in the entry (chains store `stages`, entries from before chains `sections`).
-      sql<boolean>`jsonb_array_length(coalesce(p.config -> 'stages', p.config -> 'sections')) = 0`.as("passThrough"),
+      passThroughSql("p.config").as("passThrough"),
     ]);
 }
 
-export interface DeploymentView {
+/** The summary with the stored channel entry and the revision's spec and design (still unchecked). */
+function deploymentQuery(db: Db) {
+  return summaryQuery(db).select(["p.config", "r.design", "r.spec"]);
+}
+
+type DeploymentRow = Awaited<ReturnType<ReturnType<typeof deploymentQuery>["executeTakeFirstOrThrow"]>>;
+
+/** A deployment row with its JSON columns opened (each checked, see db/json-columns.ts). */
+function toView(row: DeploymentRow): DeploymentView {
+  const revision = { table: "revisions", id: row.revisionId } as const;
+  return {
+    ...row,
+    config: readChannelConfig(row.config, { table: "deployments", id: row.id }),
+    design: readDesign(row.design, revision),
+    spec: readSpec(row.spec, revision),
+  };
+}
+
+/** A deployment as lists show it: no stored entry, spec or design. */
+export interface DeploymentSummary {
   id: number;
   kind: DeploymentKind;
   state: "pending" | "active" | "superseded" | "failed" | "rolled_back";
   format: "f32" | "q15" | "q31";
   /** SHA-256 of canonicalJson(config): the content hash of what this channel runs. */
   checksum: string;
-  /**
-   * This channel's entry of the device configuration document as stored: the current form (lib/protocol
-   * channelConfigSchema) or, for deployments made before chains, the v2 form (see currentChannelConfig).
-   */
-  config: StoredChannelConfig;
   previousId: number | null;
   requestedAt: Date;
   activatedAt: Date | null;
@@ -102,8 +103,6 @@ export interface DeploymentView {
   revisionId: number;
   revision: number;
   authorId: number;
-  design: FilterDesign;
-  spec: FilterSpec;
   setId: number;
   setName: string;
   /** The set's own channel (a deployment may go to another channel of the same sample rate). */
@@ -115,23 +114,34 @@ export interface DeploymentView {
   passThrough: boolean;
 }
 
+/** A deployment with what it runs: the stored channel entry and the revision's spec and design. */
+export interface DeploymentView extends DeploymentSummary {
+  /**
+   * This channel's entry of the device configuration document as stored: the current form (lib/protocol
+   * channelConfigSchema) or, for deployments made before chains, the v2 form (see currentChannelConfig).
+   */
+  config: StoredChannelConfig;
+  design: FilterDesign;
+  spec: FilterSpec;
+}
+
 export async function findDeployment(db: Db, id: number): Promise<DeploymentView | undefined> {
-  return (await deploymentQuery(db).where("p.id", "=", id).executeTakeFirst()) as DeploymentView | undefined;
+  const row = await deploymentQuery(db).where("p.id", "=", id).executeTakeFirst();
+  return row && toView(row);
 }
 
-export async function listSetDeployments(db: Db, setId: number): Promise<DeploymentView[]> {
-  return (await deploymentQuery(db).where("s.id", "=", setId).orderBy("p.id", "desc").execute()) as DeploymentView[];
+export function listSetDeployments(db: Db, setId: number): Promise<DeploymentSummary[]> {
+  return summaryQuery(db).where("s.id", "=", setId).orderBy("p.id", "desc").execute();
 }
 
-export async function listChannelDeployments(db: Db, channelId: number, limit = 50): Promise<DeploymentView[]> {
-  return (await deploymentQuery(db).where("p.channel_id", "=", channelId).orderBy("p.id", "desc").limit(limit).execute()) as DeploymentView[];
+export function listChannelDeployments(db: Db, channelId: number, limit = 50): Promise<DeploymentSummary[]> {
+  return summaryQuery(db).where("p.channel_id", "=", channelId).orderBy("p.id", "desc").limit(limit).execute();
 }
 
 /** The active deployment of a channel: its production filter as the device acknowledged it. */
 export async function findActiveDeployment(db: Db, channelId: number): Promise<DeploymentView | undefined> {
-  return (await deploymentQuery(db).where("p.channel_id", "=", channelId).where("p.state", "=", "active").executeTakeFirst()) as
-    | DeploymentView
-    | undefined;
+  const row = await deploymentQuery(db).where("p.channel_id", "=", channelId).where("p.state", "=", "active").executeTakeFirst();
+  return row && toView(row);
 }
 
 /** The channel's production filter: its active deployment unless that is a return to no filter. */
@@ -141,7 +151,18 @@ export async function findProductionDeployment(db: Db, channelId: number): Promi
 }
 
 export async function listActiveDeployments(db: Db): Promise<DeploymentView[]> {
-  return (await deploymentQuery(db).where("p.state", "=", "active").execute()) as DeploymentView[];
+  return (await deploymentQuery(db).where("p.state", "=", "active").execute()).map(toView);
+}
+
+/** The revision each active deployment carries, with its set (no stored entries read). */
+export function listActiveRevisions(db: Db): Promise<{ revisionId: number; setId: number; setName: string; revision: number }[]> {
+  return db
+    .selectFrom("deployments as p")
+    .innerJoin("revisions as r", "r.id", "p.revision_id")
+    .innerJoin("coefficient_sets as s", "s.id", "r.set_id")
+    .select(["r.id as revisionId", "s.id as setId", "s.name as setName", "r.revision"])
+    .where("p.state", "=", "active")
+    .execute();
 }
 
 /** A channel of a device with its active deployment, if any (what the device runs once it acknowledged). */
@@ -163,7 +184,10 @@ export async function listDeviceChannelStates(db: Db, deviceId: number): Promise
   return rows.map((r) => ({
     channelId: r.channelId,
     channelKey: r.channelKey,
-    active: r.deploymentId === null ? null : { id: r.deploymentId, config: r.config as StoredChannelConfig, checksum: r.checksum! },
+    active:
+      r.deploymentId === null || r.config === null || r.checksum === null
+        ? null
+        : { id: r.deploymentId, config: readChannelConfig(r.config, { table: "deployments", id: r.deploymentId }), checksum: r.checksum },
   }));
 }
 
@@ -172,33 +196,19 @@ export async function listPendingDeploymentIds(db: Db): Promise<number[]> {
   return rows.map((r) => r.id);
 }
 
-function targetOf(ch: ChannelRow): DeploymentTarget {
-  return {
-    label: `${ch.deviceKey}/${ch.key}`,
-    sampleRateHz: ch.sampleRateHz,
-    format: ch.coefficientFormat,
-    capacity: { maxSections: ch.maxSections, maxFirTaps: ch.maxFirTaps },
-  };
+function isUniqueViolation(err: unknown): boolean {
+  return typeof err === "object" && err !== null && "code" in err && err.code === "23505";
 }
 
 /**
- * The production filter the sidecar runs for a deployment: exactly what its device acknowledged, the
- * stored channel entry's coefficients at their real values (a chain for several stages); null for a
- * unit filter.
+ * Records a pending deployment and notifies the worker (DEPLOY_CHANNEL) in the caller's transaction;
+ * 409 when the channel already has one waiting for its device.
  */
-export function deployedDesign(d: Pick<DeploymentView, "config" | "design">): FilterDesign | null {
-  return entryDesign(currentChannelConfig(d.config), d.design);
-}
-
-function isUniqueViolation(err: unknown): boolean {
-  return typeof err === "object" && err !== null && (err as { code?: unknown }).code === "23505";
-}
-
-async function insertPending(
+export async function insertPendingDeployment(
   trx: Transaction<Database>,
   values: {
     revisionId: number;
-    channel: ChannelRow;
+    channel: { id: number; path: string };
     kind: DeploymentKind;
     config: StoredChannelConfig;
     checksum: string;
@@ -231,155 +241,58 @@ async function insertPending(
   }
 }
 
-export interface PromotionResult {
-  deployments: { id: number; channel: string }[];
-}
-
-/**
- * Records a pending deployment per target channel and notifies the worker, in the caller's transaction.
- * Refused: not a lead (403), revision not approved or set retired (409), a target that is unknown (404),
- * of another sample rate or unstable once quantized (422), or already has a pending deployment (409).
- */
-export async function requestPromotion(
-  trx: Transaction<Database>,
-  actor: SessionUser,
-  revisionId: number,
-  channelPaths: string[],
-  viaToken?: string,
-): Promise<PromotionResult> {
-  const locked = await trx.selectFrom("revisions").select("id").where("id", "=", revisionId).forShare().executeTakeFirst();
-  if (!locked) throw new AppError("not_found", "No such revision.");
-  const rev = (await findRevision(trx, revisionId))!;
-  enforce(decide("promote", { role: actor.role, actorId: actor.id, authorId: rev.authorId, state: rev.state, retired: rev.retiredAt !== null }));
-  const deployments: PromotionResult["deployments"] = [];
-  for (const path of [...new Set(channelPaths)]) {
-    const channel = await findChannelByPath(trx, path);
-    if (!channel) throw new AppError("not_found", `No channel ${path}.`);
-    let config: StoredChannelConfig;
-    try {
-      const target = targetOf(channel);
-      config = channelConfigEntry(String(rev.id), target, quantizeForTarget(rev, target));
-    } catch (err) {
-      if (err instanceof DeploymentRefusal) throw new AppError("unprocessable", `Refused for ${path}: ${err.message}.`);
-      throw err;
-    }
-    const active = await findActiveDeployment(trx, channel.id);
-    const checksum = await channelConfigChecksum(config);
-    const id = await insertPending(trx, { revisionId: rev.id, channel, kind: "promote", config, checksum, previousId: active?.id ?? null, actorId: actor.id });
-    await appendAudit(trx, {
-      actorId: actor.id,
-      action: "deployment.request",
-      entity: "deployment",
-      entityId: id,
-      before: active ? { activeDeployment: active.id, revisionId: active.revisionId } : null,
-      after: { revisionId: rev.id, setId: rev.setId, revision: rev.revision, channel: path, format: config.format, checksum, ...(viaToken ? { viaToken } : {}) },
-    });
-    deployments.push({ id, channel: path });
-  }
-  return { deployments };
-}
-
-/**
- * Asks to put the previously active revision back on a channel, through the same acknowledged path;
- * when nothing was active before (the first promotion), the channel returns to no filter: an entry with
- * an empty stage list, acknowledged like any other. `expectedActiveId` is the active deployment the
- * person saw; anything else is a 409, and so is rolling back a channel that already runs no filter.
- */
-export async function requestRollback(
-  trx: Transaction<Database>,
-  actor: SessionUser,
-  channelPath: string,
-  expectedActiveId: number,
-): Promise<{ id: number; channel: string; passThrough: boolean }> {
-  enforce(decide("rollback", { role: actor.role, actorId: actor.id }));
-  const channel = await findChannelByPath(trx, channelPath);
-  if (!channel) throw new AppError("not_found", `No channel ${channelPath}.`);
-  const active = await findActiveDeployment(trx, channel.id);
-  if (!active || active.id !== expectedActiveId) {
-    throw new AppError("conflict", `The active filter on ${channelPath} changed since you looked. Reload and try again.`);
-  }
-  if (active.passThrough) throw new AppError("conflict", `${channelPath} already runs no filter; promote a revision to filter it again.`);
-  const previous = active.previousId === null ? undefined : await findDeployment(trx, active.previousId);
-  const { config, checksum } = previous ?? (await passThroughOf(active));
-  const id = await insertPending(trx, { revisionId: previous?.revisionId ?? active.revisionId, channel, kind: "rollback", config, checksum, previousId: active.id, actorId: actor.id });
-  await appendAudit(trx, {
-    actorId: actor.id,
-    action: "deployment.rollback_request",
-    entity: "deployment",
-    entityId: id,
-    before: { activeDeployment: active.id, revisionId: active.revisionId },
-    after: previous ? { revisionId: previous.revisionId, channel: channelPath, checksum } : { passThrough: true, channel: channelPath, checksum },
-  });
-  return { id, channel: channelPath, passThrough: !previous };
-}
-
-/** The entry that runs no filter on a deployment's channel (its format and rate, an empty stage list) and its checksum. */
-async function passThroughOf(d: DeploymentView): Promise<{ config: ChannelConfig; checksum: string }> {
-  const config = channelConfigSchema.parse({ ...currentChannelConfig(d.config), stages: [] });
-  return { config, checksum: await channelConfigChecksum(config) };
-}
-
-function refOf(d: DeploymentView): DeploymentRef {
-  return { setId: d.setId, setName: d.setName, revision: d.revision, channel: d.setChannel, target: d.channel };
-}
-
-async function notifyOutcome(trx: Transaction<Database>, d: DeploymentView, outcome: "promoted" | "failed" | "rolled_back", detail: string) {
-  const to = [...(await userAddress(trx, d.authorId)), ...(await leadAddresses(trx))];
-  await enqueueMail(trx, to, deploymentMail(refOf(d), outcome, detail));
-}
-
-/**
- * A matching ack arrived: the pending deployment becomes active and the channel's previous active one
- * superseded (rolled back, for a rollback), in one transaction with the audit entry and the mail.
- * Returns null when the deployment is no longer pending (already handled).
- */
-export async function activateDeployment(trx: Transaction<Database>, id: number): Promise<DeploymentView | null> {
-  const row = await trx.selectFrom("deployments").select(["state", "channel_id", "kind"]).where("id", "=", id).forUpdate().executeTakeFirst();
-  if (!row || row.state !== "pending") return null;
-  const before = await trx
-    .updateTable("deployments")
-    .set({ state: row.kind === "rollback" ? "rolled_back" : "superseded", ended_at: sql`now()` })
-    .where("channel_id", "=", row.channel_id)
+/** A channel's active deployment, just what a promotion or a rollback checks (one table, no stored entry). */
+export function findActiveDeploymentRef(db: Db, channelId: number): Promise<ActiveDeploymentRef | undefined> {
+  return db
+    .selectFrom("deployments")
+    .select(["id", "revision_id as revisionId", "previous_id as previousId", passThroughSql("config").as("passThrough")])
+    .where("channel_id", "=", channelId)
     .where("state", "=", "active")
-    .returning(["id", "revision_id"])
     .executeTakeFirst();
-  await trx.updateTable("deployments").set({ state: "active", activated_at: sql`now()` }).where("id", "=", id).execute();
-  const d = (await findDeployment(trx, id))!;
-  await appendAudit(trx, {
-    actorId: null,
-    action: row.kind === "rollback" ? "deployment.rolled_back" : "deployment.activate",
-    entity: "deployment",
-    entityId: id,
-    before: before ? { activeDeployment: before.id, revisionId: before.revision_id } : null,
-    after: { activeDeployment: id, revisionId: d.revisionId, channel: d.channel, checksum: d.checksum, acknowledged: true, ...(d.passThrough ? { passThrough: true } : {}) },
-  });
-  await notifyOutcome(trx, d, row.kind === "rollback" ? "rolled_back" : "promoted", `Checksum ${d.checksum}.`);
-  return d;
 }
 
-/** No matching ack (timeout or refusal): the deployment fails and the previous active one stays. */
-export async function failDeployment(trx: Transaction<Database>, id: number, reason: string): Promise<DeploymentView | null> {
-  const row = await trx.selectFrom("deployments").select("state").where("id", "=", id).forUpdate().executeTakeFirst();
-  if (!row || row.state !== "pending") return null;
+/** What a deployment sent: its revision, stored entry and checksum. */
+export async function findDeploymentEntry(db: Db, id: number): Promise<{ revisionId: number; config: StoredChannelConfig; checksum: string } | undefined> {
+  const row = await db.selectFrom("deployments").select(["revision_id as revisionId", "config", "checksum"]).where("id", "=", id).executeTakeFirst();
+  return row && { ...row, config: readChannelConfig(row.config, { table: "deployments", id }) };
+}
+
+/** Locks a deployment's row for the rest of the transaction; undefined when there is none. */
+export function lockDeployment(trx: Transaction<Database>, id: number) {
+  return trx.selectFrom("deployments").select(["state", "channel_id as channelId", "kind"]).where("id", "=", id).forUpdate().executeTakeFirst();
+}
+
+/** Ends a channel's active deployment (superseded or rolled back); returns it, if there was one. */
+export function endActiveDeployment(trx: Transaction<Database>, channelId: number, state: "superseded" | "rolled_back") {
+  return trx
+    .updateTable("deployments")
+    .set({ state, ended_at: sql`now()` })
+    .where("channel_id", "=", channelId)
+    .where("state", "=", "active")
+    .returning(["id", "revision_id as revisionId"])
+    .executeTakeFirst();
+}
+
+export async function markDeploymentActive(trx: Transaction<Database>, id: number): Promise<void> {
+  await trx.updateTable("deployments").set({ state: "active", activated_at: sql`now()` }).where("id", "=", id).execute();
+}
+
+export async function markDeploymentFailed(trx: Transaction<Database>, id: number, reason: string): Promise<void> {
   await trx.updateTable("deployments").set({ state: "failed", ended_at: sql`now()`, reason }).where("id", "=", id).execute();
-  const d = (await findDeployment(trx, id))!;
-  await appendAudit(trx, {
-    actorId: null,
-    action: "deployment.fail",
-    entity: "deployment",
-    entityId: id,
-    before: { state: "pending" },
-    after: { state: "failed", reason, channel: d.channel },
-  });
-  await notifyOutcome(trx, d, "failed", `Reason: ${reason}`);
-  return d;
 }
 
 /** Per channel: the active revision's label and whether a deployment is pending (the promote form). */
 export async function channelDeploymentStates(db: Db, channelIds: number[]): Promise<Map<number, { active: string | null; pending: boolean }>> {
   const out = new Map(channelIds.map((id) => [id, { active: null as string | null, pending: false }]));
   if (channelIds.length === 0) return out;
-  const rows = await deploymentQuery(db).where("p.channel_id", "in", channelIds).where("p.state", "in", ["active", "pending"]).execute();
+  const rows = await db
+    .selectFrom("deployments as p")
+    .innerJoin("revisions as r", "r.id", "p.revision_id")
+    .innerJoin("coefficient_sets as s", "s.id", "r.set_id")
+    .select(["p.channel_id as channelId", "p.state", "s.name as setName", "r.revision", passThroughSql("p.config").as("passThrough")])
+    .where("p.channel_id", "in", channelIds)
+    .where("p.state", "in", ["active", "pending"])
+    .execute();
   for (const r of rows) {
     const entry = out.get(r.channelId)!;
     if (r.state === "pending") entry.pending = true;

@@ -1,16 +1,11 @@
 import { sql, type Transaction } from "kysely";
-import type { SessionUser } from "@/lib/auth/guard";
 import type { RevisionContent } from "@/lib/coefficients";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
-import { AppError } from "@/lib/errors";
-import { reviewDecisionMail, reviewRequestedMail, type RevisionRef } from "@/lib/mail/templates";
-import { decide, TRANSITIONS, type RevisionState, type Transition } from "@/lib/workflow";
+import type { RevisionState } from "@/lib/workflow";
 import type { Db } from "../client";
 import type { Database } from "../types";
-import { appendAudit } from "./audit";
+import { readAnalysis, readDesign, readQuantized, readSpec } from "../json-columns";
 import { channelPathSql } from "./channels";
-import { enqueueMail, leadAddresses, userAddress } from "./mail";
-import { enforce } from "./sets";
 
 
 const pathExpr = channelPathSql("rg", "d", "c");
@@ -69,21 +64,33 @@ export interface RevisionView {
   channel: string;
 }
 
+type RevisionRow = Awaited<ReturnType<ReturnType<typeof revisionQuery>["executeTakeFirstOrThrow"]>>;
+
+/** A revision row with its JSON columns opened (each checked, see db/json-columns.ts). */
+function toView(row: RevisionRow): RevisionView {
+  const at = { table: "revisions", id: row.id } as const;
+  return {
+    ...row,
+    spec: readSpec(row.spec, at),
+    design: readDesign(row.design, at),
+    quantized: readQuantized(row.quantized, at),
+    analysis: readAnalysis(row.analysis, at),
+  };
+}
+
 export async function findRevision(db: Db, id: number): Promise<RevisionView | undefined> {
-  return (await revisionQuery(db).where("r.id", "=", id).executeTakeFirst()) as RevisionView | undefined;
+  const row = await revisionQuery(db).where("r.id", "=", id).executeTakeFirst();
+  return row && toView(row);
 }
 
 export async function listRevisions(db: Db, setId: number): Promise<RevisionView[]> {
-  return (await revisionQuery(db).where("r.set_id", "=", setId).orderBy("r.revision", "desc").execute()) as RevisionView[];
+  return (await revisionQuery(db).where("r.set_id", "=", setId).orderBy("r.revision", "desc").execute()).map(toView);
 }
 
 /** Revisions waiting for a lead, oldest submission first. */
 export async function listAwaitingReview(db: Db): Promise<RevisionView[]> {
-  return (await revisionQuery(db)
-    .where("r.state", "=", "in_review")
-    .where("s.retired_at", "is", null)
-    .orderBy("r.state_changed_at")
-    .execute()) as RevisionView[];
+  const rows = await revisionQuery(db).where("r.state", "=", "in_review").where("s.retired_at", "is", null).orderBy("r.state_changed_at").execute();
+  return rows.map(toView);
 }
 
 export function listReviews(db: Db, setId: number) {
@@ -97,53 +104,21 @@ export function listReviews(db: Db, setId: number) {
     .execute();
 }
 
-export interface TransitionInput {
-  revisionId: number;
-  action: Transition;
-  /** The state version the form was rendered with; a different current version is a 409. */
-  expectedVersion: number;
-  comment?: string;
+/** Locks a revision's row for the rest of the transaction (`update` to change its state, `share` to promote it); undefined when there is none. */
+export function lockRevision(trx: Transaction<Database>, id: number, mode: "update" | "share") {
+  const q = trx.selectFrom("revisions").select(["id", "state_version as stateVersion"]).where("id", "=", id);
+  return (mode === "update" ? q.forUpdate() : q.forShare()).executeTakeFirst();
 }
 
-/**
- * Moves a revision through review (submit, approve, reject) under a row lock: stale form → 409,
- * then the workflow rules (role, four eyes, state). Records the review, the audit entry and the
- * mail (review requested → leads; decision → author) in the caller's transaction.
- */
-export async function transitionRevision(trx: Transaction<Database>, actor: SessionUser, input: TransitionInput): Promise<RevisionView> {
-  const locked = await trx.selectFrom("revisions").select(["id", "state_version"]).where("id", "=", input.revisionId).forUpdate().executeTakeFirst();
-  if (!locked) throw new AppError("not_found", "No such revision.");
-  const rev = (await findRevision(trx, input.revisionId)) as RevisionView;
-  if (rev.stateVersion !== input.expectedVersion) {
-    throw new AppError("conflict", `This revision changed since you opened it (it is now ${rev.state}). Reload and try again.`);
-  }
-  enforce(
-    decide(input.action, { role: actor.role, actorId: actor.id, authorId: rev.authorId, state: rev.state, retired: rev.retiredAt !== null, deployable: rev.analysis.deployable.ok }),
-  );
-  const comment = input.comment?.trim() ?? "";
-  if (input.action === "reject" && !comment) throw new AppError("bad_request", "Say why the revision is rejected.");
-  const to = TRANSITIONS[input.action].to;
-  await trx
-    .updateTable("revisions")
-    .set({ state: to, state_version: sql`state_version + 1`, state_changed_at: sql`now()` })
-    .where("id", "=", rev.id)
-    .execute();
-  await trx.updateTable("coefficient_sets").set({ updated_at: sql`now()`, version: sql`version + 1` }).where("id", "=", rev.setId).execute();
-  const ref: RevisionRef = { setId: rev.setId, setName: rev.setName, revision: rev.revision, channel: rev.channel };
-  if (input.action === "submit") {
-    await enqueueMail(trx, await leadAddresses(trx), reviewRequestedMail(ref, actor.name, rev.notes));
-  } else {
-    const decision = input.action === "approve" ? "approved" : "rejected";
-    await trx.insertInto("reviews").values({ revision_id: rev.id, reviewer_id: actor.id, decision, comment }).execute();
-    await enqueueMail(trx, await userAddress(trx, rev.authorId), reviewDecisionMail(ref, decision, actor.name, comment || "(no comment)"));
-  }
-  await appendAudit(trx, {
-    actorId: actor.id,
-    action: `revision.${input.action}`,
-    entity: "revision",
-    entityId: rev.id,
-    before: { state: rev.state, stateVersion: rev.stateVersion },
-    after: { state: to, stateVersion: rev.stateVersion + 1, ...(comment ? { comment } : {}) },
-  });
-  return { ...rev, state: to, stateVersion: rev.stateVersion + 1 };
+/** Moves a revision to a review state and counts the change in its state version. */
+export async function setRevisionState(trx: Transaction<Database>, id: number, to: RevisionState): Promise<void> {
+  await trx.updateTable("revisions").set({ state: to, state_version: sql`state_version + 1`, state_changed_at: sql`now()` }).where("id", "=", id).execute();
+}
+
+/** Records a lead's decision on a revision. */
+export async function insertReview(
+  trx: Transaction<Database>,
+  review: { revisionId: number; reviewerId: number; decision: "approved" | "rejected"; comment: string },
+): Promise<void> {
+  await trx.insertInto("reviews").values({ revision_id: review.revisionId, reviewer_id: review.reviewerId, decision: review.decision, comment: review.comment }).execute();
 }

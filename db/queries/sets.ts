@@ -1,13 +1,10 @@
 import { sql, type Transaction } from "kysely";
 import type { RevisionContent } from "@/lib/coefficients";
 import type { FilterSpec } from "@/lib/dsp";
-import { AppError } from "@/lib/errors";
-import { decide, type SetStatus } from "@/lib/workflow";
+import type { SetStatus } from "@/lib/workflow";
 import type { SetListItem } from "@/lib/workflow/set-list";
-import type { SessionUser } from "@/lib/auth/guard";
 import type { Db } from "../client";
 import type { CoefficientFormat, Database } from "../types";
-import { appendAudit } from "./audit";
 import { channelPathSql } from "./channels";
 
 
@@ -25,12 +22,8 @@ export interface SavedRevision {
   revision: number;
 }
 
-/** Throws the workflow rule's refusal as an AppError (403 or 409). */
-export function enforce(decision: ReturnType<typeof decide>): void {
-  if (!decision.ok) throw new AppError(decision.code, decision.reason);
-}
-
-async function insertRevision(trx: Transaction<Database>, setId: number, revision: number, authorId: number, input: NewRevisionInput) {
+/** Writes a revision's content (spec, design, quantized form, analysis) as JSON; returns its id. */
+export function insertRevision(trx: Transaction<Database>, setId: number, revision: number, authorId: number, input: NewRevisionInput) {
   return trx
     .insertInto("revisions")
     .values({
@@ -49,70 +42,36 @@ async function insertRevision(trx: Transaction<Database>, setId: number, revisio
     .executeTakeFirstOrThrow();
 }
 
-function revisionAudit(setId: number, revision: number, input: NewRevisionInput) {
-  return { setId, revision, spec: input.spec, notes: input.notes, format: input.format, deployable: input.content.analysis.deployable };
-}
-
-/** Creates a set on a channel with its first (draft) revision. */
-export async function createSet(
-  trx: Transaction<Database>,
-  actor: SessionUser,
-  channelId: number,
-  name: string,
-  input: NewRevisionInput,
-): Promise<SavedRevision> {
-  enforce(decide("create_set", { role: actor.role, actorId: actor.id }));
-  const set = await trx
+/** A new set whose latest revision is 1 (the caller writes that revision); returns its id. */
+export function insertSet(trx: Transaction<Database>, set: { channelId: number; name: string; createdBy: number }) {
+  return trx
     .insertInto("coefficient_sets")
-    .values({ channel_id: channelId, name, created_by: actor.id, latest_revision: 1 })
+    .values({ channel_id: set.channelId, name: set.name, created_by: set.createdBy, latest_revision: 1 })
     .returning("id")
     .executeTakeFirstOrThrow();
-  const rev = await insertRevision(trx, set.id, 1, actor.id, input);
-  await appendAudit(trx, { actorId: actor.id, action: "set.create", entity: "set", entityId: set.id, after: { name, channelId } });
-  await appendAudit(trx, { actorId: actor.id, action: "revision.create", entity: "revision", entityId: rev.id, after: revisionAudit(set.id, 1, input) });
-  return { setId: set.id, revisionId: rev.id, revision: 1 };
 }
 
-/** Adds the next revision; 409 when `expectedLatestRevision` is no longer the latest (someone saved first). */
-export async function addRevision(
-  trx: Transaction<Database>,
-  actor: SessionUser,
-  setId: number,
-  expectedLatestRevision: number,
-  input: NewRevisionInput,
-): Promise<SavedRevision> {
-  const set = await trx.selectFrom("coefficient_sets").selectAll().where("id", "=", setId).forUpdate().executeTakeFirst();
-  if (!set) throw new AppError("not_found", "No such coefficient set.");
-  enforce(decide("save_revision", { role: actor.role, actorId: actor.id, retired: set.retired_at !== null }));
-  if (set.latest_revision !== expectedLatestRevision) {
-    throw new AppError(
-      "conflict",
-      `This set has moved on: its latest revision is r${set.latest_revision}, you edited from r${expectedLatestRevision}. Reload and save again.`,
-    );
-  }
-  const revision = set.latest_revision + 1;
-  const rev = await insertRevision(trx, setId, revision, actor.id, input);
+/** Locks a set's row for the rest of the transaction; undefined when there is none. */
+export function lockSet(trx: Transaction<Database>, id: number) {
+  return trx.selectFrom("coefficient_sets").selectAll().where("id", "=", id).forUpdate().executeTakeFirst();
+}
+
+/** Counts a change to a set (its version) and when it happened; `latestRevision` also moves its latest revision. */
+export async function touchSet(trx: Transaction<Database>, id: number, latestRevision?: number): Promise<void> {
   await trx
     .updateTable("coefficient_sets")
-    .set({ latest_revision: revision, updated_at: sql`now()`, version: sql`version + 1` })
-    .where("id", "=", setId)
+    .set({ ...(latestRevision === undefined ? {} : { latest_revision: latestRevision }), updated_at: sql`now()`, version: sql`version + 1` })
+    .where("id", "=", id)
     .execute();
-  await appendAudit(trx, { actorId: actor.id, action: "revision.create", entity: "revision", entityId: rev.id, after: revisionAudit(setId, revision, input) });
-  return { setId, revisionId: rev.id, revision };
 }
 
-/** Retires a set (no further revisions, reviews or promotions); 409 on a stale version. */
-export async function retireSet(trx: Transaction<Database>, actor: SessionUser, setId: number, expectedVersion: number): Promise<void> {
-  const set = await trx.selectFrom("coefficient_sets").selectAll().where("id", "=", setId).forUpdate().executeTakeFirst();
-  if (!set) throw new AppError("not_found", "No such coefficient set.");
-  if (set.version !== expectedVersion) throw new AppError("conflict", "This set changed since you opened it. Reload and try again.");
-  enforce(decide("retire", { role: actor.role, actorId: actor.id, retired: set.retired_at !== null }));
+/** Retires a set (counted as a change). */
+export async function markSetRetired(trx: Transaction<Database>, id: number): Promise<void> {
   await trx
     .updateTable("coefficient_sets")
     .set({ retired_at: sql`now()`, updated_at: sql`now()`, version: sql`version + 1` })
-    .where("id", "=", setId)
+    .where("id", "=", id)
     .execute();
-  await appendAudit(trx, { actorId: actor.id, action: "set.retire", entity: "set", entityId: setId, before: { retired: false }, after: { retired: true } });
 }
 
 const statusExpr = sql<SetStatus>`case when s.retired_at is not null then 'retired' else r.state end`;

@@ -3,3 +3,4 @@ export * from "./device-config";
 export * from "./diff";
 export * from "./revision-content";
 export * from "./stored-config";
+export * from "./stored-schemas";

@@ -16,6 +16,9 @@ type LegacyChannelConfig = z.infer<typeof legacyChannelConfigSchema>;
 /** A deployment's stored channel entry: the current form, or the v2 form of deployments made before chains. */
 export type StoredChannelConfig = ChannelConfig | LegacyChannelConfig;
 
+/** Checks a stored channel entry in either form (db/json-columns.ts reads deployments.config with it). */
+export const storedChannelConfigSchema: z.ZodType<StoredChannelConfig> = z.union([channelConfigSchema, legacyChannelConfigSchema]);
+
 /**
  * The current (v3) form of a stored entry: a legacy entry's sections become one sections stage (an
  * empty list stays a unit filter), every word and row exactly as stored. Throws when the entry is
@@ -71,4 +74,12 @@ export function entryDesign(entry: ChannelConfig, reference: FilterDesign): Filt
   const stages = parts.map((part, k) => ({ ...part, sampleRateHz: fs, zeros: refs[k].zeros, poles: refs[k].poles, gain: refs[k].gain }));
   if (stages.length === 1) return stages[0];
   return chainDesign(stages.map((s, k) => ({ ...s, stage: reference.stages?.[k].stage ?? k })), fs);
+}
+
+/**
+ * The production filter a deployment makes its channel run: exactly what its device acknowledged, the
+ * stored entry's coefficients at their real values (a chain for several stages); null for a unit filter.
+ */
+export function deployedDesign(d: { config: StoredChannelConfig; design: FilterDesign }): FilterDesign | null {
+  return entryDesign(currentChannelConfig(d.config), d.design);
 }

@@ -6,6 +6,9 @@ export type RevisionState = (typeof REVISION_STATES)[number];
 export const DEPLOYMENT_STATES = ["pending", "active", "superseded", "failed", "rolled_back"] as const;
 export type DeploymentState = (typeof DEPLOYMENT_STATES)[number];
 
+/** Why a deployment was made: a promotion of a revision, or a rollback to the one before. */
+export type DeploymentKind = "promote" | "rollback";
+
 /** A set's status in lists: retired, or the review state of its latest revision. */
 export const SET_STATUSES = [...REVISION_STATES, "retired"] as const;
 export type SetStatus = (typeof SET_STATUSES)[number];

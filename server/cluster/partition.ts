@@ -1,5 +1,6 @@
 import type { Db } from "@/db/client";
-import { deployedDesign, findProductionDeployment } from "@/db/queries/deployments";
+import { findProductionDeployment } from "@/db/queries/deployments";
+import { deployedDesign } from "@/lib/coefficients";
 import { activeRevisionIds, type LeasedChannel } from "@/db/queries/leases";
 import { samplesTopic } from "@/lib/protocol";
 import type { MessageBus } from "../broker/bus";

@@ -1,16 +1,8 @@
 import type { Db } from "@/db/client";
 import { listDevices, listDevicesWithPendingDeployments } from "@/db/queries/devices";
-import {
-  activateDeployment,
-  DEPLOY_CHANNEL,
-  deployedDesign,
-  failDeployment,
-  findDeployment,
-  listActiveDeployments,
-  listDeviceChannelStates,
-  listPendingDeploymentIds,
-  type DeploymentView,
-} from "@/db/queries/deployments";
+import { DEPLOY_CHANNEL, findDeployment, listActiveDeployments, listDeviceChannelStates, listPendingDeploymentIds, type DeploymentView } from "@/db/queries/deployments";
+import { activateDeployment, failDeployment } from "@/db/workflow/deployments";
+import { deployedDesign } from "@/lib/coefficients";
 import type { FilterDesign } from "@/lib/dsp";
 import { configTopic, type DeviceConfig } from "@/lib/protocol";
 import type { MessageBus } from "../broker/bus";

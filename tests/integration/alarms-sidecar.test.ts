@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createDb, type Db } from "@/db/client";
 import { acknowledgeAlarmEvent, listAlarmEvents } from "@/db/queries/alarm-events";
 import { findChannelByPath } from "@/db/queries/channels";
-import { createSet } from "@/db/queries/sets";
+import { createSet } from "@/db/workflow/sets";
 import { findUserByEmail } from "@/db/queries/users";
 import { seedDemo } from "@/db/seed";
 import { buildRevisionContent } from "@/lib/coefficients";

@@ -1,9 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { findChannelByPath } from "@/db/queries/channels";
-import { deployedDesign, findActiveDeployment, findDeployment } from "@/db/queries/deployments";
-import { createSet } from "@/db/queries/sets";
+import { findActiveDeployment, findDeployment } from "@/db/queries/deployments";
+import { deployedDesign } from "@/lib/coefficients";
+import { createSet } from "@/db/workflow/sets";
+import { readQuantized } from "@/db/json-columns";
 import { buildRevisionContent, channelConfigChecksum, type StoredCoefficients } from "@/lib/coefficients";
-import { filterSignal, quantizedParts, simulateFixed, type FilterSpec, type QuantizedDesign } from "@/lib/dsp";
+import { filterSignal, quantizedParts, simulateFixed, type FilterSpec } from "@/lib/dsp";
 import { systemClock } from "@/server/clock";
 import { startDeploymentWorker, type DeploymentWorker } from "@/server/deploy/worker";
 import { channelConfigChecksum as storedHash } from "@/server/devices/checksum";
@@ -109,8 +111,8 @@ describe("a filter chain from the API to the device, the production trace and th
     const row = await lab.db.selectFrom("revisions").select(["spec", "design", "quantized", "analysis", "state"]).where("id", "=", revisionId).executeTakeFirstOrThrow();
     expect(row.state).toBe("approved");
     expect(row.spec).toEqual(humChain);
-    const quantized = row.quantized as QuantizedDesign;
-    expect(quantized.stages?.map((s) => s.integers?.length)).toEqual([1, 1, 2]);
+    const quantized = readQuantized(row.quantized, { table: "revisions", id: revisionId });
+    expect(quantized?.stages?.map((s) => s.integers?.length)).toEqual([1, 1, 2]);
     expect(row.analysis).toMatchObject({ stable: true, deployable: { ok: true } });
   });
 
@@ -159,7 +161,8 @@ describe("a filter chain from the API to the device, the production trace and th
     expect(res.status).toBe(200);
     const header = await res.text();
     const row = await lab.db.selectFrom("revisions").select("quantized").where("id", "=", revisionId).executeTakeFirstOrThrow();
-    const quantized = row.quantized as QuantizedDesign;
+    const quantized = readQuantized(row.quantized, { table: "revisions", id: revisionId });
+    if (!quantized) throw new Error("the chain was saved without a quantized form");
     const sections = quantizedParts(quantized).flatMap((p) => p.integers ?? []);
     expect(sections).toHaveLength(4);
     sections.forEach((words, k) => expect(header).toMatch(new RegExp(`/\\* stage \\d, section ${k} \\*/ ${words.join(", ")},\\n`)));
@@ -219,7 +222,9 @@ describe("revisions and deployments saved before chains", () => {
       cutoffHz: 40,
       sampleRateHz: 500,
     });
-    const oldQuantized = (await lab.db.selectFrom("revisions").select("quantized").where("id", "=", oldSpeedRev).executeTakeFirstOrThrow()).quantized as QuantizedDesign;
+    const oldStored = await lab.db.selectFrom("revisions").select("quantized").where("id", "=", oldSpeedRev).executeTakeFirstOrThrow();
+    const oldQuantized = readQuantized(oldStored.quantized, { table: "revisions", id: oldSpeedRev });
+    if (!oldQuantized) throw new Error("the old revision was saved without a quantized form");
     const legacyEntry = {
       revisionId: String(oldSpeedRev),
       format: "q15" as const,

@@ -1,9 +1,10 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { findChannelByPath } from "@/db/queries/channels";
-import { findActiveDeployment, requestPromotion, requestRollback } from "@/db/queries/deployments";
-import { transitionRevision } from "@/db/queries/revisions";
-import { createSet } from "@/db/queries/sets";
+import { findActiveDeployment } from "@/db/queries/deployments";
+import { requestPromotion, requestRollback } from "@/db/workflow/deployments";
+import { transitionRevision } from "@/db/workflow/review";
+import { createSet } from "@/db/workflow/sets";
 import { buildRevisionContent } from "@/lib/coefficients";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { DEMO_RIGS } from "@/lib/demo/lab";

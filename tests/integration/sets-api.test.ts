@@ -1,5 +1,6 @@
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { readAnalysis, readDesign, readQuantized } from "@/db/json-columns";
 import { actAs, butterSpec, jsonRequest, params, pathParams, setUpLab, type Accounts } from "./sets-fixture";
 
 vi.mock("@/db", async () => (await import("./sets-fixture")).dbModule);
@@ -8,6 +9,7 @@ vi.mock("@/app/_lib/auth", async () => (await import("./sets-fixture")).authModu
 const setsRoute = await import("@/app/api/v1/sets/route");
 const revisionsRoute = await import("@/app/api/v1/sets/[id]/revisions/route");
 const productionRoute = await import("@/app/api/v1/channels/[rig]/[device]/[channel]/production/route");
+const revisionRoute = await import("@/app/api/v1/revisions/[id]/route");
 
 let lab: Awaited<ReturnType<typeof setUpLab>>;
 let users: Accounts;
@@ -33,7 +35,7 @@ describe("POST /api/v1/sets", () => {
     const rev = await lab.db.selectFrom("revisions").selectAll().where("id", "=", body.revisionId).executeTakeFirstOrThrow();
     expect(rev.device_format).toBe("q15");
     expect(rev.state).toBe("draft");
-    const analysis = rev.analysis as { stable: boolean; cutoffsHz: number[]; deployable: { ok: boolean } };
+    const analysis = readAnalysis(rev.analysis, { table: "revisions", id: rev.id });
     expect(analysis.stable).toBe(true);
     expect(analysis.cutoffsHz[0]).toBeCloseTo(100, 6); // a Butterworth is −3.0103 dB at fc: |H(jωc)|² = 1/2 (Butterworth 1930), kept by the prewarped bilinear map
     expect(analysis.deployable.ok).toBe(true);
@@ -116,8 +118,8 @@ describe("chains through the sets API", () => {
     const { setId, revisionId } = await res.json();
     const rev = await lab.db.selectFrom("revisions").select(["spec", "design", "quantized"]).where("id", "=", revisionId).executeTakeFirstOrThrow();
     expect(rev.spec).toEqual(chain);
-    expect((rev.design as { stages: unknown[] }).stages).toHaveLength(3);
-    expect((rev.quantized as { stages: { stage: number }[] }).stages.map((s) => s.stage)).toEqual([0, 1, 2]);
+    expect(readDesign(rev.design, { table: "revisions", id: revisionId }).stages).toHaveLength(3);
+    expect(readQuantized(rev.quantized, { table: "revisions", id: revisionId })?.stages?.map((s) => s.stage)).toEqual([0, 1, 2]);
     const next = { ...chain, stages: [{ ...notch(50), bypassed: true }, notch(150), butterSpec(150)] };
     const second = await revisionsRoute.POST(
       jsonRequest("POST", `/api/v1/sets/${setId}/revisions`, { spec: next, expectedLatestRevision: 1 }),
@@ -126,7 +128,7 @@ describe("chains through the sets API", () => {
     expect(second.status).toBe(201);
     const { revisionId: r2 } = await second.json();
     const stored = await lab.db.selectFrom("revisions").select("quantized").where("id", "=", r2).executeTakeFirstOrThrow();
-    expect((stored.quantized as { stages: { stage: number }[] }).stages.map((s) => s.stage)).toEqual([1, 2]); // the bypassed stage is kept in the spec, not run
+    expect(readQuantized(stored.quantized, { table: "revisions", id: r2 })?.stages?.map((s) => s.stage)).toEqual([1, 2]); // the bypassed stage is kept in the spec, not run
   });
 
   it("refuses a bad chain with 400 and the stage's path: 9 stages, a nested chain, a stage at another rate, no stages", async () => {
@@ -144,5 +146,44 @@ describe("chains through the sets API", () => {
     });
     expect(await refusal({ ...chain, stages: [] })).toEqual({ path: "spec.stages", message: "a chain needs at least 1 stage (got 0)" });
     expect((await createSet("chain at 2 kHz", { ...chain, sampleRateHz: 2000, stages: [notch(50, 2000)] })).status).toBe(422);
+  });
+});
+
+describe("a stored revision that no longer parses", () => {
+  it("is refused with 500 and a safe body, and the log names the table, the row and the column", async () => {
+    actAs(users.engineer);
+    const { revisionId } = await (await createSet("Torque LP stale row")).json();
+    const bad = await lab.db
+      .insertInto("revisions")
+      .columns(["set_id", "revision", "spec", "design", "device_format", "quantized", "analysis", "sample_rate_hz", "author_id"])
+      .expression((eb) =>
+        eb
+          .selectFrom("revisions")
+          .select([
+            "set_id",
+            sql<number>`2`.as("revision"),
+            sql<string>`'{"kind":"iir","family":"butterworth"}'::jsonb`.as("spec"),
+            "design",
+            "device_format",
+            "quantized",
+            "analysis",
+            "sample_rate_hz",
+            "author_id",
+          ])
+          .where("id", "=", revisionId),
+      )
+      .returning("id")
+      .executeTakeFirstOrThrow();
+    const log = vi.spyOn(console, "error").mockImplementation(() => undefined);
+    try {
+      actAs(users.operator);
+      const res = await revisionRoute.GET(new Request(`http://test.local/api/v1/revisions/${bad.id}`), params({ id: String(bad.id) }));
+      expect(res.status).toBe(500);
+      expect(await res.json()).toEqual({ error: { code: "internal", message: "Something went wrong on the server." } });
+      expect(log.mock.calls.map((c) => c.join(" ")).join("\n")).toContain(`revisions row ${bad.id}: the stored spec no longer parses`);
+      expect((await revisionRoute.GET(new Request(`http://test.local/api/v1/revisions/${revisionId}`), params({ id: String(revisionId) }))).status).toBe(200);
+    } finally {
+      log.mockRestore();
+    }
   });
 });

@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
+import { readDesign } from "@/db/json-columns";
 import type { SessionUser } from "@/lib/auth/guard";
 import { actAs, butterSpec, jsonRequest, params, setUpLab, type Accounts } from "./sets-fixture";
 
@@ -194,9 +195,9 @@ describe("server actions (a representative subset of the same rules)", () => {
       ok: true,
       message: "Saved revision r3 as a draft.",
     });
-    const r3 = await lab.db.selectFrom("revisions").select(["spec", "design"]).where("set_id", "=", setId).where("revision", "=", 3).executeTakeFirstOrThrow();
+    const r3 = await lab.db.selectFrom("revisions").select(["id", "spec", "design"]).where("set_id", "=", setId).where("revision", "=", 3).executeTakeFirstOrThrow();
     expect(r3.spec).toEqual(chain);
-    expect((r3.design as { stages: unknown[] }).stages).toHaveLength(2);
+    expect(readDesign(r3.design, { table: "revisions", id: r3.id }).stages).toHaveLength(2);
     const nested = JSON.stringify({ ...chain, stages: [chain] });
     expect(await actions.reviseAction({ ok: true }, form({ setId, expectedLatestRevision: 3, spec: nested }))).toMatchObject({
       ok: false,

@@ -3,9 +3,10 @@
 import { defineAction } from "@/app/_lib/action";
 import { revisionInput } from "@/app/api/v1/sets/content";
 import { db } from "@/db";
-import { requestPromotion, requestRollback } from "@/db/queries/deployments";
-import { transitionRevision } from "@/db/queries/revisions";
-import { addRevision, findSet, retireSet } from "@/db/queries/sets";
+import { requestPromotion, requestRollback } from "@/db/workflow/deployments";
+import { transitionRevision } from "@/db/workflow/review";
+import { findSet } from "@/db/queries/sets";
+import { addRevision, retireSet } from "@/db/workflow/sets";
 import { AppError } from "@/lib/errors";
 import { promoteFormSchema, retireFormSchema, reviseFormSchema, rollbackFormSchema, transitionFormSchema } from "./schema";
 

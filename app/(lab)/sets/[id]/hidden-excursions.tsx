@@ -1,7 +1,8 @@
 import { Suspense } from "react";
 import { listAlarmRules } from "@/db/queries/alarm-rules";
 import { findChannelByPath } from "@/db/queries/channels";
-import { deployedDesign, findActiveDeployment } from "@/db/queries/deployments";
+import { findActiveDeployment } from "@/db/queries/deployments";
+import { deployedDesign } from "@/lib/coefficients";
 import { findRecordingSamples, listRecordings } from "@/db/queries/recordings";
 import { db } from "@/db";
 import type { AlarmRule, FilterCheck } from "@/lib/alarms";

@@ -13,5 +13,5 @@ export const GET = handler(async (req) => {
   const channel = await findChannelByPath(db(), path);
   if (!channel) throw new AppError("not_found", `No channel ${path}.`);
   const items = await listChannelDeployments(db(), channel.id);
-  return Response.json({ items: items.map(({ config: _c, design: _d, spec: _s, ...d }) => d) });
+  return Response.json({ items });
 });

@@ -1,6 +1,6 @@
 import { requireUser } from "@/app/_lib/auth";
 import { db } from "@/db";
-import { requestRollback } from "@/db/queries/deployments";
+import { requestRollback } from "@/db/workflow/deployments";
 import { handler, parseBody } from "@/lib/http/handler";
 import { rollbackSchema } from "../schema";
 

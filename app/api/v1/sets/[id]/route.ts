@@ -13,5 +13,5 @@ export const GET = handler(async (req, ctx: { params: Promise<{ id: string }> })
   const set = await findSet(db(), id);
   if (!set) throw new AppError("not_found", "No such coefficient set.");
   const [revisions, reviews, deployments] = await Promise.all([listRevisions(db(), id), listReviews(db(), id), listSetDeployments(db(), id)]);
-  return Response.json({ set, revisions, reviews, deployments: deployments.map(({ config: _c, design: _d, spec: _s, ...d }) => d) });
+  return Response.json({ set, revisions, reviews, deployments });
 });

@@ -1,6 +1,6 @@
 import { requireCaller } from "@/app/_lib/api-caller";
 import { db } from "@/db";
-import { requestPromotion } from "@/db/queries/deployments";
+import { requestPromotion } from "@/db/workflow/deployments";
 import { dbId } from "@/lib/http/fields";
 import { handler, parseBody, parseWith } from "@/lib/http/handler";
 import { promoteSchema } from "../../schema";

@@ -1,6 +1,6 @@
 import { requireUser } from "@/app/_lib/auth";
 import { db } from "@/db";
-import { transitionRevision } from "@/db/queries/revisions";
+import { transitionRevision } from "@/db/workflow/review";
 import { dbId } from "@/lib/http/fields";
 import { handler, parseBody, parseWith } from "@/lib/http/handler";
 import { transitionSchema } from "../../schema";

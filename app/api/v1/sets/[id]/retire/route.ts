@@ -1,6 +1,6 @@
 import { requireUser } from "@/app/_lib/auth";
 import { db } from "@/db";
-import { retireSet } from "@/db/queries/sets";
+import { retireSet } from "@/db/workflow/sets";
 import { dbId } from "@/lib/http/fields";
 import { handler, parseBody, parseWith } from "@/lib/http/handler";
 import { retireSchema } from "../../schema";

@@ -1,6 +1,7 @@
 import { requireUser } from "@/app/_lib/auth";
 import { db } from "@/db";
-import { addRevision, findSet } from "@/db/queries/sets";
+import { findSet } from "@/db/queries/sets";
+import { addRevision } from "@/db/workflow/sets";
 import { AppError } from "@/lib/errors";
 import { dbId } from "@/lib/http/fields";
 import { handler, parseBody, parseWith } from "@/lib/http/handler";
