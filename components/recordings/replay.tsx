@@ -7,6 +7,7 @@ import type { AnalysisItem } from "@/components/bench/analysis-views";
 import { CandidateCards } from "@/components/bench/candidate-cards";
 import { CandidateCautions } from "@/components/bench/cautions-list";
 import { ComparisonTable } from "@/components/bench/comparison-table";
+import { judgedLine, STRONGEST } from "@/lib/bench/noise-line";
 import { CandidateEditor } from "@/components/bench/editor-panel";
 import { useCandidates } from "@/components/bench/use-candidates";
 import { Notice } from "@/components/ui/notice";
@@ -142,7 +143,7 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
           <ComparisonTable
             items={items}
             metrics={{}}
-            noiseLineHz={noiseLineHz}
+            noiseLine={judgedLine(STRONGEST, noiseLineHz === null ? [] : [noiseLineHz])}
             delayAtHz={delayAtHz}
             onDelayAt={setDelayAtHz}
             crossoverHz={crossoverHz}
