@@ -1,4 +1,5 @@
 import type { AuditRow } from "@/lib/audit";
+import { formatDateTime } from "@/lib/format/date-time";
 
 interface Props {
   items: AuditRow[];
@@ -19,12 +20,12 @@ export function AuditTable({ items, total, page, pageSize, params }: Props) {
       <div className="overflow-x-auto">
         <table className="w-full text-sm" data-testid="audit-table">
           <thead className="text-left text-xs uppercase tracking-wide text-slate-500">
-            <tr><th className="px-4 py-2">When (UTC)</th><th className="px-2">Actor</th><th className="px-2">Action</th><th className="px-2">Entity</th><th className="px-2">Before</th><th className="px-2">After</th></tr>
+            <tr><th className="px-4 py-2">When</th><th className="px-2">Actor</th><th className="px-2">Action</th><th className="px-2">Entity</th><th className="px-2">Before</th><th className="px-2">After</th></tr>
           </thead>
           <tbody>
             {items.map((e) => (
               <tr key={e.id} className="border-t border-slate-100 align-top dark:border-slate-800">
-                <td className="num whitespace-nowrap px-4 py-1.5 text-xs">{e.at.toISOString().slice(0, 19).replace("T", " ")}</td>
+                <td className="num whitespace-nowrap px-4 py-1.5 text-xs">{formatDateTime(e.at)}</td>
                 <td className="px-2 text-xs" title={e.actorEmail ?? undefined}>{e.actor ?? <span className="text-slate-500">system</span>}</td>
                 <td className="num px-2 text-xs">{e.action}</td>
                 <td className="num px-2 text-xs">{e.entity}{e.entityId ? ` #${e.entityId}` : ""}</td>

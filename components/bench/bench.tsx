@@ -24,6 +24,7 @@ import { useCandidates } from "./use-candidates";
 import { useKeptCandidates } from "./use-kept-candidates";
 import { useLiveChannel } from "./use-live-channel";
 import { useLatest } from "@/components/hooks/use-latest";
+import { formatDateTime } from "@/lib/format/date-time";
 
 export interface BenchChannel {
   path: string;
@@ -234,7 +235,7 @@ function ProductionLine({ production, unit }: { production: UseQueryResult<Produ
   return (
     <p className="text-sm">
       <span className="mr-1.5 inline-block h-2.5 w-2.5 rounded-full bg-production align-middle" aria-hidden="true" />
-      Production: <span className="font-medium">{p.setName}</span> revision {p.revision} · {specSummary(p.spec)} · active since {new Date(p.activatedAt).toLocaleString()}
+      Production: <span className="font-medium">{p.setName}</span> revision {p.revision} · {specSummary(p.spec)} · active since {formatDateTime(p.activatedAt)}
     </p>
   );
 }

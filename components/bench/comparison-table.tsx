@@ -9,6 +9,7 @@ import type { JudgedLine } from "@/lib/bench/noise-line";
 import { activeStages, stability } from "@/lib/dsp";
 import type { CandidateMetrics } from "@/lib/protocol";
 import type { AnalysisItem } from "./analysis-views";
+import { countOf } from "@/lib/format/plural";
 
 /** The row's figures, or a plain sentence in their place (the cause of a failure goes to the console). */
 function figuresOf(item: AnalysisItem, noiseLineHz: number | null, delayAtHz: number | null): CandidateFigures | string {
@@ -40,8 +41,8 @@ const KIND: Record<string, string> = {
   chain: "Chain",
 };
 
-/** Sections and taps of a design, e.g. "2 SOS", "101 taps", "3 SOS + 101 taps" for a chain. */
-const sizeOf = (f: CandidateFigures) => [f.sections !== null ? `${f.sections} SOS` : null, f.taps !== null ? `${f.taps} taps` : null].filter(Boolean).join(" + ");
+/** Sections and taps of a design, e.g. "1 section", "101 taps", "3 sections + 101 taps" for a chain. */
+const sizeOf = (f: CandidateFigures) => [f.sections !== null ? countOf(f.sections, "section") : null, f.taps !== null ? countOf(f.taps, "tap") : null].filter(Boolean).join(" + ");
 
 function NumberInput({ id, label, value, onChange }: { id: string; label: string; value: number | null; onChange: (v: number | null) => void }) {
   return (

@@ -7,6 +7,7 @@ import { useDeferredValue, useState } from "react";
 import { SET_STATUSES, STATE_LABELS } from "@/lib/workflow";
 import type { SetListItem } from "@/lib/workflow/set-list";
 import { StateBadge } from "./state-badge";
+import { formatDateTime } from "@/lib/format/date-time";
 
 /** A list row as GET /api/v1/sets sends it (dates as ISO strings). */
 type SetRow = SetListItem<string>;
@@ -23,8 +24,8 @@ const columns = [
   col.accessor("latestRevision", { header: "Latest", cell: (c) => <span className="num">r{c.getValue()}</span> }),
   col.accessor("author", { header: "Author" }),
   col.accessor("updatedAt", {
-    header: "Updated (UTC)",
-    cell: (c) => <span className="num text-xs">{c.getValue().slice(0, 16).replace("T", " ")}</span>,
+    header: "Updated",
+    cell: (c) => <span className="num text-xs">{formatDateTime(c.getValue())}</span>,
   }),
 ];
 

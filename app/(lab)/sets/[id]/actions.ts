@@ -7,6 +7,7 @@ import { requestPromotion, requestRollback } from "@/db/queries/deployments";
 import { transitionRevision } from "@/db/queries/revisions";
 import { addRevision, findSet, retireSet } from "@/db/queries/sets";
 import { AppError } from "@/lib/errors";
+import { stateWord } from "@/lib/workflow";
 import { promoteFormSchema, retireFormSchema, reviseFormSchema, rollbackFormSchema, transitionFormSchema } from "./schema";
 
 /** The set pages and the review queue show what these actions change. */
@@ -19,7 +20,7 @@ export const transitionAction = defineAction({
   revalidate: SHOWN_IN,
   act: async ({ data, user, transaction }) => {
     const rev = await transaction((trx) => transitionRevision(trx, user, data));
-    return { ok: true, message: `Revision r${rev.revision} is now ${rev.state.replace("_", " ")}.` };
+    return { ok: true, message: `Revision r${rev.revision} is now ${stateWord(rev.state)}.` };
   },
 });
 
