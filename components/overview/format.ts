@@ -1,3 +1,6 @@
+import { formatDateTime } from "@/lib/format/date-time";
+import { countOf } from "@/lib/format/plural";
+
 /** After this long without samples a channel reads as stale, ms. */
 export const STALE_AFTER_MS = 5_000;
 
@@ -11,6 +14,15 @@ export function sampleAge(ageMs: number | null): { text: string; stale: boolean 
   if (s < 7200) return { text: `stale ${Math.floor(s / 60)} min`, stale: true };
   return { text: `stale ${Math.floor(s / 3600)} h`, stale: true };
 }
+
+/** Lost batches with their time base: "1 lost batch since 2026-12-04 03:30:12 UTC". */
+export function lostBatchesText(count: number, sinceMs: number): string {
+  return `${countOf(count, "lost batch", "lost batches")} since ${formatDateTime(sinceMs)}`;
+}
+
+/** What a lost batch is, in one line. */
+export const LOST_BATCHES_MEANING =
+  "Batches the device sent that never arrived (gaps in its sequence numbers); their samples are missing.";
 
 /** Fault counts as "seq_gap 3 · bad_json 1", largest first; empty when there are none. */
 export function faultSummary(faults: Partial<Record<string, number>>): string {

@@ -32,7 +32,7 @@ describe("sparkline envelope", () => {
 });
 
 describe("the overview schema the route handler applies to the sidecar's reply", () => {
-  const channel = { online: null, lastSampleAt: null, productionRevisionId: null, spark: null, faults: {} };
+  const channel = { online: null, lastSampleAt: null, productionRevisionId: null, spark: null, faults: {}, faultsSince: 0 };
 
   it("accepts the sidecar's shape and refuses unknown fault kinds or ragged sparks", () => {
     expect(liveOverviewSchema.safeParse({ now: 1, mqtt: "connected", channels: { "a/b/c": channel } }).success).toBe(true);
