@@ -47,6 +47,8 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
   const can = (action: Parameters<typeof decide>[0], rev?: (typeof revisions)[number]) =>
     decide(action, { role: me.role, actorId: me.id, authorId: rev?.authorId, state: rev?.state, retired, deployable: rev?.analysis.deployable.ok }).ok;
   const activeHere = deployments.filter((d) => d.state === "active");
+  /** The first revision offered for promotion carries the cautions; the others point to them. */
+  const firstPromotable = revisions.find((r) => can("promote", r) && r.analysis.deployable.ok)?.id;
   const search = await props.searchParams;
 
   return (
@@ -161,6 +163,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                     revisionId={rev.id}
                     revision={rev.revision}
                     defaultChannel={set.channel}
+                    showCaution={rev.id === firstPromotable}
                     channels={sameRate.map((c) => ({ path: c.path, format: c.coefficientFormat, ...(states.get(c.id) ?? { active: null, pending: false }) }))}
                   />
                 )}
