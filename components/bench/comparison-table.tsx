@@ -135,7 +135,10 @@ export function ComparisonTable({
                 <th className={th}>Settling 2 %</th>
                 <th className={th}>Max |pole|</th>
                 <th className={th}>Live lag</th>
-                <th className={th}>Live atten. at {liveLineHz === null ? "line" : hz(liveLineHz, 4)} (measured / predicted)</th>
+                <th className={th}>
+                  Live atten. at {liveLineHz === null ? "line" : hz(liveLineHz, 4)}{" "}
+                  <span className="block font-normal">(measured / predicted)</span>
+                </th>
               </tr>
             </thead>
             <tbody>

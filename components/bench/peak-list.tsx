@@ -39,8 +39,8 @@ export function PeakList({
       {peaks.map((p, k) => (
         <li key={p.freqHz} className="text-sm" data-hz={p.freqHz} data-levels={JSON.stringify(Object.fromEntries(levels.map((l) => [l.id, l.levelsDb[k]])))}>
           <div className="flex items-center gap-2">
-            <span className="num w-20">{hz(p.freqHz, 4)}</span>
-            <span className="num w-16 text-xs text-slate-500" title="Level: the PSD at the peak, dB re 1 unit²/Hz">
+            <span className="num w-20 shrink-0">{hz(p.freqHz, 4)}</span>
+            <span className="num w-16 shrink-0 text-xs text-slate-500" title="Level: the PSD at the peak, dB re 1 unit²/Hz">
               {withUnit(powerToDb(p.psd), "dB", 3)}
             </span>
             {(onSeed || onJudge) && (

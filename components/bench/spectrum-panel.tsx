@@ -114,7 +114,7 @@ export function SpectrumPanel({
           {paused ? "Resume" : "Hold"}
         </button>
       </div>
-      <div className="grid gap-3 p-3 lg:grid-cols-[1fr_16rem]">
+      <div className="grid gap-3 p-3 lg:grid-cols-[1fr_19rem]">
         <div className="min-w-0 rounded-md bg-canvas p-2">
           {!computed && <p className="px-2 py-1 text-sm text-slate-300">Waiting for a few seconds of samples to estimate the spectrum…</p>}
           <UPlotChart

@@ -50,9 +50,8 @@ export function ChannelLive({ path, unit, revisions }: { path: string; unit: str
       </div>
       <Production id={live.productionRevisionId} revisions={revisions} />
       {gaps > 0 && (
-        <p className="text-slate-500" data-testid="gap-count" title={LOST_BATCHES_MEANING}>
-          <span className="num">{lostBatchesText(gaps, live.faultsSince)}</span>
-          <span className="block">{LOST_BATCHES_MEANING}</span>
+        <p className="num text-slate-500" data-testid="gap-count" title={LOST_BATCHES_MEANING}>
+          {lostBatchesText(gaps, live.faultsSince)}
         </p>
       )}
       {faults && (

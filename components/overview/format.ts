@@ -22,7 +22,7 @@ export function lostBatchesText(count: number, sinceMs: number): string {
 
 /** What a lost batch is, in one line. */
 export const LOST_BATCHES_MEANING =
-  "Batches the device sent that never arrived (gaps in its sequence numbers); their samples are missing.";
+  "batches the device sent that never arrived (gaps in its sequence numbers); their samples are missing from traces and recordings.";
 
 /** Fault counts as "seq_gap 3 · bad_json 1", largest first; empty when there are none. */
 export function faultSummary(faults: Partial<Record<string, number>>): string {
