@@ -56,7 +56,7 @@ export function ChannelLive({ path, unit, revisions }: { path: string; unit: str
       )}
       {faults && (
         <p className="num text-fault" data-testid="fault-counts">
-          faults: {faults}
+          refused: {faults}
         </p>
       )}
     </div>

@@ -15,7 +15,8 @@ describe("overview card wording", () => {
 
   it("lists fault counts largest first and leaves zeros out", () => {
     expect(faultSummary({})).toBe("");
-    expect(faultSummary({ bad_json: 1, seq_gap: 3, oversized: 0 })).toBe("seq_gap 3 · bad_json 1");
+    expect(faultSummary({ bad_json: 1, seq_gap: 3, oversized: 0 })).toBe("3 lost batches · 1 message not JSON");
+    expect(faultSummary({ rate_mismatch: 2 })).toBe("2 messages at the wrong sample rate");
   });
 });
 
