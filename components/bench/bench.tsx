@@ -152,7 +152,8 @@ export function Bench({
   }, [production.data, showProduction, candidates, designs]);
 
   return (
-    <div className={`space-y-4 ${editing ? "lg:pr-[29rem]" : ""}`}>
+    // While the editor is open the page makes room for it (the channel page's `has-[[data-editing]]`), the alarm strip below included.
+    <div className="space-y-4" data-editing={editing ? "" : undefined}>
       {live.status.error && (
         <Notice tone="error" title="The live stream refused a request">
           {live.status.error}
