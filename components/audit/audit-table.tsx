@@ -1,5 +1,6 @@
 import type { AuditRow } from "@/lib/audit";
 import { formatDateTime } from "@/lib/format/date-time";
+import { countOf } from "@/lib/format/plural";
 
 interface Props {
   items: AuditRow[];
@@ -38,7 +39,7 @@ export function AuditTable({ items, total, page, pageSize, params }: Props) {
         {items.length === 0 && <p className="px-4 py-6 text-sm text-slate-500">No entries match these filters. Widen the date range or clear a filter.</p>}
       </div>
       <nav className="flex items-center justify-between border-t border-slate-200 px-4 py-2 text-sm dark:border-slate-800" aria-label="Pages">
-        <span className="text-slate-500">{total} entr{total === 1 ? "y" : "ies"}</span>
+        <span className="text-slate-500">{countOf(total, "entry", "entries")}</span>
         <span className="flex items-center gap-2">
           {page > 1 && <a className="btn-quiet" href={link(page - 1)}>Newer</a>}
           <span className="num">{page} / {pages}</span>
