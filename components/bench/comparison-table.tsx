@@ -128,7 +128,7 @@ export function ComparisonTable({
                 <th className={th}>Kind · order</th>
                 <th className={th}>Sections / taps</th>
                 <th className={th}>−3 dB</th>
-                <th className={th}>Atten. at {noiseLineHz === null ? "line" : hz(noiseLineHz, 3)}</th>
+                <th className={th}>Atten. at {noiseLineHz === null ? "line" : hz(noiseLineHz, 4)}</th>
                 <th className={th}>Delay at DC</th>
                 <th className={th}>Delay at {delayAtHz === null ? "f" : hz(delayAtHz, 3)}</th>
                 <th className={th}>Overshoot</th>
