@@ -92,6 +92,8 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
   const { clock, logger } = opts;
   const channels = (await listChannels(opts.db)).map((c) => ({ path: c.path, sampleRateHz: c.sampleRateHz }));
   const faults = createFaultLog({ clock, logger });
+  /** When this sidecar started counting faults (epoch ms), the time base of the overview's counts. */
+  const startedAt = clock.now();
 
   let broker: EmbeddedBroker | undefined;
   let bus: MessageBus;
@@ -206,6 +208,7 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
             productionRevisionId: pipeline.productionRevision(path),
             spark: pipeline.spark(path),
             faults: faultsByChannel[path] ?? {},
+            faultsSince: startedAt,
           };
           return [path, entry];
         }),

@@ -11,6 +11,7 @@ import { listActiveRevisions } from "@/db/queries/deployments";
 import { env } from "@/lib/env";
 import { formatHz } from "@/lib/format/units";
 import { WS_PATH } from "@/lib/protocol";
+import { LOST_BATCHES_MEANING } from "@/components/overview/format";
 
 function groupByRig(channels: ChannelRow[]) {
   const rigs = new Map<string, { name: string; devices: Map<string, { name: string; channels: ChannelRow[] }> }>();
@@ -38,7 +39,10 @@ export default async function OverviewPage() {
   return (
     <AlarmFeed port={env().SIDECAR_PORT} wsPath={WS_PATH}>
       <div className="space-y-6">
-        <h1 className="text-xl font-semibold">Overview</h1>
+        <div>
+          <h1 className="text-xl font-semibold">Overview</h1>
+          <p className="text-xs text-slate-500">Lost batches on a card: {LOST_BATCHES_MEANING}</p>
+        </div>
         <LiveBanner />
         {rigs.size === 0 && <p className="text-sm text-slate-500">No rigs yet. An administrator adds rigs, devices and channels.</p>}
         {[...rigs].map(([rigKey, rig]) => (
@@ -49,7 +53,7 @@ export default async function OverviewPage() {
             {[...rig.devices].map(([deviceKey, device]) => (
               <div key={deviceKey} className="px-4 py-3">
                 <h3 className="mb-2 text-sm font-medium text-slate-600 dark:text-slate-300">{device.name}</h3>
-                <ul className="grid gap-2 sm:grid-cols-2 xl:grid-cols-4">
+                <ul className="grid grid-cols-[repeat(auto-fit,minmax(17rem,1fr))] gap-2">
                   {device.channels.map((c) => (
                     <li key={c.path} data-channel={c.path} className="rounded-md border border-slate-200 px-3 py-2 dark:border-slate-800">
                       <Link href={`/channels/${c.path}`} className="group block">

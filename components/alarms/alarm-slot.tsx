@@ -5,6 +5,7 @@ import { useMemo } from "react";
 import { worstSeverity } from "@/lib/alarms/view";
 import { useAlarmEvents } from "./alarm-feed";
 import { useClock } from "@/components/hooks/use-clock";
+import { countOf } from "@/lib/format/plural";
 
 const OPEN = { state: "open" } as const;
 const MASKED = { kind: "masked" } as const;
@@ -37,7 +38,7 @@ export function AlarmSlot({ path, ruleCount }: { path: string; ruleCount: number
     <div className="mt-1.5 space-y-0.5 text-xs" data-testid="alarm-state" data-alarm={raised.length ? "raised" : mine.length ? "unacknowledged" : "clear"}>
       {mine.length === 0 ? (
         <p className="text-slate-500">
-          alarms: clear · {ruleCount} {ruleCount === 1 ? "rule" : "rules"}
+          alarms: clear · {countOf(ruleCount, "rule")}
         </p>
       ) : (
         <Link href={href} className="block font-medium text-fault hover:underline">
@@ -48,7 +49,7 @@ export function AlarmSlot({ path, ruleCount }: { path: string; ruleCount: number
       )}
       {hidden > 0 && (
         <Link href={`${href}&kind=masked`} className="block text-fault/90 underline decoration-dashed underline-offset-2" data-testid="masked-count">
-          filter hid {hidden} {hidden === 1 ? "excursion" : "excursions"} in the last hour
+          filter hid {countOf(hidden, "excursion")} in the last hour
         </Link>
       )}
     </div>

@@ -6,8 +6,7 @@ import { durationText, eventSummary } from "@/lib/alarms/describe";
 import type { AlarmEventView } from "@/lib/protocol";
 import { AckForm } from "./ack-form";
 import { SeverityBadge, StateBadge } from "./alarm-badges";
-
-const clock = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: "short", timeStyle: "medium" });
+import { formatDateTime } from "@/lib/format/date-time";
 
 /** One alarm event: what, where, when, how far past the limit, and its acknowledgement (or the form to give one). */
 export function EventRow({ event, showChannel = true }: { event: AlarmEventView; showChannel?: boolean }) {
@@ -32,7 +31,7 @@ export function EventRow({ event, showChannel = true }: { event: AlarmEventView;
           </Link>
         )}
         <span className="num ml-auto text-xs text-slate-500">
-          {clock(event.raisedAt)}
+          {formatDateTime(event.raisedAt)}
           {lasted !== null && <> · lasted {durationText(lasted)}</>}
         </span>
       </div>
@@ -42,7 +41,7 @@ export function EventRow({ event, showChannel = true }: { event: AlarmEventView;
       </p>
       {event.acknowledgedAt ? (
         <p className="mt-0.5 text-xs text-slate-500" data-testid="acknowledgement">
-          Acknowledged by {event.acknowledgedBy} at {clock(event.acknowledgedAt)}: “{event.comment}”
+          Acknowledged by {event.acknowledgedBy} at {formatDateTime(event.acknowledgedAt)}: “{event.comment}”
         </p>
       ) : acking ? (
         <AckForm eventId={event.id} onDone={() => setAcking(false)} />

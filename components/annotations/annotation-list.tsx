@@ -6,13 +6,12 @@ import { ApiError } from "@/components/bench/api";
 import { durationText } from "@/lib/alarms/describe";
 import { roleAtLeast, type Role } from "@/lib/auth/roles";
 import { deleteAnnotation, type Annotation } from "./api";
+import { formatDateTime } from "@/lib/format/date-time";
 
 export interface Viewer {
   id: number;
   role: Role;
 }
-
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: "short", timeStyle: "medium" });
 
 /** Annotations, newest first, each with its time or span, author and (for its author or a lead) delete. */
 export function AnnotationList({ notes, viewer, showChannel, empty }: { notes: Annotation[]; viewer: Viewer; showChannel?: boolean; empty: string }) {
@@ -35,8 +34,8 @@ export function AnnotationList({ notes, viewer, showChannel, empty }: { notes: A
         {notes.map((n) => (
           <li key={n.id} data-testid="annotation" className="flex flex-wrap items-baseline gap-x-2 py-1.5">
             <span className="num text-xs text-slate-500">
-              {when(n.at)}
-              {n.endAt && <> → {when(n.endAt)} ({durationText(Date.parse(n.endAt) - Date.parse(n.at))})</>}
+              {formatDateTime(n.at)}
+              {n.endAt && <> → {formatDateTime(n.endAt)} ({durationText(Date.parse(n.endAt) - Date.parse(n.at))})</>}
             </span>
             {showChannel && <span className="num text-xs text-slate-500">{n.channel}</span>}
             <span className="min-w-0 flex-1">{n.text}</span>

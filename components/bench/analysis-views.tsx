@@ -266,11 +266,7 @@ export function PolesView({ items }: { items: AnalysisItem[] }) {
           <p key={f} className="mt-1 text-xs text-red-700 dark:text-red-300">Zeros not shown for {f}</p>
         ))}
       </div>
-      {analog.length > 0 ? (
-        <PoleZeroMap plane="s" label="Pole-zero map of the analog prototypes in the s-plane" sets={analog} />
-      ) : (
-        <p className="text-sm text-slate-500">No analog prototype: the s-plane map appears for single IIR designs and analog H(s).</p>
-      )}
+      {analog.length > 0 && <PoleZeroMap plane="s" label="Pole-zero map of the analog prototypes in the s-plane" sets={analog} />}
       {chain && (
         <div className="space-y-2 sm:col-span-2">
           <h4 className="text-sm font-medium">Poles and zeros by stage</h4>

@@ -1,4 +1,5 @@
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
+import type { SetStatus } from "@/lib/workflow";
 
 /** An API failure in plain words (the route's safe message), with its HTTP status. */
 export class ApiError extends Error {
@@ -60,7 +61,7 @@ export async function fetchProduction(path: string): Promise<ProductionFilter | 
 export interface SetSummary {
   id: string | number;
   name: string;
-  status: string;
+  status: SetStatus;
   latestRevision: number;
 }
 

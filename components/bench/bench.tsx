@@ -6,6 +6,7 @@ import { Notice } from "@/components/ui/notice";
 import { candidateColor, candidateName, candidateSlot, tryDesign, type Candidate } from "@/lib/bench/candidates";
 import { PRODUCTION_COLOR, RAW_COLOR } from "@/lib/bench/colors";
 import { PRODUCTION_SLOT, RAW_SLOT, PRODUCTION_TRACE } from "@/lib/bench/live-store";
+import { judgedLine, STRONGEST, type NoiseLineChoice } from "@/lib/bench/noise-line";
 import { specSummary } from "@/lib/bench/spec-text";
 import type { QuantFormat } from "@/lib/dsp";
 import type { ClientMessage } from "@/lib/protocol";
@@ -17,11 +18,13 @@ import { CandidateCautions } from "./cautions-list";
 import { ComparisonTable } from "./comparison-table";
 import { CandidateEditor } from "./editor-panel";
 import { LivePanel, type TraceInfo } from "./live-panel";
+import { NoiseLinePicker } from "./noise-line-picker";
 import { SpectrumPanel } from "./spectrum-panel";
 import { useCandidates } from "./use-candidates";
 import { useKeptCandidates } from "./use-kept-candidates";
 import { useLiveChannel } from "./use-live-channel";
 import { useLatest } from "@/components/hooks/use-latest";
+import { formatDateTime } from "@/lib/format/date-time";
 
 export interface BenchChannel {
   path: string;
@@ -56,7 +59,10 @@ export function Bench({
   const fs = channel.sampleRateHz;
   const [showRaw, setShowRaw] = useState(true);
   const [showProduction, setShowProduction] = useState(true);
-  const [noiseLineHz, setNoiseLineHz] = useState<number | null>(null);
+  const [noiseChoice, setNoiseChoice] = useState<NoiseLineChoice>(STRONGEST);
+  const [peaksHz, setPeaksHz] = useState<number[]>([]);
+  const noiseLine = judgedLine(noiseChoice, peaksHz);
+  const noiseLineRef = useLatest(noiseLine.freqHz);
   const [delayAtHz, setDelayAtHz] = useState<number | null>(null);
   const [crossoverHz, setCrossoverHz] = useState<number | null>(null);
   const candidateList = useCandidates({
@@ -102,6 +108,7 @@ export function Bench({
     onOpen: (send) => {
       sentRef.current.clear();
       sync(send);
+      if (canEdit) send({ type: "noise-line", channel: channel.path, freqHz: noiseLineRef.current });
     },
   });
   const { store, send } = live;
@@ -115,6 +122,11 @@ export function Bench({
     const t = setTimeout(() => sync(send), STREAM_UPDATE_MS);
     return () => clearTimeout(t);
   }, [candidates, sync, send]);
+
+  // The sidecar judges this connection's live metrics at the bench's noise line, so both name one frequency.
+  useEffect(() => {
+    if (canEdit) send({ type: "noise-line", channel: channel.path, freqHz: noiseLine.freqHz });
+  }, [canEdit, send, channel.path, noiseLine.freqHz]);
 
   const setVisible = (id: string, visible: boolean) => {
     if (id === "raw") return setShowRaw(visible);
@@ -140,7 +152,8 @@ export function Bench({
   }, [production.data, showProduction, candidates, designs]);
 
   return (
-    <div className={`space-y-4 ${editing ? "lg:pr-[29rem]" : ""}`}>
+    // While the editor is open the page makes room for it (the channel page's `has-[[data-editing]]`), the alarm strip below included.
+    <div className="space-y-4" data-editing={editing ? "" : undefined}>
       {live.status.error && (
         <Notice tone="error" title="The live stream refused a request">
           {live.status.error}
@@ -159,7 +172,9 @@ export function Bench({
         unit={channel.unit}
         title="Live spectrum"
         onSeed={canEdit ? seed : undefined}
-        onPeaks={(p) => p.length > 0 && setNoiseLineHz(p[0])}
+        onPeaks={(p) => setPeaksHz((old) => (old.length === p.length && old.every((f, i) => f === p[i]) ? old : p))}
+        onJudge={canEdit ? (f) => setNoiseChoice({ kind: "chosen", freqHz: f, from: "peak" }) : undefined}
+        judgedHz={noiseLine.freqHz}
       />
       <CandidateCards
         cards={candidates.map((c) => ({ candidate: c, designError: designs.get(c.id)?.error ?? null, cautions: cautions.get(c.id) ?? [], metrics: live.metrics[c.id] }))}
@@ -189,7 +204,8 @@ export function Bench({
       <ComparisonTable
         items={items}
         metrics={live.metrics}
-        noiseLineHz={noiseLineHz}
+        noiseLine={noiseLine}
+        linePicker={<NoiseLinePicker line={noiseLine} choice={noiseChoice} sampleRateHz={fs} onChoose={setNoiseChoice} />}
         delayAtHz={delayAtHz}
         onDelayAt={setDelayAtHz}
         crossoverHz={crossoverHz}
@@ -220,7 +236,7 @@ function ProductionLine({ production, unit }: { production: UseQueryResult<Produ
   return (
     <p className="text-sm">
       <span className="mr-1.5 inline-block h-2.5 w-2.5 rounded-full bg-production align-middle" aria-hidden="true" />
-      Production: <span className="font-medium">{p.setName}</span> revision {p.revision} · {specSummary(p.spec)} · active since {new Date(p.activatedAt).toLocaleString()}
+      Production: <span className="font-medium">{p.setName}</span> revision {p.revision} · {specSummary(p.spec)} · active since {formatDateTime(p.activatedAt)}
     </p>
   );
 }

@@ -5,7 +5,7 @@ import { candidateColor, candidateName, type Candidate } from "@/lib/bench/candi
 import { CautionBadge } from "./cautions-list";
 import { MAX_CANDIDATES } from "@/lib/bench/colors";
 import type { Caution } from "@/lib/bench/cautions";
-import { withUnit } from "@/lib/bench/format";
+import { hz, withUnit } from "@/lib/bench/format";
 import { specSummary } from "@/lib/bench/spec-text";
 import type { CandidateMetrics } from "@/lib/protocol";
 
@@ -73,7 +73,9 @@ export function CandidateCards({
                   <dd>{withUnit(metrics?.lagMs, "ms")}</dd>
                 </div>
                 <div>
-                  <dt className="text-slate-500">Line atten.</dt>
+                  <dt className="text-slate-500" title="Measured: raw over filtered power in the Welch bin around the noise line">
+                    Atten. at {typeof metrics?.noiseLineHz === "number" ? hz(metrics.noiseLineHz, 4) : "line"}
+                  </dt>
                   <dd>{withUnit(metrics?.measuredAttenuationDb, "dB")}</dd>
                 </div>
               </dl>

@@ -1,5 +1,6 @@
 import { candidateName, type Candidate } from "@/lib/bench/candidates";
 import { highestLevel, REVIEW_LINE, type Caution, type CautionLevel } from "@/lib/bench/cautions";
+import { countOf } from "@/lib/format/plural";
 
 /** The look of each caution level: red for a filter that does not settle, amber for a risk, quiet for advice. */
 const LEVEL_CLASS: Record<CautionLevel, string> = {
@@ -21,7 +22,7 @@ export function CautionBadge({ cautions }: { cautions: Caution[] }) {
   if (!level) return null;
   return (
     <span data-testid="caution-badge" data-level={level} className={`rounded px-1.5 py-0.5 text-xs ${BADGE_CLASS[level]}`}>
-      {cautions.length} {cautions.length === 1 ? "caution" : "cautions"}
+      {countOf(cautions.length, "caution")}
     </span>
   );
 }

@@ -1,13 +1,15 @@
 "use client";
 
-import { useMemo } from "react";
+import { useMemo, type ReactNode } from "react";
 import { Swatch } from "@/components/ui/swatch";
 import { onOrOutsideUnitCircle } from "@/lib/bench/cautions";
 import { candidateFigures, type CandidateFigures } from "@/lib/bench/figures";
 import { hz, withUnit } from "@/lib/bench/format";
+import type { JudgedLine } from "@/lib/bench/noise-line";
 import { activeStages, stability } from "@/lib/dsp";
 import type { CandidateMetrics } from "@/lib/protocol";
 import type { AnalysisItem } from "./analysis-views";
+import { countOf } from "@/lib/format/plural";
 
 /** The row's figures, or a plain sentence in their place (the cause of a failure goes to the console). */
 function figuresOf(item: AnalysisItem, noiseLineHz: number | null, delayAtHz: number | null): CandidateFigures | string {
@@ -39,8 +41,8 @@ const KIND: Record<string, string> = {
   chain: "Chain",
 };
 
-/** Sections and taps of a design, e.g. "2 SOS", "101 taps", "3 SOS + 101 taps" for a chain. */
-const sizeOf = (f: CandidateFigures) => [f.sections !== null ? `${f.sections} SOS` : null, f.taps !== null ? `${f.taps} taps` : null].filter(Boolean).join(" + ");
+/** Sections and taps of a design, e.g. "1 section", "101 taps", "3 sections + 101 taps" for a chain. */
+const sizeOf = (f: CandidateFigures) => [f.sections !== null ? countOf(f.sections, "section") : null, f.taps !== null ? countOf(f.taps, "tap") : null].filter(Boolean).join(" + ");
 
 function NumberInput({ id, label, value, onChange }: { id: string; label: string; value: number | null; onChange: (v: number | null) => void }) {
   return (
@@ -60,15 +62,26 @@ function NumberInput({ id, label, value, onChange }: { id: string; label: string
   );
 }
 
+/** The noise line the live metrics were judged at (the first row's that has one), or null. */
+function liveLineOf(items: AnalysisItem[], metrics: Record<string, CandidateMetrics>): number | null {
+  for (const it of items) {
+    const f = metrics[it.id]?.noiseLineHz;
+    if (typeof f === "number") return f;
+  }
+  return null;
+}
+
 /**
- * The closing comparison: per filter its kind and order, sections, −3 dB points, attenuation at the live
- * spectrum's strongest line, group delay at DC and at a chosen frequency, step overshoot and settling,
- * largest pole radius, and the sidecar's live metrics. Every number carries its unit.
+ * The closing comparison: per filter its kind and order, sections, −3 dB points, attenuation at the
+ * noise line being judged, group delay at DC and at a chosen frequency, step overshoot and settling,
+ * largest pole radius, and the sidecar's live metrics. Every number carries its unit; each attenuation
+ * column names the frequency it is judged at. `linePicker` shows and changes the noise line.
  */
 export function ComparisonTable({
   items,
   metrics,
-  noiseLineHz,
+  noiseLine,
+  linePicker,
   delayAtHz,
   onDelayAt,
   crossoverHz,
@@ -77,14 +90,18 @@ export function ComparisonTable({
 }: {
   items: AnalysisItem[];
   metrics: Record<string, CandidateMetrics>;
-  noiseLineHz: number | null;
+  noiseLine: JudgedLine;
+  linePicker?: ReactNode;
   delayAtHz: number | null;
   onDelayAt: (hz: number | null) => void;
   crossoverHz: number | null;
   onCrossover: (hz: number | null) => void;
   emptyText: string;
 }) {
+  const noiseLineHz = noiseLine.freqHz;
   const rows = useMemo(() => items.map((it) => ({ it, f: figuresOf(it, noiseLineHz, delayAtHz) })), [items, noiseLineHz, delayAtHz]);
+  const liveLineHz = liveLineOf(items, metrics);
+  const hasLive = items.some((it) => metrics[it.id]);
   const th = "px-2 py-1.5 text-left font-medium whitespace-nowrap";
   const td = "px-2 py-1.5 whitespace-nowrap";
   return (
@@ -93,12 +110,17 @@ export function ComparisonTable({
         <h2 className="font-medium">Comparison</h2>
         <NumberInput id="delay-at" label="Group delay at" value={delayAtHz} onChange={onDelayAt} />
         <NumberInput id="crossover" label="Loop crossover" value={crossoverHz} onChange={onCrossover} />
-        <span className="text-xs text-slate-500">Strongest noise line: {noiseLineHz === null ? "waiting for the live spectrum" : hz(noiseLineHz)}</span>
+        {linePicker ?? (
+          <span className="text-sm">
+            <span className="text-slate-500">Noise line judged: </span>
+            <span className="num">{noiseLine.label}</span>
+          </span>
+        )}
       </div>
       {items.length === 0 ? (
         <p className="px-4 py-4 text-sm text-slate-500">{emptyText}</p>
       ) : (
-        <div className="overflow-x-auto">
+        <div className="max-w-full overflow-x-auto">
           <table className="num w-full text-xs" data-testid="comparison-table">
             <thead className="bg-slate-50 text-slate-500 dark:bg-slate-900/60">
               <tr>
@@ -106,14 +128,17 @@ export function ComparisonTable({
                 <th className={th}>Kind · order</th>
                 <th className={th}>Sections / taps</th>
                 <th className={th}>−3 dB</th>
-                <th className={th}>Atten. at {noiseLineHz === null ? "line" : hz(noiseLineHz, 3)}</th>
+                <th className={th}>Atten. at {noiseLineHz === null ? "line" : hz(noiseLineHz, 4)}</th>
                 <th className={th}>Delay at DC</th>
                 <th className={th}>Delay at {delayAtHz === null ? "f" : hz(delayAtHz, 3)}</th>
                 <th className={th}>Overshoot</th>
                 <th className={th}>Settling 2 %</th>
                 <th className={th}>Max |pole|</th>
                 <th className={th}>Live lag</th>
-                <th className={th}>Live atten. (measured / predicted)</th>
+                <th className={th}>
+                  Live atten. at {liveLineHz === null ? "line" : hz(liveLineHz, 4)}{" "}
+                  <span className="block font-normal">(measured / predicted)</span>
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -155,12 +180,20 @@ export function ComparisonTable({
                     <td className={td}>{withUnit(m?.lagMs, "ms")}</td>
                     <td className={td}>
                       {withUnit(m?.measuredAttenuationDb, "dB")} / {withUnit(m?.predictedAttenuationDb, "dB")}
+                      {typeof m?.noiseLineHz === "number" && hz(m.noiseLineHz, 4) !== hz(liveLineHz, 4) && <span className="text-slate-500"> at {hz(m.noiseLineHz, 4)}</span>}
                     </td>
                   </tr>
                 );
               })}
             </tbody>
           </table>
+          {hasLive && (
+            <p className="px-4 py-2 font-sans text-xs text-slate-500">
+              The live predicted attenuation is the design&apos;s figure at the line the sidecar judged, the same figure as the table&apos;s column when both name the same frequency
+              (the sidecar follows the bench&apos;s line within about a second). The measured one is the ratio of raw to filtered power in one Welch bin around the line (about 1/1024 of the sample rate
+              wide), so a notch narrower than a bin measures shallower than predicted.
+            </p>
+          )}
         </div>
       )}
     </section>

@@ -5,6 +5,7 @@ import { useFormContext } from "react-hook-form";
 import { withUnit } from "@/lib/bench/format";
 import { combOrder, estimateFirOrder, firOrderRequirementSchema, firWindows, FIR_DESIGN_LIMITS, notchShapes, SPEC_LIMITS, type FilterSpec } from "@/lib/dsp";
 import { FieldLabel, ListField, NumberField, SelectField } from "./form-fields";
+import { countOf } from "@/lib/format/plural";
 
 const SHAPES = notchShapes.map((s) => ({ value: s, label: s === "notch" ? "Notch (stop)" : "Peak (pass)" }));
 const WINDOWS = firWindows.map((w) => ({ value: w, label: w }));
@@ -139,7 +140,7 @@ function KaiserOrderHelper({ response }: { response: string }) {
       </div>
       <div className="mt-2 flex items-center gap-3 text-xs">
         <span className="text-slate-600 dark:text-slate-300" data-testid="kaiser-estimate">
-          {estimate ? `${estimate.taps} taps, β = ${withUnit(estimate.beta, "", 4)}` : (request.error?.issues[0]?.message ?? "")}
+          {estimate ? `${countOf(estimate.taps, "tap")}, β = ${withUnit(estimate.beta, "", 4)}` : (request.error?.issues[0]?.message ?? "")}
         </span>
         {estimate && !tooMany && (
           <button

@@ -6,6 +6,7 @@ import { useState } from "react";
 import { Segmented } from "@/components/ui/segmented";
 import type { FilterSpec } from "@/lib/dsp";
 import { ApiError, createRevision, createSet, fetchSets, type SavedRevision } from "./api";
+import { stateWord } from "@/lib/workflow";
 
 /**
  * Saves a candidate's spec as a new coefficient set of this channel, or as a new revision of one of its
@@ -87,7 +88,7 @@ export function SavePanel({ channel, spec, suggestedName }: { channel: string; s
               <option value="">Choose a set…</option>
               {sets.data.map((s) => (
                 <option key={s.id} value={String(s.id)}>
-                  {s.name} · revision {s.latestRevision} · {s.status}
+                  {s.name} · revision {s.latestRevision} · {stateWord(s.status)}
                 </option>
               ))}
             </select>

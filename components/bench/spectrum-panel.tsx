@@ -49,6 +49,8 @@ export function SpectrumPanel({
   title,
   onSeed,
   onPeaks,
+  onJudge,
+  judgedHz,
 }: {
   store: LiveStore;
   traces: TraceInfo[];
@@ -56,6 +58,9 @@ export function SpectrumPanel({
   title: string;
   onSeed?: (freqHz: number, mode: SeedMode) => void;
   onPeaks?: (peaksHz: number[]) => void;
+  /** Makes a peak the noise line the attenuation figures are judged at; `judgedHz` is the one judged now. */
+  onJudge?: (freqHz: number) => void;
+  judgedHz?: number | null;
 }) {
   const [computed, setComputed] = useState<Computed | null>(null);
   const [paused, setPaused] = useState(false);
@@ -109,7 +114,7 @@ export function SpectrumPanel({
           {paused ? "Resume" : "Hold"}
         </button>
       </div>
-      <div className="grid gap-3 p-3 lg:grid-cols-[1fr_16rem]">
+      <div className="grid gap-3 p-3 lg:grid-cols-[1fr_19rem]">
         <div className="min-w-0 rounded-md bg-canvas p-2">
           {!computed && <p className="px-2 py-1 text-sm text-slate-300">Waiting for a few seconds of samples to estimate the spectrum…</p>}
           <UPlotChart
@@ -126,12 +131,12 @@ export function SpectrumPanel({
         </div>
         <div>
           <h3 className="label flex items-center gap-1.5">
-            <Swatch color={traces[0]?.color ?? "#94a3b8"} /> Strongest peaks
+            <Swatch color={traces[0]?.color ?? "#94a3b8"} /> Strongest peaks (level)
           </h3>
           {peaks.length === 0 ? (
             <p className="text-sm text-slate-500">{computed ? "No clear peaks (none 10 dB above its surroundings)." : "Estimating…"}</p>
           ) : (
-            <PeakList peaks={peaks} levels={levels} testId="spectrum-peaks" onSeed={onSeed} />
+            <PeakList peaks={peaks} levels={levels} testId="spectrum-peaks" onSeed={onSeed} onJudge={onJudge} judgedHz={judgedHz} />
           )}
           {onSeed && <p className="mt-2 text-xs text-slate-500">Click a peak on the chart to add a notch stage to the candidate being edited, or to start a candidate.</p>}
         </div>

@@ -9,6 +9,7 @@ import { tryDesign } from "@/lib/bench/candidates";
 import { specSummary } from "@/lib/bench/spec-text";
 import { filterSpecSchema, type FilterDesign, type FilterSpec } from "@/lib/dsp";
 import { startingSpec } from "./defaults";
+import { stateWord } from "@/lib/workflow";
 
 /** The sensor filter the loop is checked with, or why there is none yet. */
 export type PickedFilter = { design: FilterDesign; label: string } | { design: null; reason: string };
@@ -116,7 +117,7 @@ export function FilterSource({ path, sampleRateHz, onPick }: { path: string; sam
             <option value="">{sets.isPending ? "Loading sets…" : sets.data?.length ? "Pick a set" : "No sets for this channel"}</option>
             {sets.data?.map((s) => (
               <option key={String(s.id)} value={String(s.id)}>
-                {s.name} (r{s.latestRevision}, {s.status})
+                {s.name} (r{s.latestRevision}, {stateWord(s.status)})
               </option>
             ))}
           </select>

@@ -25,15 +25,25 @@ const pair = (unit: string): ChartSeries[] => [
 
 const orGap = (values: number[] | undefined, length: number): (number | null)[] => values ?? new Array<null>(length).fill(null);
 
-function crossoverMarks(without: LoopAnalysis, withF: LoopAnalysis | null, kind: "gain" | "phase"): ChartMark[] {
+/** Crossovers closer than this (as a frequency ratio) share one label: "fc 8.82 Hz (with and without)". */
+const SAME_CROSSOVER = 1.01;
+
+function crossoverMarks(without: LoopAnalysis, withF: LoopAnalysis | null, kinds: ("gain" | "phase")[]): ChartMark[] {
   const marks: ChartMark[] = [];
-  const add = (a: LoopAnalysis, tag: string) => {
-    const hz = kind === "gain" ? a.margins.gainCrossoverHz : a.margins.phaseCrossoverHz;
-    if (hz !== null) marks.push({ x: hz, label: `${kind === "gain" ? "fc" : "f180"} ${tag} ${withUnit(hz, "Hz", 3)}` });
-  };
-  add(without, "without");
-  if (withF) add(withF, "with");
-  return marks;
+  for (const kind of kinds) {
+    const name = kind === "gain" ? "fc" : "f180";
+    const at = (a: LoopAnalysis | null) => (a === null ? null : kind === "gain" ? a.margins.gainCrossoverHz : a.margins.phaseCrossoverHz);
+    const [off, on] = [at(without), at(withF)];
+    if (off !== null && on !== null && Math.max(off / on, on / off) < SAME_CROSSOVER) {
+      marks.push({ x: off, label: `${name} ${withUnit(off, "Hz", 3)} (with and without)` });
+      continue;
+    }
+    if (off !== null) marks.push({ x: off, label: `${name} without ${withUnit(off, "Hz", 3)}` });
+    if (on !== null) marks.push({ x: on, label: `${name} with ${withUnit(on, "Hz", 3)}` });
+  }
+  // The chart puts labels on two rows, alternating in the order given: in frequency order, labels
+  // next to each other on the axis land on different rows and do not overlap.
+  return marks.sort((a, b) => a.x - b.x);
 }
 
 /** Depth shown below the lowest point of the loop without the filter, so a filter's notch or Nyquist zero does not flatten the plot. */
@@ -65,7 +75,7 @@ export function BodeCharts({ freqs, without, withF }: { freqs: number[]; without
           source={mag}
           x={hzAxis}
           axes={[{ scale: "y", label: "dB" }]}
-          marks={crossoverMarks(without, withF, "gain")}
+          marks={crossoverMarks(without, withF, ["gain"])}
           yRange={magnitudeRange(without.response.magnitudeDb, withF?.response.magnitudeDb ?? null)}
           height={240}
         />
@@ -78,7 +88,7 @@ export function BodeCharts({ freqs, without, withF }: { freqs: number[]; without
           source={phase}
           x={hzAxis}
           axes={[{ scale: "y", label: "°" }]}
-          marks={[...crossoverMarks(without, withF, "gain"), ...crossoverMarks(without, withF, "phase")]}
+          marks={crossoverMarks(without, withF, ["gain", "phase"])}
           height={240}
         />
       </Figure>

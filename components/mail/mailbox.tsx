@@ -1,3 +1,5 @@
+import { formatDateTime } from "@/lib/format/date-time";
+
 interface Message {
   id: string;
   receivedAt: Date;
@@ -16,7 +18,6 @@ interface Pending {
   lastError: string | null;
 }
 
-const utc = (d: Date) => `${d.toISOString().slice(0, 19).replace("T", " ")} UTC`;
 
 /** The development mailbox (what the SMTP fake received) and what still waits in the outbox. */
 export function Mailbox({ messages, backlog }: { messages: Message[]; backlog: Pending[] }) {
@@ -34,7 +35,7 @@ export function Mailbox({ messages, backlog }: { messages: Message[]; backlog: P
               <details className="px-4 py-2">
                 <summary className="cursor-pointer">
                   <span className="font-medium">{m.subject}</span>
-                  <span className="ml-2 text-xs text-slate-500">to {m.to.join(", ")} · <span className="num">{utc(m.receivedAt)}</span></span>
+                  <span className="ml-2 text-xs text-slate-500">to {m.to.join(", ")} · <span className="num">{formatDateTime(m.receivedAt)}</span></span>
                 </summary>
                 <pre className="num mt-2 whitespace-pre-wrap text-xs">{m.body}</pre>
                 <p className="mt-1 text-xs text-slate-500">From {m.from}</p>
@@ -58,7 +59,7 @@ export function Mailbox({ messages, backlog }: { messages: Message[]; backlog: P
                   <td className="px-4 py-1.5">{m.subject}</td>
                   <td className="px-2 text-xs">{m.recipients.join(", ")}</td>
                   <td className="num px-2">{m.attempts}</td>
-                  <td className="num px-2 text-xs">{utc(m.nextAttemptAt)}</td>
+                  <td className="num px-2 text-xs">{formatDateTime(m.nextAttemptAt)}</td>
                   <td className="px-2 text-xs text-fault">{m.lastError}</td>
                 </tr>
               ))}

@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { useRouter } from "next/navigation";
 import { useEffect, type ReactNode } from "react";
-import { faultSummary, sampleAge } from "./format";
+import { faultSummary, LOST_BATCHES_MEANING, lostBatchesText, sampleAge } from "./format";
 import { Sparkline } from "./sparkline";
 import { useLiveOverview } from "./use-live-overview";
 import { useClock } from "@/components/hooks/use-clock";
@@ -50,13 +50,13 @@ export function ChannelLive({ path, unit, revisions }: { path: string; unit: str
       </div>
       <Production id={live.productionRevisionId} revisions={revisions} />
       {gaps > 0 && (
-        <p className="num text-slate-500" data-testid="gap-count">
-          lost batches: {gaps}
+        <p className="num text-slate-500" data-testid="gap-count" title={LOST_BATCHES_MEANING}>
+          {lostBatchesText(gaps, live.faultsSince)}
         </p>
       )}
       {faults && (
         <p className="num text-fault" data-testid="fault-counts">
-          faults: {faults}
+          refused: {faults}
         </p>
       )}
     </div>

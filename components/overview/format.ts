@@ -1,3 +1,7 @@
+import { FAULT_KINDS, type FaultKind } from "@/lib/protocol";
+import { formatDateTime } from "@/lib/format/date-time";
+import { countOf } from "@/lib/format/plural";
+
 /** After this long without samples a channel reads as stale, ms. */
 export const STALE_AFTER_MS = 5_000;
 
@@ -12,12 +16,36 @@ export function sampleAge(ageMs: number | null): { text: string; stale: boolean 
   return { text: `stale ${Math.floor(s / 3600)} h`, stale: true };
 }
 
-/** Fault counts as "seq_gap 3 · bad_json 1", largest first; empty when there are none. */
-export function faultSummary(faults: Partial<Record<string, number>>): string {
-  return Object.entries(faults)
-    .filter((e): e is [string, number] => (e[1] ?? 0) > 0)
+/** Lost batches with their time base: "1 lost batch since 2026-12-04 03:30:12 UTC". */
+export function lostBatchesText(count: number, sinceMs: number): string {
+  return `${countOf(count, ...FAULT_WORDS.seq_gap)} since ${formatDateTime(sinceMs)}`;
+}
+
+/** What a lost batch is, in one line. */
+export const LOST_BATCHES_MEANING =
+  "batches the device sent that never arrived (gaps in its sequence numbers); their samples are missing from traces and recordings.";
+
+/** Each ingest fault kind in words, as a count reads it ("3 lost batches", "1 message not JSON"). */
+const FAULT_WORDS: Record<FaultKind, [string, string]> = {
+  bad_topic: ["message on an unknown topic", "messages on unknown topics"],
+  oversized: ["message too large", "messages too large"],
+  bad_json: ["message not JSON", "messages not JSON"],
+  bad_binary: ["unreadable binary message", "unreadable binary messages"],
+  bad_shape: ["message of the wrong shape", "messages of the wrong shape"],
+  non_finite: ["message with a non-finite sample", "messages with non-finite samples"],
+  bad_length: ["message of the wrong length", "messages of the wrong length"],
+  unknown_channel: ["message for an unknown channel", "messages for unknown channels"],
+  rate_mismatch: ["message at the wrong sample rate", "messages at the wrong sample rate"],
+  seq_gap: ["lost batch", "lost batches"],
+  handler_error: ["message that failed to process", "messages that failed to process"],
+  foreign_ack: ["acknowledgement from another device", "acknowledgements from other devices"],
+};
+
+/** Fault counts in words, largest first: "3 messages not JSON · 1 message too large"; empty when there are none. */
+export function faultSummary(faults: Partial<Record<FaultKind, number>>): string {
+  return FAULT_KINDS.flatMap((kind) => ((faults[kind] ?? 0) > 0 ? [[kind, faults[kind] ?? 0] as const] : []))
     .sort((a, b) => b[1] - a[1])
-    .map(([kind, n]) => `${kind} ${n}`)
+    .map(([kind, n]) => countOf(n, ...FAULT_WORDS[kind]))
     .join(" · ");
 }
 

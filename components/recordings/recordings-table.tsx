@@ -3,6 +3,7 @@ import type { RecordingSummary } from "@/lib/recordings/summary";
 import { formatHz } from "@/lib/format/units";
 import { formatDuration } from "@/lib/recordings/format";
 import { DeleteRecordingButton } from "./delete-button";
+import { formatDateTime } from "@/lib/format/date-time";
 
 /** The recordings with channel, name, samples, duration, rate, author and time; delete where allowed. */
 export function RecordingsTable({ recordings, canDelete }: { recordings: RecordingSummary[]; canDelete: (r: RecordingSummary) => boolean }) {
@@ -42,7 +43,7 @@ export function RecordingsTable({ recordings, canDelete }: { recordings: Recordi
               <td className={`${td} num`}>{formatDuration(r.sampleCount / r.sampleRateHz)}</td>
               <td className={`${td} num`}>{formatHz(r.sampleRateHz, 6)}</td>
               <td className={td}>{r.authorName}</td>
-              <td className={`${td} num text-xs`}>{r.createdAt.toISOString().replace("T", " ").slice(0, 16)} UTC</td>
+              <td className={`${td} num text-xs`}>{formatDateTime(r.createdAt)}</td>
               <td className={td}>{canDelete(r) && <DeleteRecordingButton id={r.id} name={r.name} />}</td>
             </tr>
           ))}

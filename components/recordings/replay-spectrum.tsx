@@ -20,7 +20,22 @@ export interface TraceSpectrum {
  * Welch PSD of the recording's longest stretch without missing samples, for the raw trace (its
  * strongest peaks labelled, and seeding a notch or cutoff when `onSeed` is given) and the shown candidates.
  */
-export function ReplaySpectrum({ spectra, unit, stretchSeconds, onSeed }: { spectra: TraceSpectrum[]; unit: string; stretchSeconds: number; onSeed?: (freqHz: number, mode: SeedMode) => void }) {
+export function ReplaySpectrum({
+  spectra,
+  unit,
+  stretchSeconds,
+  onSeed,
+  onJudge,
+  judgedHz,
+}: {
+  spectra: TraceSpectrum[];
+  unit: string;
+  stretchSeconds: number;
+  onSeed?: (freqHz: number, mode: SeedMode) => void;
+  /** Makes a peak the noise line the comparison judges attenuation at; `judgedHz` is the one judged now. */
+  onJudge?: (freqHz: number) => void;
+  judgedHz?: number | null;
+}) {
   const lead = spectra[0]?.spectrum ?? null;
   const source = useMemo(() => {
     if (!lead) return staticSource([[], ...spectra.map(() => [])] as uPlot.AlignedData);
@@ -58,7 +73,7 @@ export function ReplaySpectrum({ spectra, unit, stretchSeconds, onSeed }: { spec
           {peaks.length === 0 ? (
             <p className="text-sm text-slate-500">No clear peaks (none 10 dB above its surroundings).</p>
           ) : (
-            <PeakList peaks={peaks} testId="recording-peaks" onSeed={onSeed} />
+            <PeakList peaks={peaks} testId="recording-peaks" onSeed={onSeed} onJudge={onJudge} judgedHz={judgedHz} />
           )}
         </div>
       </div>

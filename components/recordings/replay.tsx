@@ -7,6 +7,8 @@ import type { AnalysisItem } from "@/components/bench/analysis-views";
 import { CandidateCards } from "@/components/bench/candidate-cards";
 import { CandidateCautions } from "@/components/bench/cautions-list";
 import { ComparisonTable } from "@/components/bench/comparison-table";
+import { NoiseLinePicker } from "@/components/bench/noise-line-picker";
+import { judgedLine, STRONGEST, type NoiseLineChoice } from "@/lib/bench/noise-line";
 import { CandidateEditor } from "@/components/bench/editor-panel";
 import { useCandidates } from "@/components/bench/use-candidates";
 import { Notice } from "@/components/ui/notice";
@@ -60,6 +62,7 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
   const [showRaw, setShowRaw] = useState(true);
   const [delayAtHz, setDelayAtHz] = useState<number | null>(null);
   const [crossoverHz, setCrossoverHz] = useState<number | null>(null);
+  const [noiseChoice, setNoiseChoice] = useState<NoiseLineChoice>(STRONGEST);
   const candidateList = useCandidates({ sampleRateHz: fs, deviceFormat: recording.coefficientFormat, crossoverHz });
   const { candidates, designs, cautions, editingId, setEditingId, editing, addCandidate, removeCandidate, setCandidateVisible, seed } = candidateList;
   const [outputCache] = useState(() => new PassCache<Float64Array>());
@@ -89,7 +92,8 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
     return list;
   }, [raw, showRaw, candidates, outputs]);
   const spectra: TraceSpectrum[] = useMemo(() => traces.filter((t, i) => i === 0 || t.visible).map((t, i) => ({ trace: t, spectrum: spectrumOf(t.samples, run, fs, i === 0 ? 5 : 0) })), [traces, run, fs]);
-  const noiseLineHz = spectra[0]?.spectrum?.peaks[0]?.freqHz ?? null;
+  const noiseLine = judgedLine(noiseChoice, spectra[0]?.spectrum?.peaks.map((p) => p.freqHz) ?? []);
+  const noiseLineHz = noiseLine.freqHz;
   const metrics = useMemo(() => {
     const m: Record<string, CandidateMetrics> = {};
     if (!raw) return m;
@@ -118,7 +122,16 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
       </Notice>
     );
   }
-  const spectrumPanel = <ReplaySpectrum spectra={spectra} unit={recording.unit} stretchSeconds={(run.to - run.from) / fs} onSeed={canEdit ? seed : undefined} />;
+  const spectrumPanel = (
+    <ReplaySpectrum
+      spectra={spectra}
+      unit={recording.unit}
+      stretchSeconds={(run.to - run.from) / fs}
+      onSeed={canEdit ? seed : undefined}
+      onJudge={canEdit ? (f) => setNoiseChoice({ kind: "chosen", freqHz: f, from: "peak" }) : undefined}
+      judgedHz={noiseLineHz}
+    />
+  );
   return (
     <div className={`space-y-4 ${editing ? "lg:pr-[29rem]" : ""}`}>
       <TryOnBench channelPath={recording.channelPath} candidates={canEdit ? candidates : []} designs={designs} />
@@ -142,7 +155,8 @@ export function RecordingReplay({ recording, canEdit }: { recording: ReplayRecor
           <ComparisonTable
             items={items}
             metrics={{}}
-            noiseLineHz={noiseLineHz}
+            noiseLine={noiseLine}
+            linePicker={<NoiseLinePicker line={noiseLine} choice={noiseChoice} sampleRateHz={fs} onChoose={setNoiseChoice} />}
             delayAtHz={delayAtHz}
             onDelayAt={setDelayAtHz}
             crossoverHz={crossoverHz}

@@ -5,6 +5,7 @@ import { useState } from "react";
 import { keepCandidate } from "@/components/bench/api";
 import type { Candidate, Designed } from "@/lib/bench/candidates";
 import { errorMessage } from "@/lib/errors";
+import { countOf } from "@/lib/format/plural";
 
 /**
  * "Try on the live bench": keeps the replay's candidates that design on the engineer's bench of the
@@ -33,7 +34,7 @@ export function TryOnBench({ channelPath, candidates, designs }: { channelPath: 
         </p>
       )}
       <button type="button" className="btn-quiet py-1 text-sm" disabled={state.busy} onClick={() => void go()}>
-        {state.busy ? "Opening the bench…" : carried.length ? `Try on the live bench (${carried.length === 1 ? "1 candidate" : `${carried.length} candidates`})` : "Try on the live bench"}
+        {state.busy ? "Opening the bench…" : carried.length ? `Try on the live bench (${countOf(carried.length, "candidate")})` : "Try on the live bench"}
       </button>
     </div>
   );

@@ -11,10 +11,12 @@ interface Props {
   /** Channels of the revision's sample rate, with what runs there now. */
   channels: { path: string; format: string; active: string | null; pending: boolean }[];
   defaultChannel: string;
+  /** Whether this form shows the cautions; a page with several promotable revisions shows them once, with the first. */
+  showCaution: boolean;
 }
 
 /** Promotion of an approved revision to channels of the same sample rate, behind the cautions. */
-export function PromoteForm({ action, revisionId, revision, channels, defaultChannel }: Props) {
+export function PromoteForm({ action, revisionId, revision, channels, defaultChannel, showCaution }: Props) {
   const [state, formAction, pending] = useActionState<ActionState, FormData>(action, { ok: true });
   // "Waiting for the device" holds only while a deployment waits; once none does, the table below tells what the device did.
   const answered = state.ok && !channels.some((c) => c.pending);
@@ -38,7 +40,7 @@ export function PromoteForm({ action, revisionId, revision, channels, defaultCha
           ))}
         </ul>
       </fieldset>
-      <SafetyCaution />
+      {showCaution ? <SafetyCaution /> : <p className="text-sm text-slate-500">The cautions under &ldquo;Before you promote&rdquo; above apply here too.</p>}
       <label className="flex items-start gap-2 text-sm">
         <input type="checkbox" name="confirm" value="yes" className="mt-1" />
         <span>I have read the cautions, and this revision went through our review for these channels.</span>

@@ -1,4 +1,5 @@
 import { quantizedParts, type QuantizedDesign, type QuantizedPart } from "@/lib/dsp";
+import { countOf } from "@/lib/format/plural";
 
 /** A coefficient in full precision (meant to be copied): 17 significant digits round-trip a float64. */
 const full = (v: number) => String(Number(v.toPrecision(17)));
@@ -9,7 +10,7 @@ function PartTable({ part, format, title }: { part: QuantizedPart; format: strin
     return (
       <div className="space-y-1">
         <h5 className="text-xs font-medium">
-          {title}: FIR, {part.taps.length === 1 ? "1 tap" : `${part.taps.length} taps`}
+          {title}: FIR, {countOf(part.taps.length, "tap")}
           {fixed && <span className="font-normal text-slate-500"> · post-shift {part.shifts[0]}</span>}
         </h5>
         <ol className="num max-h-40 overflow-auto rounded bg-slate-50 p-2 text-xs dark:bg-slate-900" start={0} aria-label={`${title} taps`}>
@@ -27,7 +28,7 @@ function PartTable({ part, format, title }: { part: QuantizedPart; format: strin
   return (
     <div className="space-y-1">
       <h5 className="text-xs font-medium">
-        {title}: {sos.length === 1 ? "1 section" : `${sos.length} sections`} [b0, b1, b2, a1, a2], as the device runs them
+        {title}: {countOf(sos.length, "section")} [b0, b1, b2, a1, a2], as the device runs them
       </h5>
       <div className="max-h-56 overflow-auto">
         <table className="num w-full text-xs" data-testid="revision-sections">

@@ -7,6 +7,8 @@ import { useDeferredValue, useState } from "react";
 import { SET_STATUSES, STATE_LABELS } from "@/lib/workflow";
 import type { SetListItem } from "@/lib/workflow/set-list";
 import { StateBadge } from "./state-badge";
+import { formatDateTime } from "@/lib/format/date-time";
+import { countOf } from "@/lib/format/plural";
 
 /** A list row as GET /api/v1/sets sends it (dates as ISO strings). */
 type SetRow = SetListItem<string>;
@@ -23,8 +25,8 @@ const columns = [
   col.accessor("latestRevision", { header: "Latest", cell: (c) => <span className="num">r{c.getValue()}</span> }),
   col.accessor("author", { header: "Author" }),
   col.accessor("updatedAt", {
-    header: "Updated (UTC)",
-    cell: (c) => <span className="num text-xs">{c.getValue().slice(0, 16).replace("T", " ")}</span>,
+    header: "Updated",
+    cell: (c) => <span className="num text-xs">{formatDateTime(c.getValue())}</span>,
   }),
 ];
 
@@ -133,7 +135,7 @@ export function SetsTable({ channels }: { channels: string[] }) {
         )}
       </div>
       <div className="flex items-center justify-between border-t border-slate-200 px-4 py-2 text-sm dark:border-slate-800">
-        <span className="text-slate-500">{total} set{total === 1 ? "" : "s"}</span>
+        <span className="text-slate-500">{countOf(total, "set")}</span>
         <div className="flex items-center gap-2">
           <button type="button" className="btn-quiet" disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>Previous</button>
           <span className="num">{page} / {pages}</span>

@@ -1,12 +1,15 @@
 /**
- * Trace colours. Raw is a muted grey and production a warm amber (tailwind `production`); candidates
- * take the Okabe–Ito colour-blind-safe palette (Okabe & Ito, "Color Universal Design", 2008) without
- * its orange, which would read as production on the chart, and without its black, which vanishes on
- * the dark chart canvas. Vermillion comes last so that red-looking lines stay rare.
+ * Trace colours. Raw is a muted grey and production a warm amber (tailwind `production`). The six
+ * candidate colours come from Paul Tol's colour-blind-safe schemes (Tol, "Colour Schemes", SRON
+ * technical note, 2021: bright, vibrant and light): the six of them chosen so that every pair, and
+ * each against raw and production, stays far apart in CIEDE2000 for normal vision and under
+ * simulated protanopia, deuteranopia and tritanopia, and each stands out on the dark chart canvas
+ * (tests/unit/candidate-colors.test.ts checks the distances). No orange (production's) and the rose
+ * last, so red-looking lines stay rare.
  */
 export const RAW_COLOR = "#94a3b8";
 export const PRODUCTION_COLOR = "#f2a93b";
-export const CANDIDATE_COLORS = ["#56b4e9", "#009e73", "#cc79a7", "#f0e442", "#3d8fd1", "#d55e00"] as const;
+export const CANDIDATE_COLORS = ["#99ddff", "#44bb99", "#aa3377", "#0077bb", "#117733", "#ee6677"] as const;
 export const MAX_CANDIDATES = CANDIDATE_COLORS.length;
 
 /** The first palette index not in use, or null when all six are taken. */

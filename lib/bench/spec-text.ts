@@ -1,6 +1,7 @@
 import { activeStages, type FilterSpec, type StageSpec } from "@/lib/dsp";
 import { hz, withUnit } from "./format";
 import { FAMILY_LABELS } from "./spec-defaults";
+import { countOf } from "@/lib/format/plural";
 
 const RESPONSE: Record<string, string> = { lowpass: "LP", highpass: "HP", bandpass: "BP", bandstop: "BS" };
 const METHOD: Record<string, string> = {
@@ -39,7 +40,7 @@ export function stageSummary(spec: StageSpec): string {
     case "fir":
       return `FIR ${RESPONSE[spec.response]} ${spec.taps} taps · ${capital(spec.window)} · ${band(spec.cutoffHz)}`;
     case "moving-average":
-      return `Moving average · ${spec.length} samples`;
+      return `Moving average · ${countOf(spec.length, "sample")}`;
     case "differentiator":
       return "Differentiator · first difference";
     case "ema":
@@ -47,15 +48,15 @@ export function stageSummary(spec: StageSpec): string {
     case "analog":
       return `Analog H(s) order ${spec.den.length - 1} · ${METHOD[spec.method]}`;
     case "fir-equiripple":
-      return `Equiripple FIR ${spec.taps} taps · ${spec.desired.length} bands`;
+      return `Equiripple FIR ${spec.taps} taps · ${countOf(spec.desired.length, "band")}`;
     case "fir-arbitrary":
-      return `Arbitrary FIR ${spec.taps} taps · ${capital(spec.window)} · ${spec.freqsHz.length} points`;
+      return `Arbitrary FIR ${spec.taps} taps · ${capital(spec.window)} · ${countOf(spec.freqsHz.length, "point")}`;
     case "notch":
       return `${capital(spec.shape)} · ${hz(spec.centerHz)}, Q ${withUnit(spec.q, "")} (−3 dB width ${hz(spec.centerHz / spec.q)})`;
     case "comb":
       return `Comb ${spec.shape} · ${hz(spec.fundamentalHz)} and harmonics, Q ${withUnit(spec.q, "")}`;
     case "coefficients":
-      return spec.sos ? `Pasted SOS · ${spec.sos.length} sections` : `Pasted b/a · ${spec.b?.length ?? 0}/${spec.a?.length ?? 1} coefficients`;
+      return spec.sos ? `Pasted SOS · ${countOf(spec.sos.length, "section")}` : `Pasted b/a · ${spec.b?.length ?? 0}/${spec.a?.length ?? 1} coefficients`;
   }
 }
 

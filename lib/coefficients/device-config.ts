@@ -1,6 +1,7 @@
 import { quantizedParts, stability, type QuantizedDesign, type QuantizedPart } from "@/lib/dsp";
 import { canonicalJson, type ChannelConfig, type ConfigFormat, type FixedStage, type FloatStage } from "@/lib/protocol";
 import { deployability, quantizationFor, type StoredCoefficients } from "./revision-content";
+import { countOf } from "@/lib/format/plural";
 
 /** Why a revision may not go to a channel; the message is safe to show. */
 export class DeploymentRefusal extends Error {}
@@ -19,8 +20,6 @@ export interface DeploymentTarget {
   capacity: ChannelCapacity;
 }
 
-const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? "" : "s"}`;
-
 /** Sections and FIR taps a quantized design runs, over all its stages. */
 export function quantizedCounts(q: QuantizedDesign): { sections: number; taps: number } {
   let sections = 0;
@@ -38,8 +37,8 @@ function assertFits(q: QuantizedDesign, target: Pick<DeploymentTarget, "label" |
   const { maxSections, maxFirTaps } = target.capacity;
   if (needs.sections <= maxSections && needs.taps <= maxFirTaps) return;
   throw new DeploymentRefusal(
-    `the filter needs ${plural(needs.sections, "section")} and ${plural(needs.taps, "FIR tap")}; ` +
-      `${target.label} takes at most ${plural(maxSections, "section")} and ${plural(maxFirTaps, "FIR tap")}`,
+    `the filter needs ${countOf(needs.sections, "section")} and ${countOf(needs.taps, "FIR tap")}; ` +
+      `${target.label} takes at most ${countOf(maxSections, "section")} and ${countOf(maxFirTaps, "FIR tap")}`,
   );
 }
 

@@ -2,6 +2,7 @@ import { quantizedCounts } from "@/lib/coefficients";
 import { quantizedParts } from "@/lib/dsp";
 import { commentSafe } from "./names";
 import type { ExportTarget, PreparedExport } from "./types";
+import { formatDateTime } from "@/lib/format/date-time";
 
 /** The difference equation every export states, in ASCII (a0 = 1). */
 export const DIFFERENCE_EQUATION = "y[n] = b0*x[n] + b1*x[n-1] + b2*x[n-2] - a1*y[n-1] - a2*y[n-2]";
@@ -25,7 +26,6 @@ const STRUCTURE_TEXT: Record<ExportTarget, string> = {
   q31: "sections in direct form I (DF1 with a 64-bit accumulator), 4 word states per section; FIR stages in direct form",
 };
 
-const utc = (d: Date) => `${d.toISOString().slice(0, 19).replace("T", " ")} UTC`;
 
 /** Name-value lines describing an export, for the comment blocks of the C headers and the scipy file. */
 export function describeExport(p: PreparedExport, structure = STRUCTURE_TEXT[p.target]): string[] {
@@ -44,7 +44,7 @@ export function describeExport(p: PreparedExport, structure = STRUCTURE_TEXT[p.t
     `Sections:     ${sections}`,
     `FIR taps:     ${taps}`,
     `Post-shifts:  ${p.target === "f32" ? "none (f32)" : parts.flatMap((part) => part.shifts).join(", ")}`,
-    `Approved:     ${s.approval ? `by ${commentSafe(s.approval.by)} at ${utc(s.approval.at)}` : "not approved"}`,
+    `Approved:     ${s.approval ? `by ${commentSafe(s.approval.by)} at ${formatDateTime(s.approval.at)}` : "not approved"}`,
     `Content hash: sha256:${p.contentHash}`,
     "              (SHA-256 of the RFC 8785 canonical JSON of the json export's \"coefficients\" object)",
   ];

@@ -2,6 +2,7 @@ import { quantizedParts, type QuantizedPart } from "@/lib/dsp";
 import { describeExport, DIFFERENCE_EQUATION, stageSource } from "./describe";
 import { pythonFloat } from "./literals";
 import type { PreparedExport } from "./types";
+import { countOf } from "@/lib/format/plural";
 
 const sosRows = (part: QuantizedPart) => (part.sos ?? []).map((r) => `    [${r.map(pythonFloat).join(", ")}],`);
 
@@ -15,7 +16,7 @@ export function renderScipy(p: PreparedExport): string {
   const parts = quantizedParts(p.quantized);
   const title = (k: number) => {
     const part = parts[k];
-    const size = part.taps ? `FIR, ${part.taps.length} taps` : `${part.sos?.length ?? 0} section${part.sos?.length === 1 ? "" : "s"}`;
+    const size = part.taps ? `FIR, ${countOf(part.taps.length, "tap")}` : countOf(part.sos?.length ?? 0, "section");
     return `stage ${k} (${stageSource(p, k)}): ${size}`;
   };
   const body = parts.every((part) => !part.taps)

@@ -1,5 +1,6 @@
 import { trim } from "@/lib/format/units";
 import type { AlarmEventView } from "@/lib/protocol";
+import { formatDateTime } from "@/lib/format/date-time";
 
 /** The subject and plain-text body of one notification; recipients are chosen by the caller. */
 export interface MailMessage {
@@ -76,7 +77,7 @@ export function alarmMail(e: AlarmEventView): MailMessage {
     subject: `Critical alarm: ${e.ruleName} on ${e.channel}`,
     body:
       `The ${signal} of ${e.channel} went ${e.side === "high" ? "above its high" : "below its low"} limit of ${trim(e.limit, 6)} ${e.unit} ` +
-      `at ${e.raisedAt.replace("T", " ").replace(/\.\d+Z$/, " UTC")} (${trim(e.peak, 5)} ${e.unit} when raised).` +
+      `at ${formatDateTime(e.raisedAt)} (${trim(e.peak, 5)} ${e.unit} when raised).` +
       `\n\nOpen the Alarms page to acknowledge it: /alarms` +
       `\n\n— Tapwright (an engineering aid; this message makes no safety claim. Follow the machine's safety documentation.)\n`,
   };

@@ -20,6 +20,8 @@ export const liveOverviewSchema = z.object({
         .refine((s) => s.min.length === s.max.length, { error: "min and max must have the same length" })
         .nullable(),
       faults: z.partialRecord(z.enum(FAULT_KINDS), z.number().int().nonnegative()),
+      /** Since when the sidecar serving the channel has counted its faults (when it started), epoch ms. */
+      faultsSince: z.number(),
     }),
   ),
 });

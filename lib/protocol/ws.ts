@@ -27,6 +27,12 @@ export const clientMessageSchema = z.discriminatedUnion("type", [
       maxPoints: z.number().int().min(16).max(1_000_000),
     })
     .strict(),
+  /**
+   * The frequency in Hz at which this connection's live metrics judge attenuation (the noise line),
+   * 0 < freqHz < fs/2 of the channel (the sidecar checks the upper bound); null: the strongest peak
+   * of the raw spectrum.
+   */
+  z.object({ type: z.literal("noise-line"), channel: channelPathSchema, freqHz: z.number().positive().finite().nullable() }).strict(),
 ]);
 export type ClientMessage = z.infer<typeof clientMessageSchema>;
 

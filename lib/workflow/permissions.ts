@@ -1,5 +1,5 @@
 import { roleAtLeast, type Role } from "@/lib/auth/roles";
-import { TRANSITIONS, type RevisionState, type Transition } from "./states";
+import { stateWord, TRANSITIONS, type RevisionState, type Transition } from "./states";
 
 /** Everything a person can do to a set or a revision. */
 export const ACTIONS = ["create_set", "save_revision", "submit", "approve", "reject", "promote", "rollback", "retire"] as const;
@@ -54,16 +54,19 @@ export function decide(action: WorkflowAction, s: WorkflowSubject): Decision {
   if (s.retired && action !== "rollback") return deny("conflict", "This set is retired; it takes no further changes.");
   if (isTransition(action)) {
     const { from } = TRANSITIONS[action];
-    if (s.state !== from) return deny("conflict", `Only a revision in state ${from} can be ${pastTense(action)}; this one is ${s.state}.`);
+    if (s.state !== from) return deny("conflict", `Only a revision that is ${stateWord(from)} can be ${pastTense(action)}; this one is ${isWhat(s.state)}.`);
   }
   if (action === "approve" && s.deployable === false) {
     return deny("conflict", "This revision is marked not deployable, so it cannot be approved; reject it or save a new revision.");
   }
   if (action === "promote" && s.state !== "approved") {
-    return deny("conflict", `Only an approved revision can be promoted; this one is ${s.state}.`);
+    return deny("conflict", `Only an approved revision can be promoted; this one is ${isWhat(s.state)}.`);
   }
   return { ok: true };
 }
+
+/** The state a subject is in, as a word in a sentence ("in review"), or what to say when it has none. */
+const isWhat = (state: RevisionState | undefined): string => (state ? stateWord(state) : "not a revision");
 
 function pastTense(action: Transition): string {
   return { submit: "submitted", approve: "approved", reject: "rejected" }[action];

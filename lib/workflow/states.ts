@@ -34,3 +34,8 @@ export const STATE_LABELS: Record<SetStatus | DeploymentState, string> = {
   failed: "Failed",
   rolled_back: "Rolled back",
 };
+
+/** A state as a word inside a sentence: "in review", "rolled back" (STATE_LABELS in lower case). */
+export function stateWord(state: SetStatus | DeploymentState): string {
+  return STATE_LABELS[state].toLowerCase();
+}

@@ -1,5 +1,5 @@
 import FFT from "fft.js";
-import { findPeaks, frequencyResponse, welch, type FilterDesign, type SpectralPeak, type WelchResult } from "@/lib/dsp";
+import { attenuationDb, findPeaks, welch, type FilterDesign, type SpectralPeak, type WelchResult } from "@/lib/dsp";
 import type { CandidateMetrics } from "@/lib/protocol";
 
 /** Largest lag searched, in seconds and in samples (whichever is smaller). */
@@ -88,25 +88,28 @@ export function rawSpectrum(raw: Float64Array, sampleRateHz: number): RawSpectru
  * output (the last second, taken only once the filter has run long enough to settle):
  * - lagMs: cross-correlation lag of output behind raw;
  * - removedRms: RMS of raw delayed by that lag minus the output, in the channel's unit;
- * - noiseLineHz: strongest spectral peak of raw (Welch PSD, findPeaks);
- * - measuredAttenuationDb: 10·log10 of raw PSD over output PSD at that line's bin;
- * - predictedAttenuationDb: −|H| in dB of the design at that line.
+ * - noiseLineHz: `lineHz` when the engineer chose one (the bench sends the line it judges, so both
+ *   judge the same frequency), else the strongest spectral peak of raw (Welch PSD, findPeaks);
+ * - measuredAttenuationDb: 10·log10 of raw PSD over output PSD in the Welch bin nearest that line
+ *   (bins fs/1024 wide, so a notch narrower than a bin measures shallower than predicted);
+ * - predictedAttenuationDb: the design's attenuation at that line below its passband peak
+ *   (attenuationDb, the figure the comparison table shows).
  */
-export function candidateMetrics(raw: Float64Array, out: Float64Array, design: FilterDesign, spectrum: RawSpectrum): CandidateMetrics {
+export function candidateMetrics(raw: Float64Array, out: Float64Array, design: FilterDesign, spectrum: RawSpectrum, lineHz: number | null = null): CandidateMetrics {
   const fs = design.sampleRateHz;
   const maxLag = Math.min(MAX_LAG_SAMPLES, Math.round(MAX_LAG_SECONDS * fs));
   const lag = crossCorrelationLag(raw, out, maxLag);
   const removed = new Float64Array(raw.length - lag);
   for (let i = lag; i < raw.length; i++) removed[i - lag] = raw[i - lag] - out[i];
   const base = { removedRms: rms(removed), lagMs: (lag * 1000) / fs };
-  const { line } = spectrum;
-  if (!line) return { ...base, noiseLineHz: null, measuredAttenuationDb: null, predictedAttenuationDb: null };
+  const line = lineHz !== null && lineHz > 0 && lineHz < fs / 2 ? lineHz : spectrum.line?.freqHz;
+  if (line === undefined) return { ...base, noiseLineHz: null, measuredAttenuationDb: null, predictedAttenuationDb: null };
   const outPsd = welch(out, fs, { segmentLength: segmentFor(out.length) });
-  const ratio = psdAt(spectrum.psd.freqsHz, spectrum.psd.psd, line.freqHz) / psdAt(outPsd.freqsHz, outPsd.psd, line.freqHz);
+  const ratio = psdAt(spectrum.psd.freqsHz, spectrum.psd.psd, line) / psdAt(outPsd.freqsHz, outPsd.psd, line);
   return {
     ...base,
-    noiseLineHz: line.freqHz,
+    noiseLineHz: line,
     measuredAttenuationDb: Number.isFinite(ratio) && ratio > 0 ? 10 * Math.log10(ratio) : null,
-    predictedAttenuationDb: -frequencyResponse(design, [line.freqHz]).magnitudeDb[0],
+    predictedAttenuationDb: attenuationDb(design, [line])[0],
   };
 }

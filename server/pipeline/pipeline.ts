@@ -63,8 +63,8 @@ export interface Pipeline extends BatchSink {
   removeOwner(owner: string): void;
   /** New samples since the last drain, in sequence runs; clears them. */
   drain(path: string): PendingBlock[];
-  /** Live metrics of an owner's candidates on a channel (null fields until a candidate has settled). */
-  metrics(path: string, owner: string): Record<string, CandidateMetrics>;
+  /** Live metrics of an owner's candidates on a channel (null fields until a candidate has settled), judged at `lineHz` when given, else at the strongest raw peak. */
+  metrics(path: string, owner: string, lineHz?: number | null): Record<string, CandidateMetrics>;
   channel(path: string): ChannelInfo | undefined;
   /** Adds a channel created after start; known channels are left as they are. */
   addChannel(info: ChannelInfo): void;
@@ -234,7 +234,7 @@ export function createPipeline(deps: {
       ch.pending = [];
       return blocks;
     },
-    metrics(path, owner) {
+    metrics(path, owner, lineHz = null) {
       const ch = channelOf(path);
       const fs = ch.info.sampleRateHz;
       const n = Math.ceil(fs);
@@ -250,7 +250,7 @@ export function createPipeline(deps: {
         }
         try {
           spectrum ??= rawSpectrum(raw, fs);
-          result[id] = candidateMetrics(raw, c.output.latest(n), c.design, spectrum);
+          result[id] = candidateMetrics(raw, c.output.latest(n), c.design, spectrum, lineHz);
         } catch (err) {
           deps.onMetricsError?.(path, id, err);
           result[id] = EMPTY_METRICS;

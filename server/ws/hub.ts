@@ -51,6 +51,8 @@ interface ClientState {
   droppedFrames: number;
   /** Channels on which this client has candidates. */
   candidates: Map<string, Set<string>>;
+  /** The noise line this client's metrics judge per channel (Hz), when it chose one. */
+  noiseLines: Map<string, number>;
   /** Candidates being designed (`<path>|<id>` → the add that started it); counted against the limits. */
   designing: Map<string, symbol>;
   messages: TokenBucket;
@@ -114,6 +116,7 @@ const REQUIRED_ROLE: Record<ClientMessage["type"], Role> = {
   window: "operator",
   "candidate.add": "engineer",
   "candidate.remove": "engineer",
+  "noise-line": "engineer",
 };
 
 class Refusal extends Error {
@@ -209,6 +212,14 @@ export function createHub(opts: HubOptions): Hub {
           throw new Refusal("too_many_candidates", `at most ${MAX_CANDIDATES_PER_CLIENT} candidates per channel`);
         }
         return startDesign(state, msg.channel, msg.id, msg.spec);
+      }
+      case "noise-line": {
+        if (msg.freqHz === null) return void state.noiseLines.delete(msg.channel);
+        if (!(msg.freqHz < info.sampleRateHz / 2)) {
+          throw new Refusal("bad_message", `The noise line must lie between 0 and ${info.sampleRateHz / 2} Hz (half the channel's sample rate); got ${msg.freqHz} Hz.`);
+        }
+        state.noiseLines.set(msg.channel, msg.freqHz);
+        return;
       }
       case "candidate.remove": {
         if (state.designing.delete(`${msg.channel}|${msg.id}`)) return;
@@ -334,6 +345,7 @@ export function createHub(opts: HubOptions): Hub {
         subs: new Map(),
         droppedFrames: 0,
         candidates: new Map(),
+        noiseLines: new Map(),
         designing: new Map(),
         messages: tokenBucket(rate.perSecond, rate.burst, opts.clock.now()),
         refusedInARow: 0,
@@ -380,7 +392,7 @@ export function createHub(opts: HubOptions): Hub {
       for (const state of clients.values()) {
         for (const [path, ids] of state.candidates) {
           if (!ids.size || !state.subs.has(path) || paths.indexOf(path) % slices !== slice) continue;
-          send(state, { type: "metrics", channel: path, candidates: opts.pipeline.metrics(path, state.conn.id) });
+          send(state, { type: "metrics", channel: path, candidates: opts.pipeline.metrics(path, state.conn.id, state.noiseLines.get(path)) });
         }
       }
     },

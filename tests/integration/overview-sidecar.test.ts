@@ -54,7 +54,8 @@ describe("GET /overview on the sidecar", () => {
     const body = await overview();
     expect(body.mqtt).toBe("connected");
     expect(Object.keys(body.channels)).toHaveLength(DEMO_RIGS.flatMap((r) => r.devices.flatMap((d) => d.channels)).length);
-    expect(body.channels[STRAIN]).toEqual({ online: null, lastSampleAt: null, productionRevisionId: null, spark: null, faults: {} });
+    expect(body.channels[STRAIN]).toEqual({ online: null, lastSampleAt: null, productionRevisionId: null, spark: null, faults: {}, faultsSince: expect.any(Number) });
+    expect(body.channels[STRAIN].faultsSince).toBeLessThanOrEqual(body.now);
   });
 
   it("reports the device online from its retained status, and lastSampleAt advancing with each batch", async () => {

@@ -69,6 +69,25 @@ describe("demo rig (authenticated like a device) and the config exchange", () =>
     engineer.ws.close();
   }, 15_000);
 
+  it("judges the live metrics at the noise line the engineer chose, within 0 < f < fs/2, engineers only", async () => {
+    const engineer = await openSocket(sidecar.httpPort, await cookieFor(store.db, "engineer@tapwright.test"));
+    const channel = "hydraulic-press/env-node/frame-strain"; // 1 kHz
+    engineer.send({ type: "subscribe", channel });
+    engineer.send({ type: "candidate.add", channel, id: "notch", spec: { kind: "biquad", shape: "notch", centerHz: 50, q: 2, sampleRateHz: 1000 } });
+    engineer.send({ type: "noise-line", channel, freqHz: 120 });
+    const m = (await engineer.next("metrics", (x) => x.candidates.notch?.noiseLineHz === 120)).candidates.notch;
+    expect(m.predictedAttenuationDb).toBeLessThan(3); // 120 Hz is in the notch's passband
+    engineer.send({ type: "noise-line", channel, freqHz: 600 });
+    expect((await engineer.next("error")).message).toMatch(/between 0 and 500 Hz/);
+    engineer.send({ type: "noise-line", channel, freqHz: null });
+    expect((await engineer.next("metrics", (x) => x.candidates.notch?.noiseLineHz !== 120 && x.candidates.notch?.noiseLineHz !== null)).candidates.notch.noiseLineHz).toBeCloseTo(50, 0);
+    engineer.ws.close();
+    const operator = await openSocket(sidecar.httpPort, await cookieFor(store.db, "operator@tapwright.test"));
+    operator.send({ type: "noise-line", channel, freqHz: 50 });
+    expect((await operator.next("error")).code).toBe("forbidden");
+    operator.ws.close();
+  }, 20_000);
+
   it("runs a chain candidate (notch 50, notch 150, low-pass) on the live stream: the hum lines fall", async () => {
     const engineer = await openSocket(sidecar.httpPort, await cookieFor(store.db, "engineer@tapwright.test"));
     const channel = "hydraulic-press/env-node/frame-strain";

@@ -7,6 +7,7 @@ const state = (lastSampleAt: number | null, productionRevisionId: string | null 
   productionRevisionId,
   spark: null,
   faults: {},
+  faultsSince: 0,
 });
 
 describe("the overview of partitioned sidecars", () => {

@@ -15,7 +15,8 @@ describe("overview card wording", () => {
 
   it("lists fault counts largest first and leaves zeros out", () => {
     expect(faultSummary({})).toBe("");
-    expect(faultSummary({ bad_json: 1, seq_gap: 3, oversized: 0 })).toBe("seq_gap 3 · bad_json 1");
+    expect(faultSummary({ bad_json: 1, seq_gap: 3, oversized: 0 })).toBe("3 lost batches · 1 message not JSON");
+    expect(faultSummary({ rate_mismatch: 2 })).toBe("2 messages at the wrong sample rate");
   });
 });
 
@@ -32,7 +33,7 @@ describe("sparkline envelope", () => {
 });
 
 describe("the overview schema the route handler applies to the sidecar's reply", () => {
-  const channel = { online: null, lastSampleAt: null, productionRevisionId: null, spark: null, faults: {} };
+  const channel = { online: null, lastSampleAt: null, productionRevisionId: null, spark: null, faults: {}, faultsSince: 0 };
 
   it("accepts the sidecar's shape and refuses unknown fault kinds or ragged sparks", () => {
     expect(liveOverviewSchema.safeParse({ now: 1, mqtt: "connected", channels: { "a/b/c": channel } }).success).toBe(true);

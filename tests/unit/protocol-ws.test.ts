@@ -33,6 +33,8 @@ describe("WebSocket client messages", () => {
       { type: "candidate.add", channel: "a/b/c", id: "lp-1", spec },
       { type: "candidate.remove", channel: "a/b/c", id: "lp-1" },
       { type: "window", channel: "a/b/c", seconds: 10, maxPoints: 2000 },
+      { type: "noise-line", channel: "a/b/c", freqHz: 49.98 },
+      { type: "noise-line", channel: "a/b/c", freqHz: null },
     ]) {
       expect(clientMessageSchema.safeParse(m).success, m.type).toBe(true);
     }
@@ -58,6 +60,9 @@ describe("WebSocket client messages", () => {
       { type: "candidate.add", channel: "a/b/c", id: "x", spec: { ...spec, cutoffHz: 600 } },
       { type: "window", channel: "a/b/c", seconds: 61, maxPoints: 2000 },
       { type: "window", channel: "a/b/c", seconds: 0.5, maxPoints: 2000 },
+      { type: "noise-line", channel: "a/b/c", freqHz: 0 },
+      { type: "noise-line", channel: "a/b/c", freqHz: -50 },
+      { type: "noise-line", channel: "a/b/c" },
       { type: "nope" },
     ]) {
       expect(clientMessageSchema.safeParse(m).success, JSON.stringify(m)).toBe(false);

@@ -11,6 +11,7 @@ import { db } from "@/db";
 import { listAwaitingReview } from "@/db/queries/revisions";
 import { decide } from "@/lib/workflow";
 import { transitionAction } from "../sets/[id]/actions";
+import { formatDateTime } from "@/lib/format/date-time";
 
 export const metadata: Metadata = { title: "Reviews" };
 
@@ -34,7 +35,7 @@ export default async function ReviewsPage() {
                 <Link href={`/sets/${rev.setId}`} className="text-brand-700 hover:underline dark:text-brand-300">{rev.setName}</Link>{" "}
                 <span className="num">r{rev.revision}</span>
               </h2>
-              <p className="text-xs text-slate-500"><span className="num">{rev.channel}</span> · by {rev.author} · submitted <span className="num">{rev.stateChangedAt.toISOString().slice(0, 16).replace("T", " ")} UTC</span></p>
+              <p className="text-xs text-slate-500"><span className="num">{rev.channel}</span> · by {rev.author} · submitted <span className="num">{formatDateTime(rev.stateChangedAt)}</span></p>
               {rev.notes && <p className="whitespace-pre-wrap text-sm">{rev.notes}</p>}
               <RevisionStages spec={rev.spec} />
               <RevisionSummary rev={rev} />

@@ -8,10 +8,10 @@ import { listTokens } from "@/db/queries/tokens";
 import { roleAtLeast } from "@/lib/auth/roles";
 import { TOKEN_RATE } from "@/lib/auth/token-scope";
 import { createTokenAction, revokeTokenAction } from "./actions";
+import { formatDateTime } from "@/lib/format/date-time";
 
 export const metadata: Metadata = { title: "API tokens" };
 
-const utc = (d: Date | null) => (d ? `${d.toISOString().slice(0, 16).replace("T", " ")} UTC` : "—");
 
 export default async function TokensPage() {
   const me = await requirePageUser("engineer");
@@ -49,12 +49,12 @@ export default async function TokensPage() {
                   <td className="px-4 py-2">{t.name}</td>
                   {everyone && <td className="px-4 py-2">{t.owner}</td>}
                   <td className="px-4 py-2" data-testid="token-scope">{t.scope}</td>
-                  <td className="num px-4 py-2 text-xs">{utc(t.createdAt)}</td>
-                  <td className="num px-4 py-2 text-xs">{utc(t.lastUsedAt)}</td>
+                  <td className="num px-4 py-2 text-xs">{formatDateTime(t.createdAt)}</td>
+                  <td className="num px-4 py-2 text-xs">{formatDateTime(t.lastUsedAt)}</td>
                   <td className="px-4 py-2">
                     {t.revokedAt ? (
                       <span className="text-xs text-slate-500">
-                        {t.revokedReason === "owner_disabled" ? "revoked when its owner was disabled" : "revoked"} {utc(t.revokedAt)}
+                        {t.revokedReason === "owner_disabled" ? "revoked when its owner was disabled" : "revoked"} {formatDateTime(t.revokedAt)}
                       </span>
                     ) : (
                       <ActionForm action={revokeTokenAction} fields={{ tokenId: t.id }} label="Revoke" testId={`revoke-${t.id}`}

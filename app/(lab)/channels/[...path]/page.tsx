@@ -30,7 +30,7 @@ export default async function ChannelBenchPage({ params }: Params) {
   const canEdit = roleAtLeast(user.role, "engineer");
   const kept = canEdit ? await listBenchCandidates(db(), user.id, channel.id) : [];
   return (
-    <div className="space-y-4">
+    <div className="space-y-4 lg:has-[[data-editing]]:pr-[29rem]">
       <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
         <h1 className="text-xl font-semibold">{channel.name}</h1>
         <p className="num text-sm text-slate-500">

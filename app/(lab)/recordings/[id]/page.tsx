@@ -12,6 +12,7 @@ import { findRecording } from "@/db/queries/recordings";
 import { roleAtLeast } from "@/lib/auth/roles";
 import { formatHz } from "@/lib/format/units";
 import { formatDuration } from "@/lib/recordings/format";
+import { formatDateTime } from "@/lib/format/date-time";
 
 type Params = { params: Promise<{ id: string }> };
 
@@ -51,8 +52,8 @@ export default async function RecordingPage({ params }: Params) {
         )}
       </div>
       <p className="text-sm text-slate-500">
-        Uploaded by {recording.authorName} on {recording.createdAt.toISOString().slice(0, 10)}
-        {recording.startedAt && <> · captured from {recording.startedAt.toISOString().replace("T", " ").replace("Z", " UTC")}</>}
+        Uploaded by {recording.authorName} on {formatDateTime(recording.createdAt)}
+        {recording.startedAt && <> · captured from {formatDateTime(recording.startedAt)}</>}
         {recording.notes && <> · {recording.notes}</>}
       </p>
       {!canEdit && <p className="text-sm text-slate-500">You are viewing as an operator: the recorded trace and its spectrum are shown; replaying candidate filters needs the engineer role.</p>}

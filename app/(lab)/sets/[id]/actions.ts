@@ -8,6 +8,7 @@ import { transitionRevision } from "@/db/workflow/review";
 import { findSet } from "@/db/queries/sets";
 import { addRevision, retireSet } from "@/db/workflow/sets";
 import { AppError } from "@/lib/errors";
+import { stateWord } from "@/lib/workflow";
 import { promoteFormSchema, retireFormSchema, reviseFormSchema, rollbackFormSchema, transitionFormSchema } from "./schema";
 
 /** The set pages and the review queue show what these actions change. */
@@ -20,7 +21,7 @@ export const transitionAction = defineAction({
   revalidate: SHOWN_IN,
   act: async ({ data, user, transaction }) => {
     const rev = await transaction((trx) => transitionRevision(trx, user, data));
-    return { ok: true, message: `Revision r${rev.revision} is now ${rev.state.replace("_", " ")}.` };
+    return { ok: true, message: `Revision r${rev.revision} is now ${stateWord(rev.state)}.` };
   },
 });
 

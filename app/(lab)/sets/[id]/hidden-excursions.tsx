@@ -11,6 +11,7 @@ import { env } from "@/lib/env";
 import { decodeSamples } from "@/lib/recordings/samples";
 import { computeForRequest } from "@/lib/workers";
 import { errorMessage } from "@/lib/errors";
+import { countOf } from "@/lib/format/plural";
 
 /** How long the live service may take to hand over its recent samples, ms. */
 const SIDECAR_TIMEOUT_MS = 1_500;
@@ -100,7 +101,7 @@ async function HiddenExcursionsCheck(props: CheckProps) {
           {sources.map((s) => (
             <li key={s.label} data-masked={s.candidate.masked}>
               Over {s.label}: this revision would have hidden <span className={`num font-medium ${s.candidate.masked ? "text-fault" : ""}`}>{s.candidate.masked}</span>{" "}
-              {s.candidate.masked === 1 ? "excursion" : "excursions"} past {rules.map((r) => `“${r.name}”`).join(", ")} and raised {s.candidate.caught} {s.candidate.caught === 1 ? "alarm" : "alarms"}
+              {s.candidate.masked === 1 ? "excursion" : "excursions"} past {rules.map((r) => `“${r.name}”`).join(", ")} and raised {countOf(s.candidate.caught, "alarm")}
               {s.production && <> (the production filter: {s.production.masked} hidden, {s.production.caught} raised)</>}.
             </li>
           ))}

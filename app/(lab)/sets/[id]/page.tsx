@@ -24,10 +24,10 @@ import { decide } from "@/lib/workflow";
 import { promoteAction, retireAction, reviseAction, rollbackAction, transitionAction } from "./actions";
 import { HiddenExcursions } from "./hidden-excursions";
 import { RevisionDiff } from "./revision-diff";
+import { formatDateTime } from "@/lib/format/date-time";
 
 export const metadata: Metadata = { title: "Coefficient set" };
 
-const utc = (d: Date | null) => (d ? `${d.toISOString().slice(0, 19).replace("T", " ")} UTC` : "—");
 
 export default async function SetPage(props: { params: Promise<{ id: string }>; searchParams: Promise<{ a?: string; b?: string }> }) {
   const me = await requirePageUser();
@@ -47,6 +47,8 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
   const can = (action: Parameters<typeof decide>[0], rev?: (typeof revisions)[number]) =>
     decide(action, { role: me.role, actorId: me.id, authorId: rev?.authorId, state: rev?.state, retired, deployable: rev?.analysis.deployable.ok }).ok;
   const activeHere = deployments.filter((d) => d.state === "active");
+  /** The first revision offered for promotion carries the cautions; the others point to them. */
+  const firstPromotable = revisions.find((r) => can("promote", r) && r.analysis.deployable.ok)?.id;
   const search = await props.searchParams;
 
   return (
@@ -86,8 +88,8 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                     {d.kind === "rollback" && <span className="ml-1 text-xs text-slate-500">(rollback)</span>}
                   </td>
                   <td className="pr-3"><StateBadge state={d.state} /></td>
-                  <td className="pr-3 text-xs">{d.requestedBy}, <span className="num">{utc(d.requestedAt)}</span></td>
-                  <td className="num pr-3 text-xs">{utc(d.activatedAt)}</td>
+                  <td className="pr-3 text-xs">{d.requestedBy}, <span className="num">{formatDateTime(d.requestedAt)}</span></td>
+                  <td className="num pr-3 text-xs">{formatDateTime(d.activatedAt)}</td>
                   <td className="text-xs">
                     {d.reason && <span className="text-fault">{d.reason}</span>}
                     {!d.reason && <span className="num text-slate-500" title={d.checksum}>sha-256 {d.checksum.slice(0, 12)}…</span>}
@@ -119,7 +121,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                 <div className="flex items-center gap-3">
                   <h3 className="num text-lg font-semibold">r{rev.revision}</h3>
                   <StateBadge state={rev.state} />
-                  <span className="text-xs text-slate-500">{rev.author} · <span className="num">{utc(rev.createdAt)}</span></span>
+                  <span className="text-xs text-slate-500">{rev.author} · <span className="num">{formatDateTime(rev.createdAt)}</span></span>
                 </div>
                 {rev.notes && <p className="whitespace-pre-wrap text-sm">{rev.notes}</p>}
                 <RevisionStages spec={rev.spec} />
@@ -128,7 +130,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                 <RevisionCoefficients quantized={rev.quantized} />
                 {revReviews.map((r) => (
                   <p key={r.id} className="text-sm">
-                    <StateBadge state={r.decision} /> by {r.reviewer} <span className="num text-xs text-slate-500">{utc(r.at)}</span>: {r.comment}
+                    <StateBadge state={r.decision} /> by {r.reviewer} <span className="num text-xs text-slate-500">{formatDateTime(r.at)}</span>: {r.comment}
                   </p>
                 ))}
               </div>
@@ -161,6 +163,7 @@ export default async function SetPage(props: { params: Promise<{ id: string }>; 
                     revisionId={rev.id}
                     revision={rev.revision}
                     defaultChannel={set.channel}
+                    showCaution={rev.id === firstPromotable}
                     channels={sameRate.map((c) => ({ path: c.path, format: c.coefficientFormat, ...(states.get(c.id) ?? { active: null, pending: false }) }))}
                   />
                 )}
