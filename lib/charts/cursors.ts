@@ -58,8 +58,6 @@ export interface CursorPoint {
 export interface CursorReadout {
   a: CursorPoint | null;
   b: CursorPoint | null;
-  /** x(B) − x(A), when both cursors are on the data. */
-  dx: number | null;
   /** y(B) − y(A) of each series, when both have a value. */
   dy: (number | null)[];
 }
@@ -73,7 +71,7 @@ function pointAt(data: readonly Column[], x: number | null, log: boolean): Curso
   return { x: data[0][i] ?? x, values: data.slice(1).map((col) => finite(col[i])) };
 }
 
-/** What the cursors read on column-per-series data (x first): each cursor's point and the differences B − A. */
+/** What the cursors read on column-per-series data (x first): each cursor's point and the differences y(B) − y(A). */
 export function cursorReadout(data: readonly Column[], cursors: Pick<Cursors, "a" | "b">, log = false): CursorReadout {
   const a = pointAt(data, cursors.a, log);
   const b = pointAt(data, cursors.b, log);
@@ -81,7 +79,6 @@ export function cursorReadout(data: readonly Column[], cursors: Pick<Cursors, "a
   return {
     a,
     b,
-    dx: a && b ? b.x - a.x : null,
     dy: Array.from({ length: dy }, (_, s) => {
       const ya = a?.values[s] ?? null;
       const yb = b?.values[s] ?? null;
@@ -110,4 +107,40 @@ export function formatDelta(axis: CursorAxis, dx: number): string {
   }
   if (axis.unit === "Hz") return minus(formatHz(dx));
   return minus(`${trim(dx, 4)} ${axis.unit}`.trim());
+}
+
+/** The x of the data point nearest `x`, or null when x is off the data. */
+export function snapToData(xs: Column, x: number, log = false): number | null {
+  const i = nearestIndex(xs, x, log);
+  return i === null ? null : (xs[i] ?? null);
+}
+
+/** A click at x (already on a data point): places A, then B; once both are placed it moves the nearer one. */
+export function placeCursor(c: Cursors, x: number, log = false): Cursors {
+  if (c.a === null) return { ...c, a: x, active: "a" };
+  if (c.b === null) return { ...c, b: x, active: "b" };
+  const dist = (v: number) => (log && v > 0 && x > 0 ? Math.abs(Math.log10(v) - Math.log10(x)) : Math.abs(v - x));
+  return dist(c.b) < dist(c.a) ? { ...c, b: x, active: "b" } : { ...c, a: x, active: "a" };
+}
+
+/**
+ * The cursors after a key on a focused chart, or null when the key does nothing there: Enter or space places
+ * A at the data point nearest `centre`, then B on A, then switches which one the arrows move; the left and
+ * right arrows move the active cursor one data point (ten with shift); Escape clears both.
+ */
+export function cursorsAfterKey(c: Cursors, key: string, shift: boolean, xs: Column, centre: number, log = false): Cursors | null {
+  if (key === "Escape") return c.a === null && c.b === null ? null : NO_CURSORS;
+  if (key === "Enter" || key === " ") {
+    if (c.a === null) {
+      const a = snapToData(xs, centre, log);
+      return a === null ? null : { a, b: null, active: "a" };
+    }
+    if (c.b === null) return { ...c, b: c.a, active: "b" };
+    return { ...c, active: c.active === "a" ? "b" : "a" };
+  }
+  if (key !== "ArrowLeft" && key !== "ArrowRight") return null;
+  const at = c[c.active];
+  if (at === null) return null;
+  const moved = stepCursor(xs, at, (key === "ArrowLeft" ? -1 : 1) * (shift ? 10 : 1), log);
+  return moved === null ? null : { ...c, [c.active]: moved };
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { cursorReadout, deltaName, formatDelta, nearestIndex, stepCursor } from "@/lib/charts/cursors";
+import { NO_CURSORS, type Cursors, cursorReadout, cursorsAfterKey, deltaName, formatDelta, nearestIndex, placeCursor, stepCursor } from "@/lib/charts/cursors";
 
 const xs = [0, 10, 20, 30, 40];
 
@@ -35,12 +35,10 @@ describe("chart cursors", () => {
     const r = cursorReadout(data, { a: 9, b: 31 });
     expect(r.a).toEqual({ x: 10, values: [2, null] });
     expect(r.b).toEqual({ x: 30, values: [4, -2] });
-    expect(r.dx).toBe(20);
     expect(r.dy).toEqual([2, null]);
     const one = cursorReadout(data, { a: 40, b: null });
     expect(one.a).toEqual({ x: 40, values: [5, -4] });
     expect(one.b).toBeNull();
-    expect(one.dx).toBeNull();
     expect(one.dy).toEqual([null, null]);
   });
 
@@ -56,5 +54,37 @@ describe("chart cursors", () => {
     expect(formatDelta({ kind: "log", unit: "Hz" }, 120)).toBe("120 Hz");
     expect(formatDelta({ kind: "log", unit: "Hz" }, -1500)).toBe("−1.5 kHz");
     expect(formatDelta({ kind: "linear", unit: "mm" }, 0.123456)).toBe("0.1235 mm");
+  });
+
+  it("are placed by clicks: A, then B, then the nearer one moves", () => {
+    const one = placeCursor(NO_CURSORS, 10);
+    expect(one).toEqual({ a: 10, b: null, active: "a" });
+    const two = placeCursor(one, 30);
+    expect(two).toEqual({ a: 10, b: 30, active: "b" });
+    expect(placeCursor(two, 12)).toEqual({ a: 12, b: 30, active: "a" });
+    expect(placeCursor(two, 25)).toEqual({ a: 10, b: 25, active: "b" });
+    // On a log axis 300 is nearer 1000 than 10.
+    expect(placeCursor({ a: 10, b: 1000, active: "a" }, 300, true)).toEqual({ a: 10, b: 300, active: "b" });
+  });
+
+  it("follow the keys: Enter places A at the centre, then B on A; arrows move the active one; Escape clears", () => {
+    const key = (c: Cursors, k: string, shift = false): Cursors => {
+      const next = cursorsAfterKey(c, k, shift, xs, 19);
+      if (!next) throw new Error(`${k} did nothing`);
+      return next;
+    };
+    const a = key(NO_CURSORS, "Enter");
+    expect(a).toEqual({ a: 20, b: null, active: "a" });
+    const right = key(a, "ArrowRight");
+    expect(right).toEqual({ a: 30, b: null, active: "a" });
+    const b = key(right, " ");
+    expect(b).toEqual({ a: 30, b: 30, active: "b" });
+    expect(key(b, "ArrowLeft", true)).toEqual({ a: 30, b: 0, active: "b" });
+    expect(key(b, "Enter")).toEqual({ a: 30, b: 30, active: "a" });
+    expect(key(b, "Escape")).toEqual(NO_CURSORS);
+    expect(cursorsAfterKey(NO_CURSORS, "Escape", false, xs, 19)).toBeNull();
+    expect(cursorsAfterKey(NO_CURSORS, "ArrowLeft", false, xs, 19)).toBeNull();
+    expect(cursorsAfterKey(NO_CURSORS, "Enter", false, [], 19)).toBeNull();
+    expect(cursorsAfterKey(b, "Tab", false, xs, 19)).toBeNull();
   });
 });
