@@ -1,4 +1,5 @@
 import uPlot from "uplot";
+import type { ChartSeries } from "./chart-types";
 
 /** The chart canvas colour (tailwind `canvas`), so an exported picture looks as the chart does on screen. */
 const CANVAS = "#0d1420";
@@ -18,7 +19,7 @@ export function downloadBlob(blob: Blob, name: string): void {
  * The plot as a PNG: the chart's own canvas (traces, axes, marks, cursors) on the dark chart colour, under a
  * band with the title and a swatch and name for each shown series.
  */
-export function chartPng(u: uPlot, title: string): Promise<Blob> {
+export function chartPng(u: uPlot, title: string, series: readonly ChartSeries[]): Promise<Blob> {
   const source = u.ctx.canvas;
   const dpr = uPlot.pxRatio;
   const band = 46 * dpr;
@@ -36,10 +37,10 @@ export function chartPng(u: uPlot, title: string): Promise<Blob> {
   ctx.fillText(title, 10 * dpr, 14 * dpr);
   ctx.font = `${11 * dpr}px ${family}`;
   let x = 10 * dpr;
-  u.series.forEach((s, k) => {
-    if (k === 0 || !s.show) return;
-    const label = String(s.label ?? "");
-    ctx.fillStyle = typeof s.stroke === "string" ? s.stroke : "#94a3b8";
+  series.forEach((s, i) => {
+    if (!u.series[i + 1]?.show) return;
+    const label = s.label;
+    ctx.fillStyle = s.color;
     ctx.fillRect(x, 31 * dpr, 10 * dpr, 4 * dpr);
     ctx.fillStyle = "#cbd5e1";
     ctx.fillText(label, x + 14 * dpr, 33 * dpr);

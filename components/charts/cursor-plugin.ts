@@ -1,5 +1,5 @@
 import uPlot from "uplot";
-import { nearestIndex, type Cursors } from "@/lib/charts/cursors";
+import { nearestIndex, placeCursor, snapToData, type Cursors } from "@/lib/charts/cursors";
 import type { ChartRefs } from "./chart-types";
 
 /** What the cursor plugin reads and reports, through refs so the plot is never rebuilt for it. */
@@ -7,8 +7,8 @@ export interface CursorLink {
   cursors: { readonly current: Cursors };
   /** The chart's cursors are on: a click places one instead of picking. */
   armed: { readonly current: boolean };
-  /** A click (not a drag) at x while armed. */
-  place: (x: number) => void;
+  /** New cursors from a click, or the ones before a double click (which resets the zoom, and places nothing). */
+  set: (c: Cursors) => void;
   /** After every redraw (the readout follows the data under the cursors). */
   drawn: (u: uPlot) => void;
 }
@@ -23,15 +23,28 @@ const CLICK_SLOP_PX = 3;
 export function cursorPlugin(refs: ChartRefs, link: CursorLink, log: boolean): uPlot.Plugin {
   const init = (u: uPlot) => {
     let down: { x: number; y: number } | null = null;
+    /** The cursors before the last click placed one, so the double click that follows can put them back. */
+    let before: Cursors | null = null;
     u.over.addEventListener("mousedown", (e) => (down = { x: e.clientX, y: e.clientY }));
     u.over.addEventListener("click", (e) => {
       const dragged = down !== null && Math.hypot(e.clientX - down.x, e.clientY - down.y) > CLICK_SLOP_PX;
       down = null;
-      if (dragged || u.select.width > 2 || e.shiftKey) return;
+      // The second click of a double click is not a new placement.
+      if (dragged || u.select.width > 2 || e.shiftKey || e.detail > 1) return;
       const v = u.posToVal(e.clientX - u.over.getBoundingClientRect().left, "x");
       if (!Number.isFinite(v)) return;
-      if (link.armed.current) link.place(v);
-      else refs.props.current.onPick?.(v);
+      if (!link.armed.current) {
+        refs.props.current.onPick?.(v);
+        return;
+      }
+      const snapped = snapToData(u.data[0], v, log);
+      if (snapped === null) return;
+      before = link.cursors.current;
+      link.set(placeCursor(before, snapped, log));
+    });
+    u.over.addEventListener("dblclick", () => {
+      if (before) link.set(before);
+      before = null;
     });
   };
 
@@ -63,7 +76,7 @@ export function cursorPlugin(refs: ChartRefs, link: CursorLink, log: boolean): u
           const y = k > 0 && s.show ? u.data[k][i] : null;
           if (y == null || !Number.isFinite(y)) return;
           const py = u.valToPos(y, s.scale ?? "y", true);
-          ctx.fillStyle = typeof s.stroke === "string" ? s.stroke : "#f8fafc";
+          ctx.fillStyle = refs.props.current.series[k - 1]?.color ?? "#f8fafc";
           ctx.beginPath();
           ctx.arc(px, py, 3 * dpr, 0, 2 * Math.PI);
           ctx.fill();

@@ -5,7 +5,7 @@ import uPlot from "uplot";
 import "uplot/dist/uPlot.min.css";
 import "./chart.css";
 import { chartCsv } from "@/lib/charts/csv";
-import { NO_CURSORS, cursorReadout, cursorsAfterKey, placeCursor, snapToData, type CursorReadout, type Cursors } from "@/lib/charts/cursors";
+import { NO_CURSORS, cursorReadout, cursorsAfterKey, type CursorReadout, type Cursors } from "@/lib/charts/cursors";
 import { chartFileName } from "@/lib/charts/file-name";
 import { chartPng, downloadBlob } from "./chart-export";
 import { buildOptions, seriesOptions } from "./chart-options";
@@ -66,10 +66,7 @@ export function UPlotChart(props: UPlotChartProps) {
       {
         cursors: cursorsRef,
         armed: armedRef,
-        place: (x) => {
-          const snapped = plotRef.current ? snapToData(plotRef.current.data[0], x, isLog) : null;
-          if (snapped !== null) setCursors((c) => placeCursor(c, snapped, isLog));
-        },
+        set: setCursors,
         drawn: (u) => {
           const c = cursorsRef.current;
           const next = c.a === null && c.b === null ? null : cursorReadout(u.data, c, isLog);
@@ -187,7 +184,7 @@ export function UPlotChart(props: UPlotChartProps) {
     const p = propsRef.current;
     const name = chartFileName(p.label, kind, new Date());
     try {
-      if (kind === "png") downloadBlob(await chartPng(plot, p.label), name);
+      if (kind === "png") downloadBlob(await chartPng(plot, p.label, p.series), name);
       else {
         const x = p.x.kind === "time" ? { label: "Time", unit: "s since 1970-01-01 UTC" } : p.x;
         downloadBlob(new Blob([chartCsv(x, p.series, plot.data)], { type: "text/csv;charset=utf-8" }), name);
