@@ -198,7 +198,7 @@ export function UPlotChart(props: UPlotChartProps) {
 
   const { label, testId } = props;
   return (
-    <div className="tw-chart-frame min-w-0" data-testid={testId ? `${testId}-frame` : undefined}>
+    <div className="min-w-0" data-testid={testId ? `${testId}-frame` : undefined}>
       <div className="tw-chart-toolbar" role="group" aria-label={`${label}: tools`}>
         {armed && <span className="mr-auto">Click places cursor A, then B; the nearer one moves after that. Drag still zooms.</span>}
         <button type="button" className="tw-chart-button" aria-pressed={armed} onClick={() => setArmed((v) => !v)} title="Click the plot to place measurement cursors A and B">

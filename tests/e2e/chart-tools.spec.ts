@@ -118,4 +118,16 @@ test("chart tools: cursors read Δf, CSV and PNG downloads, the editor closes on
   await page.keyboard.press("Escape");
   await expect(summary).toHaveText("");
   await expect(phase).toBeFocused();
+
+  // On the paused live traces the cursors read a time difference in ms, with its frequency.
+  await bench.setWindow(1);
+  await bench.pause();
+  const liveFrame = page.getByTestId("live-chart-frame");
+  await liveFrame.getByRole("button", { name: "Cursors" }).click();
+  await clickPlot(page, bench.liveChart, 0.4);
+  await clickPlot(page, bench.liveChart, 0.6);
+  await expect(liveFrame.getByTestId("cursor-summary")).toContainText(/Δt \d+(\.\d+)? ms \(1\/Δt [\d.]+ Hz\)/);
+  await expect(liveFrame.getByTestId("cursor-readout").locator("tbody tr").first()).toContainText("µε");
+  await liveFrame.scrollIntoViewIfNeeded();
+  await page.screenshot({ path: `${SHOTS}/live-cursors.png` });
 });
