@@ -61,24 +61,25 @@ export function UPlotChart(props: UPlotChartProps) {
     let frame = 0;
     let destroyed = false;
     let shown = { key: "", cursors: NO_CURSORS, at: 0 };
-    const cursors = cursorPlugin(
-      refs,
-      {
-        cursors: cursorsRef,
-        armed: armedRef,
-        set: setCursors,
-        drawn: (u) => {
-          const c = cursorsRef.current;
-          const next = c.a === null && c.b === null ? null : cursorReadout(u.data, c, isLog);
-          const key = JSON.stringify(next);
-          const now = performance.now();
-          if (key === shown.key || (c === shown.cursors && now - shown.at < READOUT_EVERY_MS)) return;
-          shown = { key, cursors: c, at: now };
-          setReadout(next);
-        },
-      },
-      isLog,
-    );
+    /** A readout held back by the rate limit, shown when the limit allows (so the last data is never missed). */
+    let trailing = 0;
+    const readOut = (u: uPlot) => {
+      const c = cursorsRef.current;
+      const next = c.a === null && c.b === null ? null : cursorReadout(u.data, c, isLog);
+      const key = JSON.stringify(next);
+      if (key === shown.key) return;
+      const wait = c === shown.cursors ? READOUT_EVERY_MS - (performance.now() - shown.at) : 0;
+      if (wait > 0) {
+        trailing ||= window.setTimeout(() => {
+          trailing = 0;
+          if (!destroyed) readOut(u);
+        }, wait);
+        return;
+      }
+      shown = { key, cursors: c, at: performance.now() };
+      setReadout(next);
+    };
+    const cursors = cursorPlugin(refs, { cursors: cursorsRef, armed: armedRef, set: setCursors, drawn: readOut }, isLog);
     const opts = buildOptions(p, Math.max(200, host.clientWidth), refs, [panZoomPlugin(refs, isLog), marksPlugin(refs), cursors]);
     const plot = new uPlot(opts, p.source.snapshot(opts.width), host);
     plotRef.current = plot;
@@ -100,6 +101,7 @@ export function UPlotChart(props: UPlotChartProps) {
     return () => {
       destroyed = true;
       if (frame) cancelAnimationFrame(frame);
+      clearTimeout(trailing);
       resize.disconnect();
       plot.destroy();
       plotRef.current = null;
