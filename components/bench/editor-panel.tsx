@@ -1,6 +1,6 @@
 "use client";
 
-import { useState, type ReactNode } from "react";
+import { useEffect, useRef, useState, type ReactNode } from "react";
 import { Swatch } from "@/components/ui/swatch";
 import { candidateColor, candidateName, type Candidate } from "@/lib/bench/candidates";
 import type { Caution } from "@/lib/bench/cautions";
@@ -41,6 +41,25 @@ export function EditorPanel({
   onClose: () => void;
   save: ReactNode;
 }) {
+  const headingRef = useRef<HTMLHeadingElement>(null);
+  const onCloseRef = useRef(onClose);
+  useEffect(() => {
+    onCloseRef.current = onClose;
+  });
+  // Opening moves focus to the heading; Escape closes (unless something inside already used it, such as a chart
+  // clearing its cursors); closing gives focus back to the control that opened the editor, if it is still there.
+  useEffect(() => {
+    const opener = document.activeElement instanceof HTMLElement ? document.activeElement : null;
+    headingRef.current?.focus();
+    const onKey = (e: KeyboardEvent) => {
+      if (e.key === "Escape" && !e.defaultPrevented) onCloseRef.current();
+    };
+    document.addEventListener("keydown", onKey);
+    return () => {
+      document.removeEventListener("keydown", onKey);
+      if (opener?.isConnected) opener.focus();
+    };
+  }, []);
   return (
     <aside
       aria-label="Candidate editor"
@@ -48,8 +67,10 @@ export function EditorPanel({
     >
       <header className="flex items-center gap-2 border-b border-slate-200 px-4 py-3 dark:border-slate-800">
         <Swatch color={candidateColor(candidate)} />
-        <h2 className="font-medium">Edit {candidateName(candidate)}</h2>
-        <button type="button" className="btn-quiet ml-auto px-2 py-1" onClick={onClose} aria-label="Close the editor">
+        <h2 ref={headingRef} tabIndex={-1} className="font-medium focus:outline-none">
+          Edit {candidateName(candidate)}
+        </h2>
+        <button type="button" className="btn-quiet ml-auto px-2 py-1" onClick={onClose} aria-label="Close the editor" aria-keyshortcuts="Escape">
           Close
         </button>
       </header>

@@ -1,308 +1,97 @@
 "use client";
 
-import { useEffect, useInsertionEffect, useRef } from "react";
+import { useEffect, useId, useInsertionEffect, useRef, useState, type KeyboardEvent } from "react";
 import uPlot from "uplot";
 import "uplot/dist/uPlot.min.css";
 import "./chart.css";
-import { trim } from "@/lib/format/units";
-import type { ChartSource } from "./sources";
+import { chartCsv } from "@/lib/charts/csv";
+import { NO_CURSORS, cursorReadout, cursorsAfterKey, type CursorReadout, type Cursors } from "@/lib/charts/cursors";
+import { chartFileName } from "@/lib/charts/file-name";
+import { chartPng, downloadBlob } from "./chart-export";
+import { buildOptions, seriesOptions } from "./chart-options";
+import type { ChartRefs, UPlotChartProps } from "./chart-types";
+import { cursorPlugin } from "./cursor-plugin";
+import { CursorReadoutView } from "./cursor-readout";
+import { marksPlugin } from "./marks-plugin";
+import { panZoomPlugin } from "./pan-zoom-plugin";
 
-export interface ChartSeries {
-  label: string;
-  color: string;
-  /** Unit shown with the value under the cursor. */
-  unit: string;
-  show?: boolean;
-  width?: number;
-  dash?: number[];
-  /** y scale key; "y" (left axis) unless given. */
-  scale?: string;
-}
+export type { ChartAxis, ChartMark, ChartSeries, UPlotChartProps } from "./chart-types";
 
-export interface ChartAxis {
-  scale: string;
-  label: string;
-  side?: "left" | "right";
-  /** Tick labels from values (e.g. samples shown as ms on a second axis). */
-  format?: (v: number) => string;
-  /** The auto range never reaches below this (e.g. −120 dB, so deep notches do not flatten a Bode plot). */
-  floor?: number;
-}
-
-/** A labelled vertical marker (e.g. a spectral peak) drawn over the plot; with endX, a shaded span. */
-export interface ChartMark {
-  x: number;
-  label: string;
-  endX?: number;
-  /** "alarm" draws it in the alarm red. */
-  tone?: "alarm";
-}
-
-export interface UPlotChartProps {
-  /** Accessible name of the chart. */
-  label: string;
-  series: ChartSeries[];
-  source: ChartSource;
-  /** time: x in s since the epoch; log: x in Hz on a log axis; linear: x as it is. */
-  x: { kind: "time" | "log" | "linear"; label: string; unit: string };
-  axes: ChartAxis[];
-  height: number;
-  /** Manual y range of the "y" scale; null or absent means auto. */
-  yRange?: [number, number] | null;
-  /** Stops pulling data from the source (the chart keeps what it shows). */
-  paused?: boolean;
-  /** The engineer zoomed in (true) or reset the zoom with a double click (false). */
-  onZoom?: (zoomed: boolean) => void;
-  /** A shared x range to show (e.g. the magnitude chart's zoom for the phase chart); null shows the whole extent. */
-  view?: readonly [number, number] | null;
-  /** The engineer zoomed or panned to an x range, or reset it (null). */
-  onView?: (range: [number, number] | null) => void;
-  /** A click (not a drag) at x. */
-  onPick?: (x: number) => void;
-  /** The legend toggled series i (0-based, without x). */
-  onToggle?: (index: number, show: boolean) => void;
-  /** Vertical markers with labels, drawn on every redraw. */
-  marks?: ChartMark[];
-  testId?: string;
-}
-
-const AXIS_STROKE = "#94a3b8";
-const GRID = { stroke: "rgba(148, 163, 184, 0.14)", width: 1 };
-const TICKS = { stroke: "rgba(148, 163, 184, 0.3)", width: 1 };
-
-const pad = (n: number, width = 2) => String(n).padStart(width, "0");
-
-/** Local clock time of t s since the epoch: hh:mm:ss, with .mmm when asked. */
-function clock(t: number, ms: boolean): string {
-  const d = new Date(t * 1000);
-  const base = `${pad(d.getHours())}:${pad(d.getMinutes())}:${pad(d.getSeconds())}`;
-  return ms ? `${base}.${pad(d.getMilliseconds(), 3)}` : base;
-}
-
-const formatValue = (unit: string) => (_u: uPlot, v: number | null) => (v == null ? "—" : `${trim(v, 4).replace("-", "−")} ${unit}`.trim());
-
-function seriesOptions(s: ChartSeries): uPlot.Series {
-  return {
-    label: s.label,
-    stroke: s.color,
-    width: s.width ?? 1.25,
-    dash: s.dash,
-    scale: s.scale ?? "y",
-    show: s.show ?? true,
-    spanGaps: false,
-    points: { show: false },
-    value: formatValue(s.unit),
-  };
-}
+/** The cursor readout follows moving data (a live chart) at most this often (ms); a cursor move shows at once. */
+const READOUT_EVERY_MS = 250;
 
 /**
  * The one uPlot wrapper: the plot is created once on mount and destroyed on unmount; data is pulled
  * from `source` at most once per animation frame (after the source reports a change); series are
  * added, removed and shown in place. Drag zooms x, shift-drag pans, a double click resets; the x axis
- * may be time, linear or log₁₀. The canvas is dark in both themes. Live charts should use 1 px lines:
- * wider strokes of dense min/max traces cost several times the frame time in software rendering.
+ * may be time, linear or log₁₀. Two measurement cursors (A and B) read every series and the differences;
+ * the toolbar turns click-to-place on and downloads the data (CSV) or the picture (PNG); the plot takes
+ * keyboard focus, where Enter places a cursor, the arrows move it and Escape clears. The canvas is dark in
+ * both themes. Live charts should use 1 px lines: wider strokes of dense min/max traces cost several times
+ * the frame time in software rendering.
  */
 export function UPlotChart(props: UPlotChartProps) {
   const hostRef = useRef<HTMLDivElement>(null);
   const plotRef = useRef<uPlot | null>(null);
-  // The latest props for the chart's callbacks, written before any effect of the commit reads them.
+  const [cursors, setCursors] = useState<Cursors>(NO_CURSORS);
+  const [armed, setArmed] = useState(false);
+  const [readout, setReadout] = useState<CursorReadout | null>(null);
+  const [exportError, setExportError] = useState<string | null>(null);
+  // The latest props and cursor state for the chart's callbacks, written before any effect of the commit reads them.
   const propsRef = useRef(props);
+  const cursorsRef = useRef(cursors);
+  const armedRef = useRef(armed);
   useInsertionEffect(() => {
     propsRef.current = props;
+    cursorsRef.current = cursors;
+    armedRef.current = armed;
   });
-  const zoomedRef = useRef(false);
-  /** The live window when the stream was paused: a paused chart keeps showing it while the stream runs on. */
-  const frozenRef = useRef<[number, number] | null>(null);
-  /** True while the chart applies a `view` prop, so it does not report its own range back. */
-  const applyingViewRef = useRef(false);
-  const scheduleRef = useRef<() => void>(() => {});
+  const refsRef = useRef<ChartRefs>({ props: propsRef, zoomed: { current: false }, frozen: { current: null }, applyingView: { current: false }, schedule: { current: () => {} } });
   const seriesKey = props.series.map((s) => `${s.label}|${s.color}|${s.scale ?? "y"}|${s.dash ?? ""}`).join(";");
   const builtKeyRef = useRef(seriesKey);
+  const log = props.x.kind === "log";
+  const hintId = useId();
 
   useEffect(() => {
     const host = hostRef.current;
     if (!host) return;
+    const refs = refsRef.current;
     const p = propsRef.current;
+    const isLog = p.x.kind === "log";
     let frame = 0;
     let destroyed = false;
-
-    const xRange = (_u: uPlot, min: number | null, max: number | null): uPlot.Range.MinMax => {
-      if (zoomedRef.current && min != null && max != null && max > min) return [min, max];
-      const live = propsRef.current.source.xRange?.() ?? null;
-      if (live) return propsRef.current.paused ? (frozenRef.current ?? live) : live;
-      if (p.x.kind === "log") {
-        // A log axis needs a positive range: an empty plot shows one to a thousand.
-        if (min == null || max == null || !(min > 0) || !(max > min)) return [1, 1000];
-        // The data's own extent, so a frequency axis ends where the response does (just below Nyquist), not at the next decade.
-        return [min, max];
+    let shown = { key: "", cursors: NO_CURSORS, at: 0 };
+    /** A readout held back by the rate limit, shown when the limit allows (so the last data is never missed). */
+    let trailing = 0;
+    const readOut = (u: uPlot) => {
+      const c = cursorsRef.current;
+      const next = c.a === null && c.b === null ? null : cursorReadout(u.data, c, isLog);
+      const key = JSON.stringify(next);
+      if (key === shown.key) return;
+      const wait = c === shown.cursors ? READOUT_EVERY_MS - (performance.now() - shown.at) : 0;
+      if (wait > 0) {
+        trailing ||= window.setTimeout(() => {
+          trailing = 0;
+          if (!destroyed) readOut(u);
+        }, wait);
+        return;
       }
-      if (min == null || max == null) return [0, 1];
-      return min === max ? [min - 1, max + 1] : [min, max];
+      shown = { key, cursors: c, at: performance.now() };
+      setReadout(next);
     };
-    const autoRange = (floor: number | undefined) => (_u: uPlot, min: number | null, max: number | null): uPlot.Range.MinMax => {
-      if (min == null || max == null) return [-1, 1];
-      const lo = floor === undefined ? min : Math.min(Math.max(min, floor), max);
-      return uPlot.rangeNum(lo, max, 0.08, true);
-    };
-    const scales: uPlot.Scales = {
-      // Time is drawn on a plain numeric scale with our own clock labels: uPlot's calendar time axis
-      // cost about half the frame rate at 1,500 px in headless Chromium (tests/bench/chart.bench.ts).
-      x: p.x.kind === "log" ? { time: false, distr: 3, log: 10, range: xRange } : { time: false, range: xRange },
-    };
-    for (const a of p.axes) {
-      const auto = autoRange(a.floor);
-      scales[a.scale] ??= { range: a.scale === "y" ? (u, min, max) => propsRef.current.yRange ?? auto(u, min, max) : auto };
-    }
-    const axis = (a: Partial<uPlot.Axis>): uPlot.Axis => ({ stroke: AXIS_STROKE, grid: GRID, ticks: TICKS, font: "11px var(--font-mono), monospace", labelFont: "11px var(--font-inter), sans-serif", ...a });
-
-    let pointerDown = false;
-    /** A shift-drag pan is under way: its range is reported once, when it ends. */
-    let panning = false;
-    const panPlugin: uPlot.Plugin = {
-      hooks: {
-        init: (u) => {
-          let start: { x: number; min: number; max: number } | null = null;
-          const onDown = (e: MouseEvent) => {
-            pointerDown = true;
-            if (!e.shiftKey || e.button !== 0) return;
-            e.stopPropagation();
-            start = { x: e.clientX, min: u.scales.x.min ?? 0, max: u.scales.x.max ?? 1 };
-            panning = true;
-            zoomedRef.current = true;
-            propsRef.current.onZoom?.(true);
-          };
-          const onMove = (e: MouseEvent) => {
-            if (!start) return;
-            const width = u.over.getBoundingClientRect().width || 1;
-            const frac = (e.clientX - start.x) / width;
-            if (p.x.kind === "log") {
-              const k = Math.pow(start.max / start.min, -frac);
-              u.setScale("x", { min: start.min * k, max: start.max * k });
-            } else {
-              const d = -frac * (start.max - start.min);
-              u.setScale("x", { min: start.min + d, max: start.max + d });
-            }
-          };
-          const onUp = () => {
-            start = null;
-            if (panning) {
-              panning = false;
-              const { min, max } = u.scales.x;
-              if (min != null && max != null) propsRef.current.onView?.([min, max]);
-            }
-            setTimeout(() => (pointerDown = false), 0);
-          };
-          const onDbl = () => {
-            pointerDown = false;
-            zoomedRef.current = false;
-            propsRef.current.onZoom?.(false);
-            propsRef.current.onView?.(null);
-            scheduleRef.current();
-          };
-          u.over.addEventListener("mousedown", onDown, true);
-          window.addEventListener("mousemove", onMove);
-          window.addEventListener("mouseup", onUp);
-          u.over.addEventListener("dblclick", onDbl);
-          u.over.addEventListener("click", (e) => {
-            if (u.select.width > 2 || e.shiftKey) return;
-            const v = u.posToVal(e.offsetX, "x");
-            if (Number.isFinite(v)) propsRef.current.onPick?.(v);
-          });
-          (u as uPlot & { _cleanupPan?: () => void })._cleanupPan = () => {
-            window.removeEventListener("mousemove", onMove);
-            window.removeEventListener("mouseup", onUp);
-          };
-        },
-        // A drag-zoom reports its selection just before it sets the x scale: from here on the x range is the engineer's.
-        setSelect: (u) => {
-          if (pointerDown && u.select.width > 0 && !zoomedRef.current) {
-            zoomedRef.current = true;
-            propsRef.current.onZoom?.(true);
-          }
-        },
-        setScale: (u, key) => {
-          const { min, max } = u.scales.x;
-          if (key === "x" && zoomedRef.current && !panning && !applyingViewRef.current && min != null && max != null) propsRef.current.onView?.([min, max]);
-        },
-        draw: (u) => {
-          const marks = propsRef.current.marks;
-          if (!marks?.length) return;
-          const ctx = u.ctx;
-          const dpr = uPlot.pxRatio;
-          ctx.save();
-          ctx.font = `${11 * dpr}px var(--font-mono), monospace`;
-          ctx.textAlign = "center";
-          const right = u.bbox.left + u.bbox.width;
-          marks.forEach((m, i) => {
-            const x = u.valToPos(m.x, "x", true);
-            if (m.endX !== undefined) {
-              const from = Math.max(u.bbox.left, x);
-              const to = Math.min(right, u.valToPos(m.endX, "x", true));
-              ctx.fillStyle = m.tone === "alarm" ? "rgba(220, 63, 63, 0.12)" : "rgba(226, 232, 240, 0.08)";
-              if (to > from) ctx.fillRect(from, u.bbox.top, to - from, u.bbox.height);
-            }
-            if (x < u.bbox.left || x > right) return;
-            ctx.strokeStyle = m.tone === "alarm" ? "rgba(220, 63, 63, 0.8)" : "rgba(226, 232, 240, 0.35)";
-            ctx.setLineDash([3 * dpr, 3 * dpr]);
-            ctx.beginPath();
-            ctx.moveTo(x, u.bbox.top);
-            ctx.lineTo(x, u.bbox.top + u.bbox.height);
-            ctx.stroke();
-            ctx.fillStyle = m.tone === "alarm" ? "#f87171" : "#e2e8f0";
-            ctx.fillText(m.label, x, u.bbox.top + (12 + (i % 2) * 13) * dpr);
-          });
-          ctx.restore();
-        },
-        setSeries: (_u, idx, opts) => {
-          if (idx != null && idx > 0 && opts.show !== undefined) propsRef.current.onToggle?.(idx - 1, opts.show);
-        },
-      },
-    };
-
-    const opts: uPlot.Options = {
-      width: Math.max(200, host.clientWidth),
-      height: p.height,
-      scales,
-      series: [
-        { label: p.x.label, value: p.x.kind === "time" ? (_u: uPlot, v: number | null) => (v == null ? "—" : clock(v, true)) : formatValue(p.x.unit) },
-        ...p.series.map(seriesOptions),
-      ],
-      axes: [
-        axis({
-          label: p.x.label,
-          scale: "x",
-          space: p.x.kind === "log" ? 40 : p.x.kind === "time" ? 90 : 70,
-          // Ticks less than a second apart (a 1 s window, a zoom) get milliseconds, so no two labels read the same.
-          values: p.x.kind === "time" ? (_u: uPlot, splits: number[]) => splits.map((v) => clock(v, splits.length > 1 && splits[1] - splits[0] < 1)) : undefined,
-        }),
-        ...p.axes.map((a) =>
-          axis({
-            scale: a.scale,
-            label: a.label,
-            side: a.side === "right" ? 1 : 3,
-            grid: a.side === "right" ? { show: false } : GRID,
-            size: 56,
-            values: a.format ? (_u: uPlot, splits: number[]) => splits.map((v) => a.format!(v)) : undefined,
-          }),
-        ),
-      ],
-      cursor: { drag: { x: true, y: false, setScale: true }, points: { size: 5 } },
-      legend: { show: true, live: true },
-      plugins: [panPlugin],
-    };
-    const initial = p.source.snapshot(opts.width);
-    const plot = new uPlot(opts, initial, host);
+    const cursors = cursorPlugin(refs, { cursors: cursorsRef, armed: armedRef, set: setCursors, drawn: readOut }, isLog);
+    const opts = buildOptions(p, Math.max(200, host.clientWidth), refs, [panZoomPlugin(refs, isLog), marksPlugin(refs), cursors]);
+    const plot = new uPlot(opts, p.source.snapshot(opts.width), host);
     plotRef.current = plot;
 
     const flush = () => {
       frame = 0;
       if (destroyed || propsRef.current.paused) return;
-      plot.setData(propsRef.current.source.snapshot(plot.width), !zoomedRef.current);
+      plot.setData(propsRef.current.source.snapshot(plot.width), !refs.zoomed.current);
     };
-    const schedule = () => {
+    refs.schedule.current = () => {
       if (!frame && !destroyed) frame = requestAnimationFrame(flush);
     };
-    scheduleRef.current = schedule;
     const resize = new ResizeObserver(() => {
       const width = Math.max(200, host.clientWidth);
       if (width !== plot.width) plot.setSize({ width, height: propsRef.current.height });
@@ -312,8 +101,8 @@ export function UPlotChart(props: UPlotChartProps) {
     return () => {
       destroyed = true;
       if (frame) cancelAnimationFrame(frame);
+      clearTimeout(trailing);
       resize.disconnect();
-      (plot as uPlot & { _cleanupPan?: () => void })._cleanupPan?.();
       plot.destroy();
       plotRef.current = null;
     };
@@ -328,8 +117,9 @@ export function UPlotChart(props: UPlotChartProps) {
       while (plot.series.length > 1) plot.delSeries(plot.series.length - 1);
       propsRef.current.series.forEach((s) => plot.addSeries(seriesOptions(s)));
     }
-    scheduleRef.current();
-    return propsRef.current.source.subscribe(() => scheduleRef.current());
+    const schedule = refsRef.current.schedule;
+    schedule.current();
+    return propsRef.current.source.subscribe(() => schedule.current());
   }, [seriesKey, props.source]);
 
   const showKey = props.series.map((s) => (s.show ?? true ? 1 : 0)).join("");
@@ -347,13 +137,14 @@ export function UPlotChart(props: UPlotChartProps) {
   useEffect(() => {
     const plot = plotRef.current;
     if (!plot) return;
+    const refs = refsRef.current;
     if (plot.height !== props.height) plot.setSize({ width: plot.width, height: props.height });
-    if (!props.paused) zoomedRef.current = false;
-    frozenRef.current = props.paused ? (frozenRef.current ?? propsRef.current.source.xRange?.() ?? null) : null;
+    if (!props.paused) refs.zoomed.current = false;
+    refs.frozen.current = props.paused ? (refs.frozen.current ?? propsRef.current.source.xRange?.() ?? null) : null;
     const yRange = propsRef.current.yRange;
     if (yRange) plot.setScale("y", { min: yRange[0], max: yRange[1] });
-    else if (!zoomedRef.current) plot.setData(plot.data, true);
-    scheduleRef.current();
+    else if (!refs.zoomed.current) plot.setData(plot.data, true);
+    refs.schedule.current();
   }, [yKey, props.paused, props.height]);
 
   // A shared view: zoom to it (keeping it when the data changes), or back to the whole extent.
@@ -362,12 +153,87 @@ export function UPlotChart(props: UPlotChartProps) {
     const plot = plotRef.current;
     const view = propsRef.current.view;
     if (!plot) return;
-    applyingViewRef.current = true;
-    zoomedRef.current = view != null;
+    const refs = refsRef.current;
+    refs.applyingView.current = true;
+    refs.zoomed.current = view != null;
     if (view) plot.setScale("x", { min: view[0], max: view[1] });
     else plot.setData(plot.data, true);
-    applyingViewRef.current = false;
+    refs.applyingView.current = false;
   }, [viewKey]);
 
-  return <div ref={hostRef} role="img" aria-label={props.label} data-testid={props.testId} className="tw-chart w-full min-w-0 overflow-hidden" />;
+  // Moved cursors or new marks are drawn at once, without waiting for new data.
+  const marksKey = JSON.stringify(props.marks ?? []);
+  useEffect(() => {
+    plotRef.current?.redraw(false);
+  }, [cursors, marksKey]);
+
+  const onKeyDown = (e: KeyboardEvent<HTMLDivElement>) => {
+    const plot = plotRef.current;
+    if (!plot || e.target !== e.currentTarget) return;
+    const { min, max } = plot.scales.x;
+    const centre = min == null || max == null ? NaN : log ? Math.sqrt(min * max) : (min + max) / 2;
+    const next = cursorsAfterKey(cursors, e.key, e.shiftKey, plot.data[0], centre, log);
+    if (!next) return;
+    // Handled here: the page does not also act on it (an Escape that clears cursors leaves an open editor open).
+    e.preventDefault();
+    e.stopPropagation();
+    setCursors(next);
+  };
+
+  const exportAs = async (kind: "csv" | "png") => {
+    const plot = plotRef.current;
+    if (!plot) return;
+    const p = propsRef.current;
+    const name = chartFileName(p.label, kind, new Date());
+    try {
+      if (kind === "png") downloadBlob(await chartPng(plot, p.label, p.series), name);
+      else {
+        const x = p.x.kind === "time" ? { label: "Time", unit: "s since 1970-01-01 UTC" } : p.x;
+        downloadBlob(new Blob([chartCsv(x, p.series, plot.data)], { type: "text/csv;charset=utf-8" }), name);
+      }
+      setExportError(null);
+    } catch (err) {
+      console.error("chart export failed", err);
+      setExportError(`The ${kind.toUpperCase()} could not be made in this browser; try again or use another browser.`);
+    }
+  };
+
+  const { label, testId } = props;
+  return (
+    <div className="min-w-0" data-testid={testId ? `${testId}-frame` : undefined}>
+      <div className="tw-chart-toolbar" role="group" aria-label={`${label}: tools`}>
+        {armed && <span className="mr-auto">Click places cursor A, then B; the nearer one moves after that. Drag still zooms.</span>}
+        <button type="button" className="tw-chart-button" aria-pressed={armed} onClick={() => setArmed((v) => !v)} title="Click the plot to place measurement cursors A and B">
+          Cursors
+        </button>
+        <button type="button" className="tw-chart-button" onClick={() => void exportAs("csv")} aria-label={`Download the data of ${label} as CSV`}>
+          CSV
+        </button>
+        <button type="button" className="tw-chart-button" onClick={() => void exportAs("png")} aria-label={`Download ${label} as a PNG picture`}>
+          PNG
+        </button>
+      </div>
+      <div
+        ref={hostRef}
+        role="group"
+        aria-roledescription="chart"
+        aria-label={label}
+        aria-describedby={hintId}
+        tabIndex={0}
+        onKeyDown={onKeyDown}
+        data-testid={testId}
+        data-armed={armed || undefined}
+        className="tw-chart w-full min-w-0 overflow-hidden"
+      />
+      <p id={hintId} className="sr-only">
+        Enter or space places measurement cursor A, again for B, again to switch between them; the left and right arrows move the active cursor one point (ten with shift); Escape clears the cursors.
+      </p>
+      {exportError && (
+        <p role="alert" className="mt-1 text-xs text-red-400">
+          {exportError}
+        </p>
+      )}
+      <CursorReadoutView cursors={cursors} readout={readout} series={props.series} x={props.x} onClear={() => setCursors(NO_CURSORS)} />
+    </div>
+  );
 }

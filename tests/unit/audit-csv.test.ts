@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { auditCsv, csvField, neutralised } from "@/app/api/v1/audit/csv";
+import { auditCsv } from "@/app/api/v1/audit/csv";
+import { csvField, neutralised } from "@/lib/format/csv-field";
 
 describe("audit CSV", () => {
   it("neutralises cells a spreadsheet would run as a formula (OWASP, CSV Injection)", () => {
