@@ -217,6 +217,8 @@ export function createPipeline(deps: {
       const key = candidateKey(owner, id);
       if (!ch.candidates.delete(key)) return false;
       bank.remove(path, key);
+      // A block's traces all cover its raw samples: the next samples start a block without this one.
+      ch.breakBlock = true;
       return true;
     },
     removeOwner(owner) {
@@ -225,6 +227,7 @@ export function createPipeline(deps: {
           if (!key.startsWith(`${owner}/`)) continue;
           ch.candidates.delete(key);
           bank.remove(path, key);
+          ch.breakBlock = true;
         }
       }
     },
