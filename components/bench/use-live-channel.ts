@@ -104,6 +104,7 @@ export function useLiveChannel(opts: Options): LiveChannel {
         case "production-changed":
           // A deployment was acknowledged: the production label, trace and analysis reload.
           if (msg.channel === opts.path) void queryClient.invalidateQueries({ queryKey: productionQueryKey(msg.channel) });
+          return;
         case "moved":
           // The channel is filtered elsewhere now: drop this socket and connect to the new owner at once.
           if (msg.channel === opts.path) {
