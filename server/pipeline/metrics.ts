@@ -1,6 +1,15 @@
 import FFT from "fft.js";
-import { attenuationDb, findPeaks, welch, type FilterDesign, type SpectralPeak, type WelchResult } from "@/lib/dsp";
+import { attenuationDb, findPeaks, peakGainDb, welch, type FilterDesign, type SpectralPeak, type WelchResult } from "@/lib/dsp";
 import type { CandidateMetrics } from "@/lib/protocol";
+
+/** Each live design's passband reference, found once: it is fixed for the design's life, and the search is the costly part of the prediction. */
+const passbandReference = new WeakMap<FilterDesign, number>();
+
+function referenceOf(design: FilterDesign): number {
+  let reference = passbandReference.get(design);
+  if (reference === undefined) passbandReference.set(design, (reference = peakGainDb(design)));
+  return reference;
+}
 
 /** Largest lag searched, in seconds and in samples (whichever is smaller). */
 export const MAX_LAG_SECONDS = 0.1;
@@ -110,6 +119,6 @@ export function candidateMetrics(raw: Float64Array, out: Float64Array, design: F
     ...base,
     noiseLineHz: line,
     measuredAttenuationDb: Number.isFinite(ratio) && ratio > 0 ? 10 * Math.log10(ratio) : null,
-    predictedAttenuationDb: attenuationDb(design, [line])[0],
+    predictedAttenuationDb: attenuationDb(design, [line], referenceOf(design))[0],
   };
 }

@@ -133,6 +133,11 @@ export function createPipeline(deps: {
     return ch;
   }
 
+  function clearProduction(path: string, ch: LiveChannel): void {
+    if (ch.production) bank.remove(path, PRODUCTION);
+    ch.production = null;
+  }
+
   function blockFor(ch: LiveChannel, batch: SampleBatch): PendingBlock {
     const last = ch.pending.at(-1);
     const contiguous = last && !ch.breakBlock && ch.nextSeq === batch.seq;
@@ -191,8 +196,7 @@ export function createPipeline(deps: {
     push,
     setProductionFilter(path, revisionId, design) {
       const ch = channelOf(path);
-      if (ch.production) bank.remove(path, PRODUCTION);
-      ch.production = null;
+      clearProduction(path, ch);
       if (design) {
         addLive(path, PRODUCTION, design);
         ch.production = { revisionId, design };
@@ -267,8 +271,7 @@ export function createPipeline(deps: {
     },
     resetChannel(path) {
       const ch = channelOf(path);
-      if (ch.production) bank.remove(path, PRODUCTION);
-      ch.production = null;
+      clearProduction(path, ch);
       ch.pending = [];
       ch.nextSeq = null;
       ch.breakBlock = true;

@@ -90,9 +90,11 @@ export function referenceDb(form: RunForm, sampleRateHz: number, grid: ReturnTyp
   return peak;
 }
 
-/** Attenuation in dB below the passband reference (peakGainDb) at each f in Hz; positive means attenuated. */
-export function attenuationDb(design: FilterDesign, freqsHz: readonly number[]): number[] {
+/**
+ * Attenuation in dB below the passband reference (peakGainDb) at each f in Hz; positive means attenuated.
+ * A caller that judges the same design again and again passes the reference it computed once.
+ */
+export function attenuationDb(design: FilterDesign, freqsHz: readonly number[], reference = peakGainDb(design)): number[] {
   const form = runForm(design);
-  const reference = peakGainDb(design);
   return freqsHz.map((f) => reference - magnitudeDbAt(form, f, design.sampleRateHz));
 }
