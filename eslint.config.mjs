@@ -15,6 +15,8 @@ export default defineConfig([
       "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_", ignoreRestSiblings: true }],
       // server/main.ts declares what shutdown stops before the start assigns it.
       "prefer-const": ["error", { ignoreReadBeforeAssign: true }],
+      // A switch case that runs into the next one is a slip (a merge once made a promotion also drop the live socket).
+      "no-fallthrough": "error",
     },
   },
   {
