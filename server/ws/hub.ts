@@ -288,6 +288,11 @@ export function createHub(opts: HubOptions): Hub {
     return false;
   }
 
+  function toSubscribers(channel: string, message: ControlMessage): void {
+    const text = JSON.stringify(message);
+    for (const state of clients.values()) if (state.subs.has(channel)) state.conn.send(text);
+  }
+
   function sendFrames(path: string, blocks: PendingBlock[]): void {
     const encoded = new Map<ViewState, Uint8Array[]>();
     for (const state of clients.values()) {
@@ -405,16 +410,13 @@ export function createHub(opts: HubOptions): Hub {
       for (const [key, view] of views) if (!live.has(view)) views.delete(key);
     },
     moved(path) {
-      for (const state of clients.values()) if (state.subs.has(path)) send(state, { type: "moved", channel: path });
+      toSubscribers(path, { type: "moved", channel: path });
     },
     broadcast(message) {
       const text = JSON.stringify(message);
       for (const state of clients.values()) state.conn.send(text);
     },
-    toSubscribers(channel, message) {
-      const text = JSON.stringify(message);
-      for (const state of clients.values()) if (state.subs.has(channel)) state.conn.send(text);
-    },
+    toSubscribers,
     recheckSessions() {
       recheck ??= recheckOnce()
         .catch((err) => opts.logger.warn(`session recheck failed: ${errorMessage(err)}`))
