@@ -14,6 +14,24 @@ async function admin<T>(fn: (client: pg.Client) => Promise<T>): Promise<T> {
   }
 }
 
+/** Whether a drop was refused for a backend of another role: an autovacuum worker (the cluster's superuser) still in the database. */
+function heldByAutovacuum(err: unknown): boolean {
+  return err instanceof Error && "code" in err && err.code === "42501";
+}
+
+/** Drops a test database; an autovacuum worker in it refuses FORCE for a moment, so this tries again, at most ten times. */
+async function dropDatabase(name: string): Promise<void> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      await admin((c) => c.query(`drop database if exists "${name}" with (force)`));
+      return;
+    } catch (err) {
+      if (!heldByAutovacuum(err) || attempt === 10) throw err;
+      await new Promise((r) => setTimeout(r, 200));
+    }
+  }
+}
+
 /** A new, empty database on the test cluster (never the demo's); returns its URL and a dropper. */
 export async function createTestDatabase(label: string): Promise<{ url: string; drop: () => Promise<void> }> {
   const name = `tw_${label.replace(/[^a-z0-9_]/g, "_")}_${process.pid}_${Date.now().toString(36)}`;
@@ -22,7 +40,7 @@ export async function createTestDatabase(label: string): Promise<{ url: string; 
   url.pathname = `/${name}`;
   return {
     url: url.toString(),
-    drop: () => admin((c) => c.query(`drop database if exists "${name}" with (force)`)).then(() => undefined),
+    drop: () => dropDatabase(name),
   };
 }
 
