@@ -5,12 +5,12 @@ import { db } from "@/db";
 import { liveSessionAccount } from "@/db/queries/sessions";
 import { requireRole, resolveSessionUser, type SessionUser } from "@/lib/auth/guard";
 import { roleAtLeast, type Role } from "@/lib/auth/roles";
-import { getSession } from "@/lib/auth/session";
+import { readSession } from "@/lib/auth/session";
 import { requireSameOrigin } from "@/lib/http/handler";
 
 /** The signed-in user for this request: the cookie's session must be live in the database (once per request). */
 export const currentUser = cache(async (): Promise<SessionUser | null> => {
-  const session = await getSession();
+  const session = await readSession();
   if (!session.userId || !session.sessionId) return null;
   return resolveSessionUser(session, await liveSessionAccount(db(), session.sessionId));
 });

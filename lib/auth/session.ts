@@ -3,12 +3,19 @@ import { getIronSession, type IronSession } from "iron-session";
 import { cookies } from "next/headers";
 import { cookieSecure, env } from "@/lib/env";
 import { DEVICE_COOKIE, DEVICE_COOKIE_PATH, DEVICE_TTL_SECONDS, deviceIdFor, newDeviceId, sealDevice } from "./device-cookie";
-import { sessionOptions, type SessionData } from "./session-config";
+import { SESSION_COOKIE, SESSION_TTL_SECONDS, sessionOptions, type SessionData } from "./session-config";
+import { unsealSessionCookie } from "./session-unseal";
 
 /** The iron-session bound to this request's cookies (Next only). */
 export async function getSession(): Promise<IronSession<SessionData>> {
   const e = env();
   return getIronSession<SessionData>(await cookies(), sessionOptions(e.SESSION_SECRET, cookieSecure(e)));
+}
+
+/** What this request's session cookie holds, for reading only (sign-in and sign-out write through getSession). */
+export async function readSession(): Promise<SessionData> {
+  const sealed = (await cookies()).get(SESSION_COOKIE)?.value;
+  return sealed ? unsealSessionCookie(sealed, env().SESSION_SECRET, SESSION_TTL_SECONDS) : {};
 }
 
 /** The id this browser's device cookie proves for `email`, or null. */

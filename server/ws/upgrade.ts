@@ -1,12 +1,12 @@
 import type { IncomingMessage } from "node:http";
 import { Socket } from "node:net";
 import type { Duplex } from "node:stream";
-import { unsealData } from "iron-session";
 import { WebSocketServer, type WebSocket } from "ws";
 import type { Db } from "@/db/client";
 import { liveSessionAccount } from "@/db/queries/sessions";
 import { resolveSessionUser, type SessionUser } from "@/lib/auth/guard";
 import { SESSION_COOKIE, type SessionData } from "@/lib/auth/session-config";
+import { unsealSessionCookie } from "@/lib/auth/session-unseal";
 import { WS_PATH } from "@/lib/protocol";
 import type { Logger } from "../clock";
 import type { Hub } from "./hub";
@@ -17,21 +17,21 @@ import { errorMessage } from "@/lib/errors";
 /** Largest client message accepted, in bytes (ws closes the connection with 1009 beyond it). */
 const MAX_CLIENT_MESSAGE = 64 * 1024;
 
+/** A cookie value with its percent-escapes undone, or "" when they are malformed (then it unseals to no session: a 401). */
+function decodedCookie(value: string): string {
+  try {
+    return decodeURIComponent(value);
+  } catch {
+    return "";
+  }
+}
+
 function cookieValue(header: string | undefined, name: string): string | undefined {
   for (const part of (header ?? "").split(";")) {
     const eq = part.indexOf("=");
     if (eq > 0 && part.slice(0, eq).trim() === name) return part.slice(eq + 1).trim();
   }
   return undefined;
-}
-
-/** The session a cookie seals, or {} when it is missing, malformed, forged or expired (never a throw: that is a 401). */
-async function unsealSession(sealed: string, password: string, ttl: number): Promise<SessionData> {
-  try {
-    return await unsealData<SessionData>(decodeURIComponent(sealed), { password, ttl });
-  } catch {
-    return {};
-  }
 }
 
 /**
@@ -48,7 +48,7 @@ export async function userFromUpgrade(
 ): Promise<{ user: SessionUser; session: SessionData } | null> {
   const sealed = cookieValue(req.headers.cookie, SESSION_COOKIE);
   if (!sealed) return null;
-  const session = await unsealSession(sealed, sessionSecret, ttl);
+  const session = await unsealSessionCookie(decodedCookie(sealed), sessionSecret, ttl);
   if (typeof session.userId !== "number" || typeof session.sessionId !== "string") return null;
   const user = resolveSessionUser(session, await liveSessionAccount(db, session.sessionId));
   const { userId, sessionVersion, sessionId } = session;
