@@ -80,7 +80,7 @@ sidecar = await startSidecar({
     port: e.SIDECAR_PORT,
     allowedOrigins: [...new Set([appOrigin(e), `http://127.0.0.1:${e.PORT}`, `http://localhost:${e.PORT}`])],
   },
-  design: (spec, owner) => work.run({ kind: "design", spec }, owner),
+  design: (spec, owner) => work.run({ kind: "live-design", spec }, owner),
   ws: {
     messageRate: { perSecond: e.WS_MESSAGES_PER_SECOND, burst: e.WS_MESSAGE_BURST },
     maxConnectionsPerUser: e.WS_CONNECTIONS_PER_USER,

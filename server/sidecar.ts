@@ -4,7 +4,7 @@ import { listChannels } from "@/db/queries/channels";
 import { liveSessionAccounts } from "@/db/queries/sessions";
 import { demoDeviceCredential } from "@/lib/demo/device-credentials";
 import { errorMessage } from "@/lib/errors";
-import type { FilterDesign, FilterSpec } from "@/lib/dsp";
+import type { FilterSpec, LiveDesign } from "@/lib/dsp";
 import { filteredTopic, parseTopic, SAMPLES_FILTER, sharedFilter, type LiveOverview } from "@/lib/protocol";
 import type { MessageBus } from "./broker/bus";
 import { deviceAuthHooks, type DeviceAuth, type InternalCredential } from "./broker/device-auth";
@@ -44,7 +44,7 @@ export interface SidecarOptions {
   sessionTtlSeconds: number;
   http: { host: string; port: number; allowedOrigins?: string[] };
   /** Designs candidates' specs off the event loop (the design threads, with their time limit); `owner` is the connection. */
-  design: (spec: FilterSpec, owner: string) => Promise<FilterDesign>;
+  design: (spec: FilterSpec, owner: string) => Promise<LiveDesign>;
   /** Per WebSocket connection: messages per second and burst; per user: open connections. */
   ws?: { messageRate?: { perSecond: number; burst: number }; maxConnectionsPerUser?: number };
   mqtt: MqttSetup;

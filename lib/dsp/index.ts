@@ -4,6 +4,7 @@ export type { Complex, DirectForm, FilterDesign, StageDesign } from "./types";
 export * from "./spec";
 export * from "./filter-spec";
 export { designFilter } from "./design";
+export { liveDesign, type LiveDesign } from "./live-design";
 export { chainDesign, designStages } from "./chain";
 export {
   designDirectForm,

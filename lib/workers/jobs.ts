@@ -1,12 +1,14 @@
 import { checkFilter, type AlarmRule, type FilterCheck } from "@/lib/alarms";
 import { buildRevisionContent, type RevisionContent } from "@/lib/coefficients";
-import { designFilter, type FilterDesign, type FilterSpec, type QuantFormat } from "@/lib/dsp";
+import { designFilter, liveDesign, type FilterDesign, type FilterSpec, type LiveDesign, type QuantFormat } from "@/lib/dsp";
 import { ExportRefusal, prepareExport, type ExportSource, type ExportTarget, type PreparedExport } from "@/lib/export";
 import { errorMessage } from "@/lib/errors";
 
 /** The work that may run long, as messages a worker thread can take: each is bounded by the spec's limits and a time limit. */
 export type Job =
   | { kind: "design"; spec: FilterSpec }
+  /** A candidate for the live pipeline: the design and its passband reference (so the stream never searches for it). */
+  | { kind: "live-design"; spec: FilterSpec }
   | { kind: "revision-content"; spec: FilterSpec; format: QuantFormat }
   | { kind: "export"; source: ExportSource; target: ExportTarget; prefix?: string }
   /** A candidate and the production filter over raw samples against a channel's alarm rules (the review's hidden-excursion check). */
@@ -15,6 +17,7 @@ export type Job =
 /** What each kind of job answers. */
 export interface JobResults {
   design: FilterDesign;
+  "live-design": LiveDesign;
   "revision-content": RevisionContent;
   export: PreparedExport;
   "filter-check": { candidate: FilterCheck; production: FilterCheck | null };
@@ -34,6 +37,8 @@ export async function runJob(job: Job): Promise<JobResults[Job["kind"]]> {
   switch (job.kind) {
     case "design":
       return designFilter(job.spec);
+    case "live-design":
+      return liveDesign(job.spec);
     case "revision-content":
       return buildRevisionContent(job.spec, job.format);
     case "export":

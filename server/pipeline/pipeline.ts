@@ -1,4 +1,4 @@
-import { createFilterBank, NoSteadyState, type FilterDesign } from "@/lib/dsp";
+import { createFilterBank, NoSteadyState, type FilterDesign, type LiveDesign } from "@/lib/dsp";
 import { MAX_CANDIDATES_PER_CLIENT, type CandidateMetrics, type SampleBatch } from "@/lib/protocol";
 import type { BatchSink, ChannelInfo } from "../ingest/ingest";
 import { candidateMetrics, rawSpectrum, type RawSpectrum } from "./metrics";
@@ -20,7 +20,7 @@ export interface PendingBlock {
 }
 
 interface Candidate {
-  design: FilterDesign;
+  live: LiveDesign;
   output: SampleRing;
   /** Samples the candidate has filtered since it was added. */
   filtered: number;
@@ -57,7 +57,7 @@ export interface Pipeline extends BatchSink {
   /** The revision in the production slot, or null. */
   productionRevision(path: string): string | null;
   /** Adds a candidate for `owner`; throws CandidateLimitError past MAX_CANDIDATES_PER_CLIENT or for a taken id. */
-  addCandidate(path: string, owner: string, id: string, design: FilterDesign): void;
+  addCandidate(path: string, owner: string, id: string, live: LiveDesign): void;
   removeCandidate(path: string, owner: string, id: string): boolean;
   /** Removes every candidate of an owner (a closed connection). */
   removeOwner(owner: string): void;
@@ -204,7 +204,7 @@ export function createPipeline(deps: {
       ch.breakBlock = true;
     },
     productionRevision: (path) => channelOf(path).production?.revisionId ?? null,
-    addCandidate(path, owner, id, design) {
+    addCandidate(path, owner, id, live) {
       const ch = channelOf(path);
       const key = candidateKey(owner, id);
       if (ch.candidates.has(key)) throw new CandidateLimitError("duplicate", `candidate '${id}' already exists on ${path}`);
@@ -212,8 +212,8 @@ export function createPipeline(deps: {
       if (mine >= MAX_CANDIDATES_PER_CLIENT) {
         throw new CandidateLimitError("too_many", `at most ${MAX_CANDIDATES_PER_CLIENT} candidates per channel`);
       }
-      addLive(path, key, design);
-      ch.candidates.set(key, { design, output: new SampleRing(Math.ceil(ch.info.sampleRateHz)), filtered: 0 });
+      addLive(path, key, live.design);
+      ch.candidates.set(key, { live, output: new SampleRing(Math.ceil(ch.info.sampleRateHz)), filtered: 0 });
       ch.breakBlock = true;
     },
     removeCandidate(path, owner, id) {
@@ -257,7 +257,7 @@ export function createPipeline(deps: {
         }
         try {
           spectrum ??= rawSpectrum(raw, fs);
-          result[id] = candidateMetrics(raw, c.output.latest(n), c.design, spectrum, lineHz);
+          result[id] = candidateMetrics(raw, c.output.latest(n), c.live, spectrum, lineHz);
         } catch (err) {
           deps.onMetricsError?.(path, id, err);
           result[id] = EMPTY_METRICS;

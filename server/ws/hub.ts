@@ -1,4 +1,4 @@
-import type { FilterDesign, FilterSpec } from "@/lib/dsp";
+import type { FilterSpec, LiveDesign } from "@/lib/dsp";
 import { requireRole, resolveSessionUser, type SessionUser, type StoredSession } from "@/lib/auth/guard";
 import { roleAtLeast, type Role } from "@/lib/auth/roles";
 import type { SessionData } from "@/lib/auth/session-config";
@@ -69,7 +69,7 @@ export interface HubOptions {
   /** The live stored sessions of these ids with their accounts, in one query (revoked or expired ones are left out). */
   sessions: (ids: string[]) => Promise<StoredSession[]>;
   /** Designs a candidate's spec off the event loop (a worker thread with a time limit); `owner` is the connection. */
-  design: (spec: FilterSpec, owner: string) => Promise<FilterDesign>;
+  design: (spec: FilterSpec, owner: string) => Promise<LiveDesign>;
   /** Message rate per connection: `perSecond` sustained, `burst` at once (default 20/s, 40). */
   messageRate?: { perSecond: number; burst: number };
   /** Partitioned: whether this sidecar filters the channel now; a subscriber of another's channel is told it moved. */
@@ -245,10 +245,10 @@ export function createHub(opts: HubOptions): Hub {
     const wanted = () => clients.get(state.conn.id) === state && state.designing.get(key) === token;
     opts
       .design(spec, state.conn.id)
-      .then((design) => {
+      .then((live) => {
         if (!wanted()) return;
         requireRole(state.user, REQUIRED_ROLE["candidate.add"]);
-        opts.pipeline.addCandidate(path, state.conn.id, id, design);
+        opts.pipeline.addCandidate(path, state.conn.id, id, live);
         const owned = state.candidates.get(path) ?? new Set();
         state.candidates.set(path, owned.add(id));
         forgetViews(state, path);

@@ -23,7 +23,7 @@ import WebSocket from "ws";
 import { createDb, type Db } from "@/db/client";
 import { createSession } from "@/db/queries/sessions";
 import { hashPassword } from "@/lib/auth/password";
-import { designFilter } from "@/lib/dsp";
+import { liveDesign } from "@/lib/dsp";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
 import { decodeFrame, encodeBinarySamples, samplesTopic, type ServerMessage } from "@/lib/protocol";
 import { channelOwners } from "@/db/queries/leases";
@@ -308,7 +308,7 @@ async function main(): Promise<void> {
       mqtt: { mode: "embedded", host: "127.0.0.1", port: 0, requireDeviceAuth: false },
       republishFiltered: false,
       // The bench measures the stream, not design: one client adds every candidate at once, designed in-process.
-      design: async (spec) => designFilter(spec),
+      design: async (spec) => liveDesign(spec),
       ws: { messageRate: { perSecond: 1e6, burst: 1e6 } },
     });
     try {

@@ -9,7 +9,7 @@ import WebSocket from "ws";
 import type { Db } from "@/db/client";
 import { createSession } from "@/db/queries/sessions";
 import { findUserByEmail } from "@/db/queries/users";
-import { designFilter } from "@/lib/dsp";
+import { liveDesign } from "@/lib/dsp";
 import { seedDemo } from "@/db/seed";
 import { seedDemoDeviceCredentials } from "@/db/seed-device-credentials";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
@@ -45,7 +45,7 @@ export async function cookieFor(db: Db, email: string, change: { sessionVersion?
 }
 
 /** Designs in-process: the tests of the stream do not need the design threads (tests/integration/sidecar-limits.test.ts does). */
-export const inlineDesign = async (spec: Parameters<typeof designFilter>[0]) => designFilter(spec);
+export const inlineDesign = async (spec: Parameters<typeof liveDesign>[0]) => liveDesign(spec);
 
 /** A sidecar on loopback with port 0 everywhere, the embedded broker, and timers off (tests call hub.tick()). */
 export function testSidecar(db: Db, over: Partial<SidecarOptions> = {}): Promise<Sidecar> {

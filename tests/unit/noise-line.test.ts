@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import fixture from "../fixtures/dsp/noise-line-attenuation.json";
 import { candidateFigures } from "@/lib/bench/figures";
 import { judgedLine, readNoiseLine, STRONGEST } from "@/lib/bench/noise-line";
-import { designFilter, filterSignal, type FilterSpec } from "@/lib/dsp";
+import { designFilter, filterSignal, liveDesign, peakGainDb, type FilterSpec } from "@/lib/dsp";
 import { mulberry32 } from "@/server/demo-rig/prng";
 import { candidateMetrics, rawSpectrum } from "@/server/pipeline/metrics";
 
@@ -26,7 +26,7 @@ describe(`the attenuation at a noise line against scipy ${fixture.scipyVersion} 
     const block = liveBlock(design);
     fixture.linesHz.forEach((line, i) => {
       const table = candidateFigures(design, { noiseLineHz: line }).attenuationAtNoiseDb!;
-      const live = candidateMetrics(block.raw, block.out, design, block.spectrum, line);
+      const live = candidateMetrics(block.raw, block.out, { design, passbandDb: peakGainDb(design) }, block.spectrum, line);
       expect(live.noiseLineHz).toBe(line);
       expect(live.predictedAttenuationDb).toBe(table);
       const reference = c.attenuationDb[i];
@@ -43,16 +43,17 @@ describe(`the attenuation at a noise line against scipy ${fixture.scipyVersion} 
 });
 
 describe("the live metrics' noise line", () => {
-  const design = designFilter({ kind: "notch", shape: "notch", centerHz: 50, q: 30, sampleRateHz: 1000 });
+  const live = liveDesign({ kind: "notch", shape: "notch", centerHz: 50, q: 30, sampleRateHz: 1000 });
+  const { design } = live;
 
   it("without a choice is the strongest raw peak — here the wanted 3.2 Hz swing", () => {
     const b = liveBlock(design);
-    expect(candidateMetrics(b.raw, b.out, design, b.spectrum).noiseLineHz).toBeCloseTo(3.2, 0);
+    expect(candidateMetrics(b.raw, b.out, live, b.spectrum).noiseLineHz).toBeCloseTo(3.2, 0);
   });
 
   it("with a chosen line is that line, measured and predicted there", () => {
     const b = liveBlock(design);
-    const m = candidateMetrics(b.raw, b.out, design, b.spectrum, 50);
+    const m = candidateMetrics(b.raw, b.out, live, b.spectrum, 50);
     expect(m.noiseLineHz).toBe(50);
     expect(m.predictedAttenuationDb!).toBeGreaterThan(100);
     // One Welch bin (1000/1000 Hz here) averages the notch's flanks, so the measured figure is shallower but still deep.
@@ -61,7 +62,7 @@ describe("the live metrics' noise line", () => {
 
   it("falls back to the strongest peak for a line outside 0 < f < fs/2", () => {
     const b = liveBlock(design);
-    for (const bad of [0, -5, 500, 700]) expect(candidateMetrics(b.raw, b.out, design, b.spectrum, bad).noiseLineHz).toBeCloseTo(3.2, 0);
+    for (const bad of [0, -5, 500, 700]) expect(candidateMetrics(b.raw, b.out, live, b.spectrum, bad).noiseLineHz).toBeCloseTo(3.2, 0);
   });
 });
 

@@ -1,10 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { designFilter } from "@/lib/dsp";
+import { liveDesign } from "@/lib/dsp";
 import { createPipeline } from "@/server/pipeline/pipeline";
 
 const PATH = "bench-rig/node-a/strain";
 const FS = 1000;
-const lowpass = designFilter({ kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 50, sampleRateHz: FS });
+const lowpass = liveDesign({ kind: "iir", family: "butterworth", response: "lowpass", order: 2, cutoffHz: 50, sampleRateHz: FS });
 
 function batch(seq: number, n = 20) {
   return { seq, t0: seq * n, sampleRateHz: FS, values: Float64Array.from({ length: n }, (_, i) => Math.sin(i / 3)) };

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { designFilter, filterSignal } from "@/lib/dsp";
+import { designFilter, filterSignal, peakGainDb } from "@/lib/dsp";
 import { candidateMetrics, crossCorrelationLag, rawSpectrum } from "@/server/pipeline/metrics";
 import { mulberry32 } from "@/server/demo-rig/prng";
 import { bucketSize, minMaxDecimate } from "@/server/pipeline/decimate";
@@ -41,7 +41,7 @@ describe("live metrics", () => {
     const design = designFilter({ kind: "biquad", shape: "notch", centerHz: 50, q: 2, sampleRateHz: fs });
     const out = filterSignal(design, raw);
     const last = (v: Float64Array) => v.subarray(v.length - fs);
-    const m = candidateMetrics(last(raw), last(out), design, rawSpectrum(last(raw), fs));
+    const m = candidateMetrics(last(raw), last(out), { design, passbandDb: peakGainDb(design) }, rawSpectrum(last(raw), fs));
     expect(m.noiseLineHz).toBeCloseTo(50, 0);
     expect(m.removedRms!).toBeGreaterThan(0.9 * (hum / Math.SQRT2));
     expect(m.removedRms!).toBeLessThan(1.1 * (hum / Math.SQRT2));

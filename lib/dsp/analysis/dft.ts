@@ -12,8 +12,9 @@ export function makeRealDft(n: number): (x: Float64Array) => Float64Array {
   if ((n & (n - 1)) === 0) {
     const fft = new FFT(n);
     const out = fft.createComplexArray() as number[];
+    // realTransform fills bins 0 … n/2, the ones returned (fft.js leaves the mirrored half unset).
     return (x) => {
-      fft.transform(out, fft.toComplexArray(Array.from(x), undefined));
+      fft.realTransform(out, x);
       return Float64Array.from(out.slice(0, 2 * bins));
     };
   }

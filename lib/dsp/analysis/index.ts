@@ -9,5 +9,5 @@ export { sectionInStabilityTriangle, stability, type Stability } from "./stabili
 export { DC_BLOCKED_DB, MAX_STEP_SAMPLES, stepMetrics, type StepMetrics } from "./step-metrics";
 export { impulseResponse, stepResponse } from "./time-response";
 export { MAGNITUDE_FLOOR_DB, powerToDb, toMs } from "./units";
-export { periodicHann, welch, type WelchOptions, type WelchResult } from "./welch";
+export { periodicHann, welch, welchAt, type WelchOptions, type WelchResult } from "./welch";
 export { responseGrid, RESPONSE_GRID_LIMITS } from "./response-grid";

@@ -6,7 +6,7 @@
  * With `bench` (npm run bench) it reports no batches and lets one client send candidates for every channel at once.
  */
 import { createDb } from "@/db/client";
-import { designFilter } from "@/lib/dsp";
+import { liveDesign } from "@/lib/dsp";
 import { startLeadership } from "@/server/cluster/leader";
 import { systemClock, type Logger } from "@/server/clock";
 import { startDeploymentWorker } from "@/server/deploy/worker";
@@ -25,7 +25,7 @@ const sidecar = await startSidecar({
   http: { host: "127.0.0.1", port: Number(port) },
   mqtt: { mode: "external", url: mqttUrl, backoffMs: { initial: 50, max: 500 } },
   republishFiltered: false,
-  design: async (spec) => designFilter(spec),
+  design: async (spec) => liveDesign(spec),
   leases: { id, wsUrl: `ws://127.0.0.1:${port}/ws`, ttlMs: 5000, heartbeatMs: 1000 },
   ws: bench ? { messageRate: { perSecond: 1e6, burst: 1e6 } } : undefined,
 });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fixture from "../../fixtures/dsp/analysis-welch.json";
-import { findPeaks, periodicHann, welch } from "@/lib/dsp/analysis";
+import { findPeaks, periodicHann, welch, welchAt } from "@/lib/dsp/analysis";
 
 interface WelchCase {
   name: string;
@@ -41,6 +41,17 @@ describe(`welch against scipy.signal.welch ${fixture.scipyVersion}`, () => {
     r.freqsHz.forEach((f, i) => expect(f).toBeCloseTo(c.freqsHz[i], 9));
     const bound = fixture.tolerance.relativeToMaxPsd * Math.max(...c.psd);
     r.psd.forEach((p, i) => expect(Math.abs(p - c.psd[i])).toBeLessThanOrEqual(bound));
+  });
+
+  it.each((fixture.cases as WelchCase[]).map((c) => [c.name, c] as const))("welchAt gives scipy's PSD in each bin it is asked for: %s", (_name, c) => {
+    const sig = fixture.signals[c.signal];
+    const x = Float64Array.from(sig.x);
+    const opts = { segmentLength: c.segmentLength, ...(c.overlap === null ? {} : { overlap: c.overlap }) };
+    const bound = fixture.tolerance.relativeToMaxPsd * Math.max(...c.psd);
+    c.freqsHz.forEach((f, k) => expect(Math.abs(welchAt(x, sig.sampleRateHz, f, opts) - c.psd[k])).toBeLessThanOrEqual(bound));
+    // Between bins it answers the nearest one, as the live metrics' raw side (psd[round(f/Δf)]) does.
+    const df = c.freqsHz[1] - c.freqsHz[0];
+    expect(welchAt(x, sig.sampleRateHz, 2.4 * df, opts)).toBe(welchAt(x, sig.sampleRateHz, 2 * df, opts));
   });
 
   it("defaults to nperseg = 256 and noverlap = 128 like scipy", () => {
