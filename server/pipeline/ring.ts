@@ -8,8 +8,14 @@ export class SampleRing {
     this.data = new Float64Array(capacity);
   }
 
-  push(values: ArrayLike<number>): void {
-    for (let i = 0; i < values.length; i++) this.data[(this.written + i) % this.capacity] = values[i];
+  /** Appends values (only the newest `capacity` are kept), copied in at most two runs. */
+  push(values: Float64Array): void {
+    const kept = values.length > this.capacity ? values.subarray(values.length - this.capacity) : values;
+    const skipped = values.length - kept.length;
+    const at = (this.written + skipped) % this.capacity;
+    const first = Math.min(kept.length, this.capacity - at);
+    this.data.set(kept.subarray(0, first), at);
+    this.data.set(kept.subarray(first), 0);
     this.written += values.length;
   }
 
@@ -18,8 +24,10 @@ export class SampleRing {
     const held = Math.min(this.written, this.capacity);
     const count = Math.max(0, Math.min(n, held - endOffset));
     const out = new Float64Array(count);
-    const start = this.written - endOffset - count;
-    for (let i = 0; i < count; i++) out[i] = this.data[(start + i) % this.capacity];
+    const at = (this.written - endOffset - count) % this.capacity;
+    const first = Math.min(count, this.capacity - at);
+    out.set(this.data.subarray(at, at + first), 0);
+    out.set(this.data.subarray(0, count - first), first);
     return out;
   }
 }

@@ -11,6 +11,7 @@
  * Then the partitioned set-up: CLUSTER_CHANNELS channels held by two sidecars (child processes, their
  * CPU read from /proc) on one Debian mosquitto (BENCH_MQTT_PORT, default 18950), the browser-like
  * client connected to both, each channel on the socket of its owner (from the leases).
+ * BENCH_CLUSTER_ONLY=1 runs the partitioned set-up alone.
  */
 import { fork, type ChildProcess } from "node:child_process";
 import { readFileSync } from "node:fs";
@@ -23,12 +24,12 @@ import WebSocket from "ws";
 import { createDb, type Db } from "@/db/client";
 import { createSession } from "@/db/queries/sessions";
 import { hashPassword } from "@/lib/auth/password";
-import { liveDesign } from "@/lib/dsp";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
 import { decodeFrame, encodeBinarySamples, samplesTopic, type ServerMessage } from "@/lib/protocol";
 import { channelOwners } from "@/db/queries/leases";
 import { migrateToLatest } from "@/migrations/migrator";
 import { mosquitto } from "../integration/sidecar-support";
+import { sharedDesigns } from "../integration/support/shared-designs";
 import { startSidecar } from "@/server/sidecar";
 import { systemClock } from "@/server/clock";
 
@@ -301,52 +302,54 @@ async function main(): Promise<void> {
       .returning(["id", "session_version"]).executeTakeFirstOrThrow();
     const sessionId = await createSession(db, user.id, 3600);
     const cookie = `${SESSION_COOKIE}=${await sealData({ userId: user.id, sessionVersion: user.session_version, sessionId }, { password: SECRET, ttl: 3600 })}`;
-    const quiet = { info: () => undefined, warn: (m: string) => console.error(m) };
-    const sidecar = await startSidecar({
-      db, clock: systemClock, logger: quiet, sessionSecret: SECRET, sessionTtlSeconds: 3600,
-      http: { host: "127.0.0.1", port: 0 },
-      mqtt: { mode: "embedded", host: "127.0.0.1", port: 0, requireDeviceAuth: false },
-      republishFiltered: false,
-      // The bench measures the stream, not design: one client adds every candidate at once, designed in-process.
-      design: async (spec) => liveDesign(spec),
-      ws: { messageRate: { perSecond: 1e6, burst: 1e6 } },
-    });
-    try {
-      const job = (n: number, seconds: number): LoadJob => ({
-        mqttUrl: sidecar.mqttUrl,
-        targets: [{ wsUrl: `ws://127.0.0.1:${sidecar.httpPort}/ws`, paths: paths.slice(0, n) }],
-        cookie,
-        seconds,
+    if (process.env.BENCH_CLUSTER_ONLY !== "1") {
+      const quiet = { info: () => undefined, warn: (m: string) => console.error(m) };
+      const sidecar = await startSidecar({
+        db, clock: systemClock, logger: quiet, sessionSecret: SECRET, sessionTtlSeconds: 3600,
+        http: { host: "127.0.0.1", port: 0 },
+        mqtt: { mode: "embedded", host: "127.0.0.1", port: 0, requireDeviceAuth: false },
+        republishFiltered: false,
+        // The bench measures the stream, not design: one client adds every candidate at once, designed in-process.
+        design: sharedDesigns(),
+        ws: { messageRate: { perSecond: 1e6, burst: 1e6 } },
       });
-      const main = await step(job(MAIN_CHANNELS, MAIN_SECONDS));
-      console.log(`${MAIN_CHANNELS} channels × ${FS} Hz × ${CANDIDATES_PER_CHANNEL} candidates:`, main);
-      let largestSustained = main.sustained ? MAIN_CHANNELS : 0;
-      const search = [];
-      for (let n = MAIN_CHANNELS + STEP; main.sustained && n <= MAX_CHANNELS; n += STEP) {
-        const r = await step(job(n, STEP_SECONDS));
-        console.log(`${n} channels:`, r);
-        search.push(r);
-        if (!r.sustained) break;
-        largestSustained = n;
+      try {
+        const job = (n: number, seconds: number): LoadJob => ({
+          mqttUrl: sidecar.mqttUrl,
+          targets: [{ wsUrl: `ws://127.0.0.1:${sidecar.httpPort}/ws`, paths: paths.slice(0, n) }],
+          cookie,
+          seconds,
+        });
+        const main = await step(job(MAIN_CHANNELS, MAIN_SECONDS));
+        console.log(`${MAIN_CHANNELS} channels × ${FS} Hz × ${CANDIDATES_PER_CHANNEL} candidates:`, main);
+        let largestSustained = main.sustained ? MAIN_CHANNELS : 0;
+        const search = [];
+        for (let n = MAIN_CHANNELS + STEP; main.sustained && n <= MAX_CHANNELS; n += STEP) {
+          const r = await step(job(n, STEP_SECONDS));
+          console.log(`${n} channels:`, r);
+          search.push(r);
+          if (!r.sustained) break;
+          largestSustained = n;
+        }
+        console.log(JSON.stringify({
+          bench: "pipeline",
+          sampleRateHz: FS,
+          candidatesPerChannel: CANDIDATES_PER_CHANNEL,
+          channels: MAIN_CHANNELS,
+          p50Ms: main.p50Ms,
+          p99Ms: main.p99Ms,
+          sidecarCpuShare: main.sidecarCpuShare,
+          sidecarLoopDelayP99Ms: main.sidecarLoopDelayP99Ms,
+          loadCpuShare: main.loadCpuShare,
+          droppedFrames: main.droppedFrames,
+          sampleCoverage: main.sampleCoverage,
+          largestSustainedChannels: largestSustained,
+          searchBound: MAX_CHANNELS,
+          search,
+        }));
+      } finally {
+        await sidecar.close();
       }
-      console.log(JSON.stringify({
-        bench: "pipeline",
-        sampleRateHz: FS,
-        candidatesPerChannel: CANDIDATES_PER_CHANNEL,
-        channels: MAIN_CHANNELS,
-        p50Ms: main.p50Ms,
-        p99Ms: main.p99Ms,
-        sidecarCpuShare: main.sidecarCpuShare,
-        sidecarLoopDelayP99Ms: main.sidecarLoopDelayP99Ms,
-        loadCpuShare: main.loadCpuShare,
-        droppedFrames: main.droppedFrames,
-        sampleCoverage: main.sampleCoverage,
-        largestSustainedChannels: largestSustained,
-        searchBound: MAX_CHANNELS,
-        search,
-      }));
-    } finally {
-      await sidecar.close();
     }
     const cluster = await clusterRun(db, url.toString(), cookie, paths);
     console.log(`${CLUSTER_CHANNELS} channels on ${CLUSTER_SIDECARS} sidecars and mosquitto:`, cluster);

@@ -6,11 +6,11 @@
  * With `bench` (npm run bench) it reports no batches and lets one client send candidates for every channel at once.
  */
 import { createDb } from "@/db/client";
-import { liveDesign } from "@/lib/dsp";
 import { startLeadership } from "@/server/cluster/leader";
 import { systemClock, type Logger } from "@/server/clock";
 import { startDeploymentWorker } from "@/server/deploy/worker";
 import { startSidecar } from "@/server/sidecar";
+import { sharedDesigns } from "./shared-designs";
 
 const [databaseUrl, mqttUrl, id, port, secret, mode] = process.argv.slice(2);
 const bench = mode === "bench";
@@ -25,7 +25,7 @@ const sidecar = await startSidecar({
   http: { host: "127.0.0.1", port: Number(port) },
   mqtt: { mode: "external", url: mqttUrl, backoffMs: { initial: 50, max: 500 } },
   republishFiltered: false,
-  design: async (spec) => liveDesign(spec),
+  design: sharedDesigns(),
   leases: { id, wsUrl: `ws://127.0.0.1:${port}/ws`, ttlMs: 5000, heartbeatMs: 1000 },
   ws: bench ? { messageRate: { perSecond: 1e6, burst: 1e6 } } : undefined,
 });
