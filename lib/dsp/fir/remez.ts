@@ -58,13 +58,22 @@ export function equirippleTaps(p: EquirippleParams): number[] {
 const ACHIEVED_SLACK = 1e-3;
 
 /**
+ * Absolute error, relative to max W·|D|, that no use of the taps can tell from the optimum: below
+ * float32's ε (2⁻²³ ≈ 1.2·10⁻⁷), the precision of the f32 layouts. A ripple this small is often not
+ * resolved by the exchange (reference points crowd together in a narrow band, e.g. 11 taps with a
+ * stopband 0.0104·fs wide: |δ| = 1.05·10⁻⁸, the taps reach 2·10⁻⁸, where scipy.signal.remez's taps reach
+ * 2.9·10⁻⁶).
+ */
+const INDISTINGUISHABLE = 2 ** -23;
+
+/**
  * The taps must reach the ripple the exchange found: W·|A − D| of the cosine series itself, on the grid,
- * within |δ|·(1 + ACHIEVED_SLACK) + 1e-9·max W·|D|. When transition bands are very wide for the number of
- * taps, the optimum swings to enormous values between the bands and the coefficients cannot be resolved
- * in double precision; that is refused.
+ * within |δ|·(1 + ACHIEVED_SLACK) + INDISTINGUISHABLE·max W·|D|. When transition bands are very wide for
+ * the number of taps, the optimum swings to enormous values between the bands and the coefficients
+ * cannot be resolved in double precision; that is refused.
  */
 function checkAchieved(problem: Problem, alpha: number[], level: number, taps: number): void {
-  const allowed = level * (1 + ACHIEVED_SLACK) + 1e-9 * weightedScale(problem);
+  const allowed = level * (1 + ACHIEVED_SLACK) + INDISTINGUISHABLE * weightedScale(problem);
   for (let i = 0; i < problem.freq.length; i++) {
     const e = problem.weight[i] * Math.abs(chebyshevSum(alpha, problem.x[i]) - problem.desired[i]);
     if (!(e <= allowed)) {
