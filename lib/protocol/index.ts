@@ -8,3 +8,4 @@ export * from "./ws";
 export * from "./overview";
 export * from "./merge-overviews";
 export * from "./alarms";
+export * from "./sidecar-url";

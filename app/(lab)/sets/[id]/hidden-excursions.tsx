@@ -2,12 +2,14 @@ import { Suspense } from "react";
 import { listAlarmRules } from "@/db/queries/alarm-rules";
 import { findChannelByPath } from "@/db/queries/channels";
 import { findActiveDeployment } from "@/db/queries/deployments";
+import { channelOwners } from "@/db/queries/leases";
 import { deployedDesign } from "@/lib/coefficients";
 import { findRecordingSamples, listRecordings } from "@/db/queries/recordings";
 import { db } from "@/db";
 import type { AlarmRule, FilterCheck } from "@/lib/alarms";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { env } from "@/lib/env";
+import { sidecarHttpUrl } from "@/lib/protocol";
 import { decodeSamples } from "@/lib/recordings/samples";
 import { computeForRequest } from "@/lib/workers";
 import { errorMessage } from "@/lib/errors";
@@ -16,10 +18,16 @@ import { countOf } from "@/lib/format/plural";
 /** How long the live service may take to hand over its recent samples, ms. */
 const SIDECAR_TIMEOUT_MS = 1_500;
 
-/** The raw samples the live service holds for a channel (about the last 60 s), or null when it cannot be reached. */
+/**
+ * The raw samples the live service holds for a channel (about the last 60 s), or null when it cannot be
+ * reached: asked of the sidecar that owns the channel when sidecars are partitioned (its lease), else of
+ * the one sidecar.
+ */
 async function recentSamples(path: string): Promise<{ samples: Float64Array; sampleRateHz: number } | null> {
   try {
-    const res = await fetch(`http://127.0.0.1:${env().SIDECAR_PORT}/recent?channel=${encodeURIComponent(path)}`, { cache: "no-store", signal: AbortSignal.timeout(SIDECAR_TIMEOUT_MS) });
+    const owner = (await channelOwners(db())).get(path);
+    const url = owner ? sidecarHttpUrl(owner.wsUrl, "/recent", { channel: path }) : `http://127.0.0.1:${env().SIDECAR_PORT}/recent?channel=${encodeURIComponent(path)}`;
+    const res = await fetch(url, { cache: "no-store", signal: AbortSignal.timeout(SIDECAR_TIMEOUT_MS) });
     if (!res.ok) return null;
     return { samples: decodeSamples(new Uint8Array(await res.arrayBuffer())), sampleRateHz: Number(res.headers.get("x-sample-rate-hz")) };
   } catch (err) {

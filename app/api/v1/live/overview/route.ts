@@ -1,7 +1,7 @@
 import { requireUser } from "@/app/_lib/auth";
 import { db } from "@/db";
 import { liveSidecars } from "@/db/queries/leases";
-import { liveOverviewSchema, mergeOverviews, type LiveOverview } from "@/lib/protocol";
+import { liveOverviewSchema, mergeOverviews, sidecarHttpUrl, type LiveOverview } from "@/lib/protocol";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { handler } from "@/lib/http/handler";
@@ -26,14 +26,6 @@ async function sidecarOverview(url: string): Promise<LiveOverview> {
   return parsed.data;
 }
 
-/** A partitioned sidecar's /overview, beside the WebSocket URL it advertises (ws → http, wss → https). */
-function overviewUrl(wsUrl: string): string {
-  const url = new URL(wsUrl);
-  url.protocol = url.protocol === "wss:" ? "https:" : "http:";
-  url.pathname = "/overview";
-  return url.toString();
-}
-
 /**
  * GET /api/v1/live/overview: online state, last sample, production revision, sparkline and faults of
  * every channel, from the one sidecar or merged from every live partitioned sidecar. Any signed-in role.
@@ -42,7 +34,7 @@ export const GET = handler(async () => {
   await requireUser();
   const e = env();
   const sidecars = await liveSidecars(db(), e.LEASE_TTL_MS);
-  const urls = sidecars.length ? sidecars.map((s) => overviewUrl(s.wsUrl)) : [`http://127.0.0.1:${e.SIDECAR_PORT}/overview`];
+  const urls = sidecars.length ? sidecars.map((s) => sidecarHttpUrl(s.wsUrl, "/overview")) : [`http://127.0.0.1:${e.SIDECAR_PORT}/overview`];
   // A sidecar that just died is listed until its heartbeat ages out: the others' channels still show.
   const answers = await Promise.allSettled(urls.map(sidecarOverview));
   const parts = answers.flatMap((a) => (a.status === "fulfilled" ? [a.value] : []));
