@@ -9,7 +9,7 @@ import { channelPathSql } from "./channels";
 import { enqueueMail, labAddresses } from "./mail";
 
 
-/** NOTIFY channel (payload: the event id) the sidecar listens on to push an acknowledgement to every browser. */
+/** NOTIFY channel (payload: the event id) every sidecar listens on to push a stored or acknowledged event to its browsers. */
 export const ALARM_EVENTS_CHANNEL = "tapwright_alarm_events";
 
 /** An event as the sidecar holds it: its whole current state, written again on every change (times in epoch ms). */
@@ -144,6 +144,8 @@ export async function storeAlarmEvents(db: Db, records: readonly AlarmEventRecor
         )
         .returning(sql<boolean>`xmax = 0`.as("inserted"))
         .executeTakeFirst();
+      // Every sidecar pushes it to its browsers, not only the one that raised it (partitioned sidecars).
+      if (written) await announceEvent(trx, r.id);
       if (written?.inserted && r.kind === "limit" && r.severity === "critical") {
         const event = await findAlarmEvent(trx, r.id);
         if (event) await enqueueMail(trx, await labAddresses(trx), alarmMail(event));
@@ -182,6 +184,11 @@ export async function acknowledgeAlarmEvent(trx: Transaction<Database>, actor: S
     entityId: id,
     after: { rule: event?.ruleName, channel: event?.channel, kind: event?.kind, state: event?.state, comment },
   });
-  await sql`select pg_notify(${ALARM_EVENTS_CHANNEL}, ${id})`.execute(trx);
+  await announceEvent(trx, id);
   return event;
+}
+
+/** Tells every sidecar (NOTIFY, delivered when the transaction commits) that an event changed, so each pushes it to its browsers. */
+async function announceEvent(trx: Db, id: string): Promise<void> {
+  await sql`select pg_notify(${ALARM_EVENTS_CHANNEL}, ${id})`.execute(trx);
 }

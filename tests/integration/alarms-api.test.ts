@@ -1,6 +1,7 @@
 import { randomUUID } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { storeAlarmEvents, type AlarmEventRecord } from "@/db/queries/alarm-events";
+import pg from "pg";
+import { ALARM_EVENTS_CHANNEL, storeAlarmEvents, type AlarmEventRecord } from "@/db/queries/alarm-events";
 import { actAs, jsonRequest, params, setUpLab, type Accounts } from "./sets-fixture";
 
 vi.mock("@/db", async () => (await import("./sets-fixture")).dbModule);
@@ -153,6 +154,25 @@ describe("alarm events API", () => {
     expect(mail[0].subject).toBe(`Critical alarm: Events rule on ${CHANNEL}`);
     expect(mail[0].body).toContain("above its high limit of 240 bar at 2026-12-03 10:00:00 UTC (251.5 bar when raised)");
     expect(mail[0].recipients).toContain("operator@tapwright.test");
+  });
+
+  it("tells every sidecar of each event it stores (NOTIFY with the id), so partitioned sidecars all push it", async () => {
+    const listener = new pg.Client({ connectionString: lab.url });
+    await listener.connect();
+    const heard: string[] = [];
+    listener.on("notification", (n) => n.channel === ALARM_EVENTS_CHANNEL && n.payload && heard.push(n.payload));
+    await listener.query(`LISTEN ${ALARM_EVENTS_CHANNEL}`);
+    try {
+      const raised = record({ severity: "warning" });
+      await storeAlarmEvents(lab.db, [raised]);
+      await vi.waitFor(() => expect(heard).toContain(raised.id), { timeout: 5000 });
+      const before = heard.length;
+      await storeAlarmEvents(lab.db, [{ ...raised, state: "cleared", clearedAt: raised.raisedAt + 1000 }]);
+      await vi.waitFor(() => expect(heard.length).toBe(before + 1), { timeout: 5000 });
+      expect(heard.at(-1)).toBe(raised.id);
+    } finally {
+      await listener.end();
+    }
   });
 
   it("lets an operator acknowledge with a comment, once, audited", async () => {
