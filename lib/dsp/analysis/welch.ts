@@ -48,7 +48,8 @@ function planFor(nperseg: number): SegmentPlan {
   if (!plan) {
     const window = periodicHann(nperseg);
     plan = { window, windowPower: window.reduce((s, w) => s + w * w, 0), dft: makeRealDft(nperseg) };
-    if (plans.size >= PLANS_KEPT) plans.delete(plans.keys().next().value!);
+    const oldest = plans.keys().next();
+    if (plans.size >= PLANS_KEPT && !oldest.done) plans.delete(oldest.value);
     plans.set(nperseg, plan);
   }
   return plan;
