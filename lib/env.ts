@@ -31,6 +31,8 @@ const envSchema = z.object({
   WS_MESSAGES_PER_SECOND: z.coerce.number().min(0.1).max(10_000).default(20),
   WS_MESSAGE_BURST: z.coerce.number().int().min(1).max(100_000).default(40),
   WS_CONNECTIONS_PER_USER: z.coerce.number().int().min(1).max(1000).default(8),
+  /** Candidates whose live metrics a sidecar computes per second (default: the hub's METRICS_PER_SECOND); past it each refreshes less often than once a second. */
+  LIVE_METRICS_PER_SECOND: z.coerce.number().int().min(1).max(100_000).optional(),
   REQUIRE_DEVICE_AUTH: z.enum(["0", "1"]).default("1"),
   MQTT_CA_FILE: z.string().optional(),
   /** Set to partition channels across sidecars on one external broker (MQTT_URL): this sidecar's unique key. */

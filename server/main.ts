@@ -84,6 +84,7 @@ sidecar = await startSidecar({
   ws: {
     messageRate: { perSecond: e.WS_MESSAGES_PER_SECOND, burst: e.WS_MESSAGE_BURST },
     maxConnectionsPerUser: e.WS_CONNECTIONS_PER_USER,
+    metricsPerSecond: e.LIVE_METRICS_PER_SECOND,
   },
   mqtt: e.MQTT_URL
     ? {

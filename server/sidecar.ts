@@ -45,8 +45,8 @@ export interface SidecarOptions {
   http: { host: string; port: number; allowedOrigins?: string[] };
   /** Designs candidates' specs off the event loop (the design threads, with their time limit); `owner` is the connection. */
   design: (spec: FilterSpec, owner: string) => Promise<LiveDesign>;
-  /** Per WebSocket connection: messages per second and burst; per user: open connections. */
-  ws?: { messageRate?: { perSecond: number; burst: number }; maxConnectionsPerUser?: number };
+  /** Per WebSocket connection: messages per second and burst; per user: open connections; per sidecar: candidate metrics per second. */
+  ws?: { messageRate?: { perSecond: number; burst: number }; maxConnectionsPerUser?: number; metricsPerSecond?: number };
   mqtt: MqttSetup;
   republishFiltered: boolean;
   /**
@@ -153,6 +153,7 @@ export async function startSidecar(opts: SidecarOptions): Promise<Sidecar> {
     design: opts.design,
     serves: opts.leases ? (path) => leases?.owns(path) ?? false : undefined,
     messageRate: opts.ws?.messageRate,
+    metricsPerSecond: opts.ws?.metricsPerSecond,
     maxBufferedBytes: opts.maxBufferedBytes,
   });
   bus.onState((state) => {

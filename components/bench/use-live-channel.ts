@@ -5,7 +5,7 @@ import { useEffect, useMemo, useRef, useState } from "react";
 import { reconnectDelayMs } from "@/lib/bench/backoff";
 import { HISTORY_SECONDS, LiveStore } from "@/lib/bench/live-store";
 import { productionQueryKey } from "./api";
-import { decodeFrame, parseServerMessage, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
+import { decodeFrames, parseServerMessage, SESSION_ENDED, type CandidateMetrics, type ClientMessage, type ServerMessage } from "@/lib/protocol";
 import { useLatest } from "@/components/hooks/use-latest";
 
 export type LinkState = "connecting" | "live" | "reconnecting" | "signed-out";
@@ -135,8 +135,9 @@ export function useLiveChannel(opts: Options): LiveChannel {
       ws.binaryType = "arraybuffer";
       ws.onmessage = (ev) => {
         if (ev.data instanceof ArrayBuffer) {
-          const decoded = decodeFrame(new Uint8Array(ev.data));
-          if (decoded.ok) handle(decoded.frame);
+          const decoded = decodeFrames(new Uint8Array(ev.data));
+          if (decoded.ok) for (const frame of decoded.frames) handle(frame);
+          else console.warn(`[live] a binary message was refused: ${decoded.reason}`);
           return;
         }
         const message = typeof ev.data === "string" ? parseServerMessage(ev.data) : null;

@@ -1,8 +1,9 @@
 import { isChannelPath } from "./topics";
 
 /**
- * Frame v2: new samples of one channel as one binary WebSocket message, little-endian (the layout
- * table is in docs/scale-out.md). Control messages stay JSON text; only frames are binary.
+ * Frame v2: new samples of one channel, little-endian (the layout table is in docs/scale-out.md).
+ * A binary WebSocket message carries one or more frames back to back (protocol 3: a frame's length
+ * follows from its header, frameLength). Control messages stay JSON text; only frames are binary.
  *
  *   0  u8   magic 0x46 ("F")        20 u32 bytes of the names block
  *   1  u8   version 2               24 f64 t0 (ms, time of the first sample)
@@ -82,6 +83,45 @@ export function encodeFrame(frame: FrameMessage<ArrayLike<number>>): Uint8Array 
 }
 
 export type FrameDecodeResult = { ok: true; frame: FrameMessage } | { ok: false; reason: string };
+
+/** Bytes of the frame that starts at `at` (its header read), or null when not even a header is left. */
+function frameLength(view: DataView, at: number): number | null {
+  if (view.byteLength - at < FRAME_HEADER_BYTES) return null;
+  const traceCount = view.getUint8(at + 3);
+  const points = view.getUint32(at + 16, true);
+  const namesBytes = view.getUint32(at + 20, true);
+  return FRAME_HEADER_BYTES + padded(namesBytes) + 4 * points * (1 + traceCount);
+}
+
+/** Several encoded frames as one binary message (protocol 3), in order. */
+export function bundleFrames(frames: readonly Uint8Array[]): Uint8Array {
+  if (frames.length === 1) return frames[0];
+  const out = new Uint8Array(frames.reduce((n, f) => n + f.byteLength, 0));
+  let at = 0;
+  for (const f of frames) {
+    out.set(f, at);
+    at += f.byteLength;
+  }
+  return out;
+}
+
+export type FramesDecodeResult = { ok: true; frames: FrameMessage[] } | { ok: false; reason: string };
+
+/** Reads a binary message of one or more frames back to back; the first bad one refuses the whole message, with its position. */
+export function decodeFrames(bytes: Uint8Array): FramesDecodeResult {
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const frames: FrameMessage[] = [];
+  for (let at = 0; at < bytes.byteLength; ) {
+    const length = frameLength(view, at);
+    if (length === null || at + length > bytes.byteLength) return { ok: false, reason: `frame ${frames.length + 1}: shorter than its header says` };
+    const decoded = decodeFrame(bytes.subarray(at, at + length));
+    if (!decoded.ok) return { ok: false, reason: `frame ${frames.length + 1}: ${decoded.reason}` };
+    frames.push(decoded.frame);
+    at += length;
+  }
+  if (!frames.length) return { ok: false, reason: "an empty message" };
+  return { ok: true, frames };
+}
 
 function readNames(bytes: Uint8Array, length: number): string[] | null {
   try {

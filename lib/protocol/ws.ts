@@ -5,8 +5,8 @@ import { FAULT_KINDS } from "./faults";
 import type { FrameMessage } from "./frames";
 import { channelPathSchema } from "./topics";
 
-/** WebSocket protocol version; the server says it in its hello message. 2: frames are binary (lib/protocol/frames.ts). */
-export const WS_PROTOCOL_VERSION = 2;
+/** WebSocket protocol version; the server says it in its hello message. 2: frames are binary; 3: a binary message carries one or more frames (lib/protocol/frames.ts). */
+export const WS_PROTOCOL_VERSION = 3;
 
 export const MAX_CANDIDATES_PER_CLIENT = 6;
 export const MAX_WINDOW_SECONDS = 60;

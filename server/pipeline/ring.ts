@@ -8,14 +8,14 @@ export class SampleRing {
     this.data = new Float64Array(capacity);
   }
 
-  /** Appends values (only the newest `capacity` are kept), copied in at most two runs. */
+  /** Appends values (only the newest `capacity` are kept), copied by index: short batches are the rule, and typed-array views would cost more than the copy. */
   push(values: Float64Array): void {
-    const kept = values.length > this.capacity ? values.subarray(values.length - this.capacity) : values;
-    const skipped = values.length - kept.length;
-    const at = (this.written + skipped) % this.capacity;
-    const first = Math.min(kept.length, this.capacity - at);
-    this.data.set(kept.subarray(0, first), at);
-    this.data.set(kept.subarray(first), 0);
+    const skipped = Math.max(0, values.length - this.capacity);
+    let at = (this.written + skipped) % this.capacity;
+    for (let i = skipped; i < values.length; i++) {
+      this.data[at] = values[i];
+      if (++at === this.capacity) at = 0;
+    }
     this.written += values.length;
   }
 
@@ -24,10 +24,11 @@ export class SampleRing {
     const held = Math.min(this.written, this.capacity);
     const count = Math.max(0, Math.min(n, held - endOffset));
     const out = new Float64Array(count);
-    const at = (this.written - endOffset - count) % this.capacity;
-    const first = Math.min(count, this.capacity - at);
-    out.set(this.data.subarray(at, at + first), 0);
-    out.set(this.data.subarray(0, count - first), first);
+    let at = (this.written - endOffset - count) % this.capacity;
+    for (let i = 0; i < count; i++) {
+      out[i] = this.data[at];
+      if (++at === this.capacity) at = 0;
+    }
     return out;
   }
 }

@@ -4,6 +4,7 @@ import { roleAtLeast, type Role } from "@/lib/auth/roles";
 import type { SessionData } from "@/lib/auth/session-config";
 import { AppError, errorMessage } from "@/lib/errors";
 import {
+  bundleFrames,
   clientMessageSchema,
   encodeFrame,
   MAX_CANDIDATES_PER_CLIENT,
@@ -53,6 +54,8 @@ interface ClientState {
   candidates: Map<string, Set<string>>;
   /** The noise line this client's metrics judge per channel (Hz), when it chose one. */
   noiseLines: Map<string, number>;
+  /** When this client's metrics of a channel were last sent (the clock's ms). */
+  metricsSentAt: Map<string, number>;
   /** Candidates being designed (`<path>|<id>` → the add that started it); counted against the limits. */
   designing: Map<string, symbol>;
   messages: TokenBucket;
@@ -74,10 +77,13 @@ export interface HubOptions {
   messageRate?: { perSecond: number; burst: number };
   /** Partitioned: whether this sidecar filters the channel now; a subscriber of another's channel is told it moved. */
   serves?: (path: string) => boolean;
-  /** A client with more than this many bytes queued loses frames until it catches up. */
+  /** A client with more than this many bytes queued (or BUFFERED_TICKS of its stream, when more) loses frames until it catches up. */
   maxBufferedBytes?: number;
   frameIntervalMs?: number;
+  /** How often a client's metrics of a channel are refreshed, at most (default 1,000 ms). */
   metricsIntervalMs?: number;
+  /** Candidates whose metrics this sidecar computes per second, at most (default METRICS_PER_SECOND); beyond it they refresh in turn, less often. */
+  metricsPerSecond?: number;
   statusIntervalMs?: number;
 }
 
@@ -88,8 +94,12 @@ export interface Hub {
   message(id: string, text: string): void;
   /** Sends new samples of every channel to its subscribers (driven by the frame timer). */
   tick(): void;
-  /** Sends metrics for the channels in one slice (channel index mod slices); no arguments: all of them. */
-  metricsTick(slice?: number, slices?: number): void;
+  /**
+   * Sends the metrics that are due (not sent for metricsIntervalMs) in turn, within the budget of
+   * `candidates` candidate metrics (default: metricsPerSecond's share of one frame interval, carried
+   * over between ticks); driven by the frame timer.
+   */
+  metricsTick(candidates?: number): void;
   statusTick(): void;
   /** Tells the channel's subscribers it moved to another sidecar. */
   moved(path: string): void;
@@ -108,6 +118,12 @@ export interface Hub {
   stop(): void;
   readonly clientCount: number;
 }
+
+/** Default budget of live metrics: candidates per second per sidecar (each costs about 0.2 ms: two Welch estimates and a 4,096-point correlation). */
+export const METRICS_PER_SECOND = 256;
+
+/** Frame ticks of a client's own stream that may wait in its socket before it loses frames (about a quarter of a second). */
+const BUFFERED_TICKS = 8;
 
 /** Least role per client message: watching is for everyone signed in, trying filters for engineers. */
 const REQUIRED_ROLE: Record<ClientMessage["type"], Role> = {
@@ -138,8 +154,9 @@ function designRefusal(err: unknown): unknown {
 
 /**
  * Fans the pipeline out to WebSocket clients. Each tick drains every channel once; clients that
- * share a view (same trace set and bucket size) get one binary frame encoded once. A client whose
- * socket is backed up loses frames (counted, reported in its status), never slowing the others.
+ * share a view (same trace set and bucket size) share its frames, encoded once, and each client gets
+ * the tick's frames of all its channels in one binary message. A client whose socket is backed up
+ * loses frames (counted, reported in its status), never slowing the others.
  */
 export function createHub(opts: HubOptions): Hub {
   const maxBuffered = opts.maxBufferedBytes ?? 1 << 20;
@@ -148,6 +165,12 @@ export function createHub(opts: HubOptions): Hub {
   const views = new Map<string, ViewState>();
   const timers: Timer[] = [];
   let recheck: Promise<void> | null = null;
+  const frameMs = opts.frameIntervalMs ?? 33;
+  const metricsIntervalMs = opts.metricsIntervalMs ?? 1000;
+  /** Candidate metrics one frame tick may compute: the per-second budget's share. */
+  const metricsPerTick = ((opts.metricsPerSecond ?? METRICS_PER_SECOND) * frameMs) / 1000;
+  let metricsBudget = 0;
+  let metricsCursor = 0;
 
   function send(state: ClientState, message: ControlMessage): void {
     state.conn.send(JSON.stringify(message));
@@ -192,6 +215,7 @@ export function createHub(opts: HubOptions): Hub {
         return;
       case "unsubscribe":
         state.subs.delete(msg.channel);
+        state.metricsSentAt.delete(msg.channel);
         return;
       case "window": {
         const sub = state.subs.get(msg.channel);
@@ -293,7 +317,8 @@ export function createHub(opts: HubOptions): Hub {
     for (const state of clients.values()) if (state.subs.has(channel)) state.conn.send(text);
   }
 
-  function sendFrames(path: string, blocks: PendingBlock[]): void {
+  /** Encodes the channel's new frames once per view and adds them to each subscriber's list for this tick. */
+  function queueFrames(path: string, blocks: PendingBlock[], outbox: Map<ClientState, Uint8Array[]>): void {
     const encoded = new Map<ViewState, Uint8Array[]>();
     for (const state of clients.values()) {
       const sub = state.subs.get(path);
@@ -301,11 +326,9 @@ export function createHub(opts: HubOptions): Hub {
       const view = viewFor(state, path, sub);
       let out = encoded.get(view);
       if (!out) encoded.set(view, (out = buildFrames(view, blocks).map(encodeFrame)));
-      if (state.conn.bufferedAmount() > maxBuffered) {
-        state.droppedFrames += out.length;
-        continue;
-      }
-      for (const bytes of out) state.conn.send(bytes);
+      const queued = outbox.get(state);
+      if (queued) queued.push(...out);
+      else outbox.set(state, [...out]);
     }
   }
 
@@ -351,6 +374,7 @@ export function createHub(opts: HubOptions): Hub {
         droppedFrames: 0,
         candidates: new Map(),
         noiseLines: new Map(),
+        metricsSentAt: new Map(),
         designing: new Map(),
         messages: tokenBucket(rate.perSecond, rate.burst, opts.clock.now()),
         refusedInARow: 0,
@@ -387,18 +411,39 @@ export function createHub(opts: HubOptions): Hub {
       }
     },
     tick() {
+      const outbox = new Map<ClientState, Uint8Array[]>();
       for (const path of opts.pipeline.paths()) {
         const blocks = opts.pipeline.drain(path);
-        if (blocks.length) sendFrames(path, blocks);
+        if (blocks.length) queueFrames(path, blocks, outbox);
+      }
+      // One binary message per client and tick, whatever the number of its channels: one socket write.
+      // A client may have maxBufferedBytes queued, or BUFFERED_TICKS of its own stream when that is more
+      // (one watching hundreds of channels sends more than a megabyte a tick).
+      for (const [state, frames] of outbox) {
+        if (!frames.length) continue;
+        const message = bundleFrames(frames);
+        if (state.conn.bufferedAmount() > Math.max(maxBuffered, BUFFERED_TICKS * message.byteLength)) {
+          state.droppedFrames += frames.length;
+          continue;
+        }
+        state.conn.send(message);
       }
     },
-    metricsTick(slice = 0, slices = 1) {
-      const paths = opts.pipeline.paths();
-      for (const state of clients.values()) {
-        for (const [path, ids] of state.candidates) {
-          if (!ids.size || !state.subs.has(path) || paths.indexOf(path) % slices !== slice) continue;
-          send(state, { type: "metrics", channel: path, candidates: opts.pipeline.metrics(path, state.conn.id, state.noiseLines.get(path)) });
-        }
+    metricsTick(candidates) {
+      const due = opts.clock.now() - metricsIntervalMs;
+      const pairs = [...clients.values()].flatMap((state) =>
+        [...state.candidates].filter(([path, ids]) => ids.size > 0 && state.subs.has(path)).map(([path, ids]) => ({ state, path, count: ids.size })),
+      );
+      metricsBudget = Math.min(metricsBudget + (candidates ?? metricsPerTick), Math.max(metricsPerTick, MAX_CANDIDATES_PER_CLIENT));
+      // In turn from where the last tick stopped, so every channel gets its share when the budget is short.
+      const start = metricsCursor;
+      for (let k = 0; k < pairs.length && metricsBudget >= 1; k++) {
+        const { state, path, count } = pairs[(start + k) % pairs.length];
+        if ((state.metricsSentAt.get(path) ?? -Infinity) > due) continue;
+        metricsBudget -= count;
+        metricsCursor = (start + k + 1) % pairs.length;
+        state.metricsSentAt.set(path, opts.clock.now());
+        send(state, { type: "metrics", channel: path, candidates: opts.pipeline.metrics(path, state.conn.id, state.noiseLines.get(path)) });
       }
     },
     statusTick() {
@@ -426,15 +471,12 @@ export function createHub(opts: HubOptions): Hub {
       return recheck;
     },
     start() {
-      // Metrics are spread over the frame ticks (channel i on tick i mod slices), so each channel's
-      // come about every metricsIntervalMs without one long pause of the event loop.
-      const frameMs = opts.frameIntervalMs ?? 33;
-      const slices = Math.max(1, Math.round((opts.metricsIntervalMs ?? 1000) / frameMs));
-      let tickCount = 0;
+      // Metrics are spread over the frame ticks within their budget, so the event loop never pauses
+      // for all of them at once and the frames keep their pace however many candidates there are.
       timers.push(
         opts.clock.setInterval(() => {
           guarded("frame", hub.tick);
-          guarded("metrics", () => hub.metricsTick(tickCount++ % slices, slices));
+          guarded("metrics", () => hub.metricsTick());
         }, frameMs),
       );
       timers.push(

@@ -1,7 +1,7 @@
 /**
  * Live pipeline bench: device publish → embedded broker → ingest → filters → WebSocket frame.
- * Run: `node --import tsx tests/bench/pipeline.bench.ts` (or `npx tsx ...`) with DATABASE_URL or
- * TEST_DATABASE_URL pointing at a PostgreSQL cluster; it creates and drops its own database.
+ * Run: `node --import tsx tests/bench/pipeline.bench.ts` with TEST_DATABASE_URL or MIGRATION_DATABASE_URL
+ * (tests/bench/run.sh exports the latter): a role that may create databases; it creates and drops its own.
  *
  * The sidecar runs in this process (its CPU share comes from process.cpuUsage); devices and the
  * browser-like WebSocket client run in a child process so they are not counted. Latency is from
@@ -25,7 +25,7 @@ import { createDb, type Db } from "@/db/client";
 import { createSession } from "@/db/queries/sessions";
 import { hashPassword } from "@/lib/auth/password";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
-import { decodeFrame, encodeBinarySamples, samplesTopic, type ServerMessage } from "@/lib/protocol";
+import { decodeFrames, encodeBinarySamples, samplesTopic, type ServerMessage } from "@/lib/protocol";
 import { channelOwners } from "@/db/queries/leases";
 import { migrateToLatest } from "@/migrations/migrator";
 import { mosquitto } from "../integration/sidecar-support";
@@ -88,8 +88,13 @@ async function openLoadSocket(
   const ws = new WebSocket(target.wsUrl, { headers: { cookie } });
   let barrier: (() => void) | undefined;
   ws.on("message", (data, isBinary) => {
-    const decoded = isBinary ? decodeFrame(new Uint8Array(data as Buffer)) : null;
-    const m = decoded?.ok ? decoded.frame : (JSON.parse(data.toString()) as ServerMessage);
+    if (isBinary) {
+      const decoded = decodeFrames(new Uint8Array(data as Buffer));
+      if (!decoded.ok) throw new Error(`bad frame: ${decoded.reason}`);
+      for (const frame of decoded.frames) onMessage(frame);
+      return;
+    }
+    const m = JSON.parse(data.toString()) as ServerMessage;
     if (m.type === "error" && m.code === "unknown_channel") barrier?.();
     else onMessage(m);
   });
@@ -275,8 +280,8 @@ async function clusterRun(db: Db, dbUrl: string, cookie: string, paths: string[]
 }
 
 async function main(): Promise<void> {
-  const base = process.env.TEST_DATABASE_URL ?? process.env.DATABASE_URL;
-  if (!base) throw new Error("set DATABASE_URL or TEST_DATABASE_URL to a PostgreSQL cluster");
+  const base = process.env.TEST_DATABASE_URL ?? process.env.MIGRATION_DATABASE_URL;
+  if (!base) throw new Error("set TEST_DATABASE_URL or MIGRATION_DATABASE_URL to a PostgreSQL role that may create databases");
   const name = `tw_pipeline_bench_${process.pid}`;
   const admin = new pg.Client({ connectionString: base });
   await admin.connect();

@@ -13,7 +13,7 @@ import { liveDesign } from "@/lib/dsp";
 import { seedDemo } from "@/db/seed";
 import { seedDemoDeviceCredentials } from "@/db/seed-device-credentials";
 import { SESSION_COOKIE } from "@/lib/auth/session-config";
-import { configTopic, decodeFrame, deviceConfigSchema, type DeviceConfig, type ServerMessage } from "@/lib/protocol";
+import { configTopic, decodeFrames, deviceConfigSchema, type DeviceConfig, type ServerMessage } from "@/lib/protocol";
 import { systemClock, type Logger } from "@/server/clock";
 import { startSidecar, type Sidecar, type SidecarOptions } from "@/server/sidecar";
 import { freshDb } from "./support/fresh-db";
@@ -93,9 +93,9 @@ export function openSocket(port: number, cookie?: string): Promise<TestSocket> {
     let seen = 0;
     ws.on("message", (data, isBinary) => {
       if (!isBinary) return messages.push(JSON.parse(data.toString()) as ServerMessage);
-      const decoded = decodeFrame(new Uint8Array(data as Buffer));
+      const decoded = decodeFrames(new Uint8Array(data as Buffer));
       if (!decoded.ok) throw new Error(`bad frame: ${decoded.reason}`);
-      messages.push(decoded.frame);
+      messages.push(...decoded.frames);
     });
     ws.on("unexpected-response", (_req, res) => reject(new Error(`HTTP ${res.statusCode}`)));
     ws.on("error", reject);

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { decodeFrame, encodeFrame, FRAME_HEADER_BYTES, type FrameMessage } from "@/lib/protocol";
+import { bundleFrames, decodeFrame, decodeFrames, encodeFrame, FRAME_HEADER_BYTES, type FrameMessage } from "@/lib/protocol";
 
 const frame: FrameMessage<number[]> = {
   type: "frame",
@@ -89,5 +89,42 @@ describe("binary frames (protocol 2)", () => {
     expect(() => encodeFrame({ ...frame, channel: "a/b" })).toThrow(/channel path/);
     expect(() => encodeFrame({ ...frame, traces: { "has space": [1, 2, 3] } })).toThrow(/trace id/);
     expect(() => encodeFrame({ ...frame, traces: { production: [1] } })).toThrow(/1 points, raw has 3/);
+  });
+});
+
+describe("several frames in one binary message (protocol 3)", () => {
+  const second: FrameMessage<number[]> = { ...frame, channel: "hydraulic-press/env-node/frame-strain", seq: 7, raw: [4], traces: {}, samples: 1 };
+  const third: FrameMessage<number[]> = { ...frame, raw: [1, 2, 3, 4, 5, 6], traces: { a: [6, 5, 4, 3, 2, 1] }, samples: 60, decimated: true, bucketSamples: 20 };
+
+  it("reads back every frame in order, each as decodeFrame reads it alone", () => {
+    const parts = [frame, second, third].map(encodeFrame);
+    const result = decodeFrames(bundleFrames(parts));
+    if (!result.ok) throw new Error(result.reason);
+    expect(result.frames).toEqual(parts.map(decoded));
+    expect(result.frames.map((f) => f.channel)).toEqual([frame.channel, second.channel, third.channel]);
+  });
+
+  it("reads a message of one frame, and sends a single frame as it is", () => {
+    const one = encodeFrame(frame);
+    expect(bundleFrames([one])).toBe(one);
+    const result = decodeFrames(one);
+    expect(result.ok && result.frames.length).toBe(1);
+  });
+
+  it("refuses the whole message when any frame in it is bad, naming which", () => {
+    const [a, b] = [encodeFrame(frame), encodeFrame(second)];
+    const badSecond = b.slice();
+    badSecond[1] = 1; // version 1
+    const cases: Array<[string, Uint8Array, RegExp]> = [
+      ["empty", new Uint8Array(0), /empty/],
+      ["second frame truncated", bundleFrames([a, b.slice(0, b.byteLength - 2)]), /frame 2: shorter/],
+      ["trailing bytes shorter than a header", bundleFrames([a, new Uint8Array(5)]), /frame 2: shorter/],
+      ["second frame of another version", bundleFrames([a, badSecond]), /frame 2: frame version 1/],
+    ];
+    for (const [what, bytes, reason] of cases) {
+      const result = decodeFrames(bytes);
+      expect(result.ok, what).toBe(false);
+      if (!result.ok) expect(result.reason, what).toMatch(reason);
+    }
   });
 });
