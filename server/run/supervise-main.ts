@@ -1,5 +1,6 @@
 import { supervise } from "./supervisor";
 import { errorMessage } from "@/lib/errors";
+import { SIDECAR_NODE_FLAGS } from "./sidecar-flags";
 
 /**
  * `npm start`'s process keeper: the web app, the mail catcher and the sidecar, each restarted with a
@@ -11,7 +12,7 @@ const supervisor = supervise([
   // The web app behind server/run/web.ts, which gives the app the socket's real peer address.
   { name: "web", command: process.execPath, args: [...tsx, "server/run/web.ts"], env: { NODE_ENV: "production", HOST: "127.0.0.1", PORT: port } },
   { name: "mail", command: process.execPath, args: [...tsx, "server/mail/fake-smtp-main.ts"] },
-  { name: "sidecar", command: process.execPath, args: [...tsx, "server/main.ts"] },
+  { name: "sidecar", command: process.execPath, args: [...SIDECAR_NODE_FLAGS, ...tsx, "server/main.ts"] },
 ]);
 
 let stopping = false;

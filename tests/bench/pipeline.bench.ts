@@ -13,7 +13,7 @@
  * client connected to both, each channel on the socket of its owner (from the leases).
  * BENCH_CLUSTER_ONLY=1 runs the partitioned set-up alone.
  */
-import { fork, type ChildProcess } from "node:child_process";
+import { fork, spawn, type ChildProcess } from "node:child_process";
 import { readFileSync } from "node:fs";
 import { monitorEventLoopDelay } from "node:perf_hooks";
 import { fileURLToPath } from "node:url";
@@ -32,6 +32,7 @@ import { mosquitto } from "../integration/sidecar-support";
 import { sharedDesigns } from "../integration/support/shared-designs";
 import { startSidecar } from "@/server/sidecar";
 import { systemClock } from "@/server/clock";
+import { SIDECAR_NODE_FLAGS } from "@/server/run/sidecar-flags";
 
 const FS = 2000;
 const BATCH = 40; // 20 ms of samples per message
@@ -243,7 +244,7 @@ async function step(job: LoadJob, cpuMs: () => number = ownCpuMs) {
 /** A partitioned sidecar as its own process (the lease tests' runner, in bench mode); resolves when it serves. */
 function startLeaseSidecar(dbUrl: string, mqttUrl: string, id: string, port: number): Promise<ChildProcess> {
   const entry = fileURLToPath(new URL("../integration/support/lease-sidecar.ts", import.meta.url));
-  const child = fork(entry, [dbUrl, mqttUrl, id, String(port), SECRET, "bench"], { execArgv: ["--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
+  const child = fork(entry, [dbUrl, mqttUrl, id, String(port), SECRET, "bench"], { execArgv: [...SIDECAR_NODE_FLAGS, "--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
   return new Promise((resolve, reject) => {
     child.on("message", (m: { type: string }) => m.type === "ready" && resolve(child));
     child.once("exit", (code) => reject(new Error(`sidecar ${id} exited with ${code}`)));
@@ -376,6 +377,10 @@ if (process.argv.includes("--load")) {
       },
     );
   });
+} else if (!SIDECAR_NODE_FLAGS.every((flag) => process.execArgv.includes(flag))) {
+  // The single sidecar runs in this process: run it with the Node flags npm start gives the sidecar.
+  const again = spawn(process.execPath, [...SIDECAR_NODE_FLAGS, ...process.execArgv, fileURLToPath(import.meta.url)], { stdio: "inherit" });
+  again.on("exit", (code) => process.exit(code ?? 1));
 } else {
   await main();
 }
