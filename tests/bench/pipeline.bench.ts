@@ -199,21 +199,28 @@ const childrenCpuMs = (pids: number[]) => (): number =>
     return sum + (Number(fields[11]) + Number(fields[12])) * 10;
   }, 0);
 
-/** One measured run; `cpuMs` reads the sidecars' CPU time (this process's when the sidecar runs here, then its event loop delay is read too). */
-async function step(job: LoadJob, cpuMs: () => number = ownCpuMs) {
+/**
+ * One measured run; `cpuMs` reads the sidecars' CPU time (this process's when the sidecar runs here,
+ * then its event loop delay is read too), `brokerCpuMs` an external broker's.
+ */
+async function step(job: LoadJob, cpuMs: () => number = ownCpuMs, brokerCpuMs?: () => number) {
   const child = fork(fileURLToPath(import.meta.url), ["--load"], { execArgv: ["--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
   let cpuStart = cpuMs();
+  let brokerStart = brokerCpuMs?.() ?? 0;
   let wallStart = performance.now();
   let cpuShare = Number.NaN;
+  let brokerCpuShare: number | null = null;
   const loopDelay = monitorEventLoopDelay({ resolution: 5 });
   const result = await new Promise<LoadResult>((resolve, reject) => {
     child.on("message", (m: { type: string; result?: LoadResult }) => {
       if (m.type === "measuring") {
         cpuStart = cpuMs();
+        brokerStart = brokerCpuMs?.() ?? 0;
         wallStart = performance.now();
         loopDelay.enable();
       } else if (m.type === "stopped") {
         cpuShare = (cpuMs() - cpuStart) / (performance.now() - wallStart);
+        if (brokerCpuMs) brokerCpuShare = Number(((brokerCpuMs() - brokerStart) / (performance.now() - wallStart)).toFixed(3));
         loopDelay.disable();
       } else if (m.type === "result" && m.result) {
         resolve(m.result);
@@ -235,6 +242,7 @@ async function step(job: LoadJob, cpuMs: () => number = ownCpuMs) {
     sidecarCpuPerChannel: Number((cpuShare / job.targets.reduce((n, t) => n + t.paths.length, 0)).toFixed(5)),
     sidecarLoopDelayP99Ms: cpuMs === ownCpuMs ? Number((loopDelay.percentile(99) / 1e6).toFixed(1)) : null,
     loadCpuShare: Number(result.loadCpuShare.toFixed(3)),
+    brokerCpuShare,
     droppedFrames: result.droppedFrames,
     sampleCoverage: Number(coverage.toFixed(4)),
     sustained: p99 < P99_LIMIT_MS && result.droppedFrames === 0 && coverage > 0.99,
@@ -273,7 +281,7 @@ async function clusterRun(db: Db, dbUrl: string, cookie: string, paths: string[]
       // Every stride-th channel, so a smaller run still spreads over both halves of the lab.
       paths: paths.filter((path, i) => i % stride === 0 && owners.get(path)?.sidecarId === id),
     }));
-    return await step({ mqttUrl: broker.url, targets, cookie, seconds: MAIN_SECONDS }, childrenCpuMs(children.map((c) => c.pid ?? 0)));
+    return await step({ mqttUrl: broker.url, targets, cookie, seconds: MAIN_SECONDS }, childrenCpuMs(children.map((c) => c.pid ?? 0)), childrenCpuMs([broker.pid() ?? 0]));
   } finally {
     for (const child of children) child.kill("SIGKILL");
     await broker.stop();

@@ -4,7 +4,8 @@
  * web server's resident memory after the warm-up and after each round), then an engineer
  * posts the largest design the limits allow while /api/health is polled every 25 ms (how long health
  * takes while the design runs on a design thread). Targets: p99 < 100 ms with no errors, memory flat,
- * health within 100 ms. Starts its own web server (server/run/web.ts) on a free port with the
+ * health within 100 ms. A reference round on /api/health alone shows what the request handling itself
+ * allows on the machine. Starts its own web server (server/run/web.ts) on a free port with the
  * environment tests/bench/run.sh exports. Run: node --import tsx tests/bench/web.bench.ts
  */
 import { spawn } from "node:child_process";
@@ -91,6 +92,21 @@ try {
     );
   }
   console.log(JSON.stringify({ bench: "web server resident memory, MB", afterWarmUpThenEachRound: rssMb, target: "flat after the warm-up" }));
+
+  // Reference in the same run: the same load on /api/health (no session, one `select 1`), the least a
+  // request through the web app's request handling can cost on this machine.
+  const floor = await autocannon({ url: `${base}/api/health`, connections: CONNECTIONS, duration: SECONDS });
+  console.log(
+    JSON.stringify({
+      bench: "reference: /api/health under the same load",
+      connections: CONNECTIONS,
+      seconds: SECONDS,
+      perSecond: floor.requests.average,
+      p50Ms: floor.latency.p50,
+      p99Ms: floor.latency.p99,
+      errors: floor.errors + floor.timeouts + floor.non2xx,
+    }),
+  );
 
   // Health while the largest allowed design is computed (on a design thread, so the event loop stays free).
   const engineer = await signIn("engineer");

@@ -148,7 +148,7 @@ export function freePort(): Promise<number> {
 export async function mosquitto(
   auth?: { users: Array<{ username: string; password: string }>; aclFile: string },
   fixedPort?: number,
-): Promise<{ port: number; url: string; start: () => Promise<void>; stop: () => Promise<void> }> {
+): Promise<{ port: number; url: string; start: () => Promise<void>; stop: () => Promise<void>; pid: () => number | undefined }> {
   const port = fixedPort ?? (await freePort());
   const dir = mkdtempSync(join(tmpdir(), "tw-mosquitto-"));
   const conf = join(dir, "mosquitto.conf");
@@ -190,7 +190,7 @@ export async function mosquitto(
     });
   };
   await start();
-  return { port, url: `mqtt://127.0.0.1:${port}`, start, stop };
+  return { port, url: `mqtt://127.0.0.1:${port}`, start, stop, pid: () => child?.pid };
 }
 
 /** What a fresh MQTT subscriber to a device's config topic receives: the retained document, or null (after 500 ms). */
