@@ -48,6 +48,9 @@ const asciiDecoder = new TextDecoder("utf-8", { fatal: true });
 
 const padded = (n: number): number => (n + 3) & ~3;
 
+/** Whether typed arrays on this machine store little-endian, as the wire does. */
+const LITTLE_ENDIAN = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1;
+
 /** Encodes a frame as one binary message; throws on a frame no decoder would accept. */
 export function encodeFrame(frame: FrameMessage<ArrayLike<number>>): Uint8Array {
   const ids = Object.keys(frame.traces);
@@ -77,7 +80,10 @@ export function encodeFrame(frame: FrameMessage<ArrayLike<number>>): Uint8Array 
   bytes.set(names, FRAME_HEADER_BYTES);
   let at = columnsAt;
   for (const column of [frame.raw, ...ids.map((id) => frame.traces[id])]) {
-    for (let i = 0; i < points; i++, at += 4) view.setFloat32(at, column[i], true);
+    // On a little-endian machine a float32 view writes the wire's bytes directly (columns are 4-byte aligned).
+    if (LITTLE_ENDIAN) new Float32Array(bytes.buffer, at, points).set(column);
+    else for (let i = 0; i < points; i++) view.setFloat32(at + 4 * i, column[i], true);
+    at += 4 * points;
   }
   return bytes;
 }

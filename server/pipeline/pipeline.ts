@@ -1,6 +1,7 @@
 import { createFilterBank, NoSteadyState, type FilterDesign, type LiveDesign } from "@/lib/dsp";
 import { MAX_CANDIDATES_PER_CLIENT, type CandidateMetrics, type SampleBatch } from "@/lib/protocol";
 import type { BatchSink, ChannelInfo } from "../ingest/ingest";
+import { GrowingColumn } from "./column";
 import { candidateMetrics, rawSpectrum, type RawSpectrum } from "./metrics";
 import { SampleRing } from "./ring";
 import { SparkEnvelope, type Spark } from "./spark";
@@ -8,15 +9,34 @@ import { SparkEnvelope, type Spark } from "./spark";
 /** Filter key of the production slot in every channel's bank and in frames. */
 export const PRODUCTION = "production";
 
-/** Contiguous new samples of a channel (one sequence run) with every filter's output beside them. */
+/**
+ * Contiguous new samples of a channel (one sequence run) with every filter's output beside them.
+ * The columns are views of the channel's staging memory: valid until the channel's next push.
+ */
 export interface PendingBlock {
   /** Sequence numbers of the first and the newest message in the block. */
   seq: number;
   lastSeq: number;
   t0: number;
-  raw: number[];
+  raw: Float64Array;
   /** Filter key ("production" or `<owner>/<id>`) → output, same length as raw. */
-  traces: Map<string, number[]>;
+  traces: Map<string, Float64Array>;
+}
+
+/** A block being filled: where its samples start in the channel's staging columns, and how many. */
+interface OpenBlock {
+  seq: number;
+  lastSeq: number;
+  t0: number;
+  start: number;
+  length: number;
+  traces: Map<string, { column: GrowingColumn; start: number }>;
+}
+
+/** A channel's samples since the last drain, raw and per filter, in memory reused tick after tick. */
+interface Staging {
+  raw: GrowingColumn;
+  traces: Map<string, GrowingColumn>;
 }
 
 interface Candidate {
@@ -31,7 +51,8 @@ interface LiveChannel {
   raw: SampleRing;
   production: { revisionId: string; design: FilterDesign } | null;
   candidates: Map<string, Candidate>;
-  pending: PendingBlock[];
+  pending: OpenBlock[];
+  staging: Staging;
   nextSeq: number | null;
   /** Set when the filter set changed, so the next batch opens a new block with aligned traces. */
   breakBlock: boolean;
@@ -61,7 +82,7 @@ export interface Pipeline extends BatchSink {
   removeCandidate(path: string, owner: string, id: string): boolean;
   /** Removes every candidate of an owner (a closed connection). */
   removeOwner(owner: string): void;
-  /** New samples since the last drain, in sequence runs; clears them. */
+  /** New samples since the last drain, in sequence runs; clears them. The blocks' columns are valid until the channel's next push: copy what is kept longer. */
   drain(path: string): PendingBlock[];
   /** Live metrics of an owner's candidates on a channel (null fields until a candidate has settled), judged at `lineHz` when given, else at the strongest raw peak. */
   metrics(path: string, owner: string, lineHz?: number | null): Record<string, CandidateMetrics>;
@@ -120,6 +141,7 @@ export function createPipeline(deps: {
     production: null,
     candidates: new Map(),
     pending: [],
+    staging: { raw: new GrowingColumn(0), traces: new Map() },
     nextSeq: null,
     breakBlock: false,
     lastSampleAt: null,
@@ -133,12 +155,21 @@ export function createPipeline(deps: {
     return ch;
   }
 
+  /** Empties a channel's staging for the next samples; columns of filters no longer running are let go. */
+  function emptyStaging(ch: LiveChannel): void {
+    ch.staging.raw.reset();
+    for (const [key, column] of ch.staging.traces) {
+      if (key === PRODUCTION ? ch.production : ch.candidates.has(key)) column.reset();
+      else ch.staging.traces.delete(key);
+    }
+  }
+
   function clearProduction(path: string, ch: LiveChannel): void {
     if (ch.production) bank.remove(path, PRODUCTION);
     ch.production = null;
   }
 
-  function blockFor(ch: LiveChannel, batch: SampleBatch): PendingBlock {
+  function blockFor(ch: LiveChannel, batch: SampleBatch): OpenBlock {
     const last = ch.pending.at(-1);
     const contiguous = last && !ch.breakBlock && ch.nextSeq === batch.seq;
     ch.breakBlock = false;
@@ -147,7 +178,7 @@ export function createPipeline(deps: {
       last.lastSeq = batch.seq;
       return last;
     }
-    const block: PendingBlock = { seq: batch.seq, lastSeq: batch.seq, t0: batch.t0, raw: [], traces: new Map() };
+    const block: OpenBlock = { seq: batch.seq, lastSeq: batch.seq, t0: batch.t0, start: ch.staging.raw.length, length: 0, traces: new Map() };
     ch.pending.push(block);
     return block;
   }
@@ -158,7 +189,8 @@ export function createPipeline(deps: {
     ch.spark.push(batch.t0, batch.values);
     ch.lastSampleAt = now();
     const block = blockFor(ch, batch);
-    for (let i = 0; i < batch.values.length; i++) block.raw.push(batch.values[i]);
+    ch.staging.raw.append(batch.values);
+    block.length += batch.values.length;
     if (!ch.production && ch.candidates.size === 0) {
       for (const fn of listeners) fn(path, batch, null);
       return;
@@ -166,8 +198,12 @@ export function createPipeline(deps: {
     const outputs = bank.process(path, batch.values);
     for (const [key, y] of outputs) {
       let trace = block.traces.get(key);
-      if (!trace) block.traces.set(key, (trace = []));
-      for (let i = 0; i < y.length; i++) trace.push(y[i]);
+      if (!trace) {
+        let column = ch.staging.traces.get(key);
+        if (!column) ch.staging.traces.set(key, (column = new GrowingColumn(ch.staging.raw.length)));
+        block.traces.set(key, (trace = { column, start: column.length }));
+      }
+      trace.column.append(y);
       const candidate = ch.candidates.get(key);
       if (candidate) {
         candidate.output.push(y);
@@ -237,8 +273,15 @@ export function createPipeline(deps: {
     },
     drain(path) {
       const ch = channelOf(path);
-      const blocks = ch.pending;
+      const blocks = ch.pending.map(({ seq, lastSeq, t0, start, length, traces }) => ({
+        seq,
+        lastSeq,
+        t0,
+        raw: ch.staging.raw.view(start, start + length),
+        traces: new Map([...traces].map(([key, t]) => [key, t.column.view(t.start, t.start + length)])),
+      }));
       ch.pending = [];
+      emptyStaging(ch);
       return blocks;
     },
     metrics(path, owner, lineHz = null) {
@@ -273,6 +316,7 @@ export function createPipeline(deps: {
       const ch = channelOf(path);
       clearProduction(path, ch);
       ch.pending = [];
+      emptyStaging(ch);
       ch.nextSeq = null;
       ch.breakBlock = true;
     },

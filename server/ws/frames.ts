@@ -13,17 +13,26 @@ export interface ViewState {
   carry: PendingBlock | null;
 }
 
-function pick(view: ViewState, block: PendingBlock, from: number, to: number, bucket: number): FrameMessage<number[]> {
-  const reduce = (v: number[]) => (bucket === 1 ? v.slice(from, to) : minMaxDecimate(v.slice(from, to), bucket));
-  const traces: Record<string, number[]> = {};
+/** A frame's column: a view of the block's samples, or their min/max decimation. */
+type Column = Float64Array | number[];
+
+function allFinite(values: Column): boolean {
+  for (let i = 0; i < values.length; i++) if (!Number.isFinite(values[i])) return false;
+  return true;
+}
+
+function pick(view: ViewState, block: PendingBlock, from: number, to: number, bucket: number): FrameMessage<Column> {
+  const part = (v: Float64Array) => (from === 0 && to === v.length ? v : v.subarray(from, to));
+  const reduce = (v: Float64Array): Column => (bucket === 1 ? part(v) : minMaxDecimate(part(v), bucket));
+  const traces: Record<string, Column> = {};
   for (const [key, id] of view.traceIds) {
     const trace = block.traces.get(key);
     if (!trace) continue;
     // A trace that diverged (an unstable candidate) is left out of the frame: the chart shows no NaN or ±∞.
     const points = reduce(trace);
-    if (points.every(Number.isFinite)) traces[id] = points;
+    if (allFinite(points)) traces[id] = points;
   }
-  const frame: FrameMessage<number[]> = {
+  const frame: FrameMessage<Column> = {
     type: "frame",
     channel: view.path,
     seq: block.lastSeq,
@@ -38,13 +47,20 @@ function pick(view: ViewState, block: PendingBlock, from: number, to: number, bu
   return frame;
 }
 
+function joined(a: Float64Array, b: Float64Array): Float64Array {
+  const out = new Float64Array(a.length + b.length);
+  out.set(a);
+  out.set(b, a.length);
+  return out;
+}
+
 function concat(a: PendingBlock, b: PendingBlock): PendingBlock {
-  const traces = new Map<string, number[]>();
+  const traces = new Map<string, Float64Array>();
   for (const [key, t] of b.traces) {
     const head = a.traces.get(key);
-    if (head) traces.set(key, head.concat(t));
+    if (head) traces.set(key, joined(head, t));
   }
-  return { seq: a.seq, lastSeq: b.lastSeq, t0: a.t0, raw: a.raw.concat(b.raw), traces };
+  return { seq: a.seq, lastSeq: b.lastSeq, t0: a.t0, raw: joined(a.raw, b.raw), traces };
 }
 
 /** Whether a block continues the carried samples: the next sequence number, with the same of the view's filters running. */
@@ -60,8 +76,8 @@ function continues(view: ViewState, carry: PendingBlock, block: PendingBlock): b
  * rollback), flushes the remainder as a short last bucket, so a new filter's trace shows from its
  * first sample. A frame's seq is the newest message it draws on.
  */
-export function buildFrames(view: ViewState, blocks: readonly PendingBlock[]): FrameMessage<number[]>[] {
-  const frames: FrameMessage<number[]>[] = [];
+export function buildFrames(view: ViewState, blocks: readonly PendingBlock[]): FrameMessage<Column>[] {
+  const frames: FrameMessage<Column>[] = [];
   for (const block of blocks) {
     if (view.bucket === 1) {
       frames.push(pick(view, block, 0, block.raw.length, 1));

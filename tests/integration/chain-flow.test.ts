@@ -9,7 +9,7 @@ import { filterSignal, quantizedParts, simulateFixed, type FilterSpec } from "@/
 import { systemClock } from "@/server/clock";
 import { startDeploymentWorker, type DeploymentWorker } from "@/server/deploy/worker";
 import { channelConfigChecksum as storedHash } from "@/server/devices/checksum";
-import { PRODUCTION } from "@/server/pipeline/pipeline";
+import { PRODUCTION, type PendingBlock } from "@/server/pipeline/pipeline";
 import type { Sidecar } from "@/server/sidecar";
 import { firLowpass255, humChain, legacyFirRevision } from "../unit/coefficients-support";
 import { compileAndRun, inputWords, scratch } from "../unit/gcc-support";
@@ -131,17 +131,20 @@ describe("a filter chain from the API to the device, the production trace and th
     expect(sidecar.pipeline.productionRevision(STRAIN)).toBe(String(revisionId));
     // The sidecar's timers are off, so every block since it started is still pending; the first with a production
     // trace starts where the filter was switched in, and the filter's state runs on across blocks (and lost batches).
-    let blocks = sidecar.pipeline.drain(STRAIN);
+    // Drained blocks are views valid until the channel's next batch: keep copies.
+    const kept = (drained: PendingBlock[]) =>
+      drained.map((b) => ({ ...b, raw: b.raw.slice(), traces: new Map([...b.traces].map(([key, t]) => [key, t.slice()])) }));
+    let blocks = kept(sidecar.pipeline.drain(STRAIN));
     await vi.waitFor(
       () => {
-        blocks = [...blocks, ...sidecar.pipeline.drain(STRAIN)];
+        blocks = [...blocks, ...kept(sidecar.pipeline.drain(STRAIN))];
         expect(blocks.reduce((n, b) => n + (b.traces.get(PRODUCTION)?.length ?? 0), 0)).toBeGreaterThan(3000);
       },
       { timeout: 10_000, interval: 100 },
     );
     const since = blocks.slice(blocks.findIndex((b) => b.traces.has(PRODUCTION)));
-    const raw = since.flatMap((b) => b.raw);
-    const production = since.flatMap((b) => b.traces.get(PRODUCTION) ?? []);
+    const raw = since.flatMap((b) => Array.from(b.raw));
+    const production = since.flatMap((b) => Array.from(b.traces.get(PRODUCTION) ?? []));
     expect(production).toHaveLength(raw.length);
     const active = (await findActiveDeployment(lab.db, (await findChannelByPath(lab.db, STRAIN))!.id))!;
     const design = deployedDesign(active)!;
