@@ -7,6 +7,17 @@ export const MAX_LAG_SECONDS = 0.1;
 export const MAX_LAG_SAMPLES = 256;
 
 const ffts = new Map<number, FFT>();
+/** Work arrays of the lag search per transform length, reused call after call (the event loop runs one search at a time). */
+const scratches = new Map<number, { padded: Float64Array; spectrum: Float64Array; correlation: Float64Array }>();
+
+function scratchOf(size: number) {
+  let scratch = scratches.get(size);
+  if (!scratch) {
+    scratch = { padded: new Float64Array(size), spectrum: new Float64Array(2 * size), correlation: new Float64Array(2 * size) };
+    scratches.set(size, scratch);
+  }
+  return scratch;
+}
 
 function fftOf(size: number): FFT {
   let fft = ffts.get(size);
@@ -24,15 +35,14 @@ export interface LagReference {
   spectrum: Float64Array;
 }
 
-/** Spectrum of x[0 … n−1] with its mean removed, zero-padded to `size`. */
-function centredSpectrum(x: Float64Array, n: number, size: number): Float64Array {
+/** Spectrum of x[0 … n−1] with its mean removed, zero-padded to `size`, written into `spectrum` (2·size) through `padded` (size). */
+function centredSpectrum(x: Float64Array, n: number, size: number, padded: Float64Array, spectrum: Float64Array): Float64Array {
   const fft = fftOf(size);
   let mean = 0;
   for (let i = 0; i < n; i++) mean += x[i];
   mean /= n;
-  const padded = new Float64Array(size);
   for (let i = 0; i < n; i++) padded[i] = x[i] - mean;
-  const spectrum = new Float64Array(2 * size);
+  padded.fill(0, n);
   fft.realTransform(spectrum, padded);
   fft.completeSpectrum(spectrum);
   return spectrum;
@@ -41,7 +51,7 @@ function centredSpectrum(x: Float64Array, n: number, size: number): Float64Array
 export function lagReference(x: Float64Array, n: number): LagReference {
   let size = 2;
   while (size < 2 * n) size *= 2;
-  return { n, size, spectrum: centredSpectrum(x, n, size) };
+  return { n, size, spectrum: centredSpectrum(x, n, size, scratchOf(size).padded, new Float64Array(2 * size)) };
 }
 
 /**
@@ -53,13 +63,14 @@ export function lagReference(x: Float64Array, n: number): LagReference {
 export function lagBehind(ref: LagReference, y: Float64Array, maxLag: number): number {
   const { n, size, spectrum: fx } = ref;
   const fft = fftOf(size);
-  const fy = centredSpectrum(y, n, size);
+  const scratch = scratchOf(size);
+  const fy = centredSpectrum(y, n, size, scratch.padded, scratch.spectrum);
   for (let k = 0; k < size; k++) {
     const [ar, ai, br, bi] = [fx[2 * k], fx[2 * k + 1], fy[2 * k], fy[2 * k + 1]];
     fy[2 * k] = ar * br + ai * bi;
     fy[2 * k + 1] = ar * bi - ai * br;
   }
-  const r = new Float64Array(2 * size);
+  const r = scratch.correlation;
   fft.inverseTransform(r, fy);
   let best = 0;
   let bestValue = -Infinity;
