@@ -3,23 +3,23 @@
 import { useQueryClient } from "@tanstack/react-query";
 import { useEffect, useState } from "react";
 import { ApiError } from "@/components/bench/api";
-import { fromLocalInput, toLocalInput } from "@/lib/alarms/local-time";
+import { fromUtcInput, toUtcInput } from "@/lib/alarms/utc-input";
 import { ChannelSelect } from "@/components/alarms/channel-select";
 import { createAnnotation } from "./api";
 
 /**
  * Marks a moment or a span of a channel with a short note. `channels` offers a choice; with one
- * channel it is fixed. Without `defaultAt` (epoch ms) the time follows the clock until it is edited
+ * channel it is fixed. Times are typed in UTC, as every list and chart shows them. Without `defaultAt` (epoch ms) the time follows the clock until it is edited
  * ("Now" makes it follow again), so a note written on the live bench lands at the moment it is saved.
  */
 export function AnnotationForm({ channels, defaultAt }: { channels: { path: string; name: string }[]; defaultAt?: number }) {
   const client = useQueryClient();
   const [channel, setChannel] = useState(channels[0]?.path ?? "");
-  const [at, setAt] = useState(() => toLocalInput(defaultAt ?? Date.now()));
+  const [at, setAt] = useState(() => toUtcInput(defaultAt ?? Date.now()));
   const [following, setFollowing] = useState(defaultAt === undefined);
   useEffect(() => {
     if (!following) return;
-    const id = setInterval(() => setAt(toLocalInput(Date.now())), 1000);
+    const id = setInterval(() => setAt(toUtcInput(Date.now())), 1000);
     return () => clearInterval(id);
   }, [following]);
   const [endAt, setEndAt] = useState("");
@@ -30,9 +30,9 @@ export function AnnotationForm({ channels, defaultAt }: { channels: { path: stri
 
   async function submit(e: React.FormEvent) {
     e.preventDefault();
-    const from = following ? Date.now() : fromLocalInput(at);
-    const to = span ? fromLocalInput(endAt) : null;
-    if (from === null || (span && to === null)) return setMessage({ ok: false, text: "Give the time as date and time." });
+    const from = following ? Date.now() : fromUtcInput(at);
+    const to = span ? fromUtcInput(endAt) : null;
+    if (from === null || (span && to === null)) return setMessage({ ok: false, text: "Give the time as date and time (UTC)." });
     if (to !== null && to <= from) return setMessage({ ok: false, text: "The span must end after it starts." });
     setBusy(true);
     setMessage(null);
@@ -66,9 +66,9 @@ export function AnnotationForm({ channels, defaultAt }: { channels: { path: stri
         <ChannelSelect channels={channels} value={channel} onChange={setChannel} />
       )}
       <label className="text-sm">
-        <span className="label">{span ? "From" : "At"}</span>
+        <span className="label">{span ? "From (UTC)" : "At (UTC)"}</span>
         <input
-          aria-label={span ? "From" : "At"}
+          aria-label={span ? "From (UTC)" : "At (UTC)"}
           type="datetime-local"
           step={1}
           className="field num w-auto py-1"
@@ -82,7 +82,7 @@ export function AnnotationForm({ channels, defaultAt }: { channels: { path: stri
       </label>
       <button type="button" className="btn-quiet py-1" aria-pressed={following} onClick={() => {
           setFollowing(true);
-          setAt(toLocalInput(Date.now()));
+          setAt(toUtcInput(Date.now()));
         }}>
         Now
       </button>
@@ -91,8 +91,8 @@ export function AnnotationForm({ channels, defaultAt }: { channels: { path: stri
       </label>
       {span && (
         <label className="text-sm">
-          <span className="label">To</span>
-          <input aria-label="To" type="datetime-local" step={1} className="field num w-auto py-1" value={endAt} onChange={(e) => setEndAt(e.target.value)} required />
+          <span className="label">To (UTC)</span>
+          <input aria-label="To (UTC)" type="datetime-local" step={1} className="field num w-auto py-1" value={endAt} onChange={(e) => setEndAt(e.target.value)} required />
         </label>
       )}
       <button className="btn-primary" disabled={busy || text.trim() === "" || channel === ""}>

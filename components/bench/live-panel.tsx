@@ -106,7 +106,7 @@ export function LivePanel({
             testId="live-chart"
             series={series}
             source={source}
-            x={{ kind: "time", label: "Time", unit: "s" }}
+            x={{ kind: "time", label: "Time (UTC)", unit: "s" }}
             axes={[{ scale: "y", label: unit }]}
             height={320}
             yRange={yRange}

@@ -8,11 +8,11 @@ const TICKS = { stroke: "rgba(148, 163, 184, 0.3)", width: 1 };
 
 const pad = (n: number, width = 2) => String(n).padStart(width, "0");
 
-/** Local clock time of t s since the epoch: hh:mm:ss, with .mmm when asked. */
+/** UTC clock time of t s since the epoch (the zone of every time the app shows): hh:mm:ss, with .mmm when asked. */
 export function clock(t: number, ms: boolean): string {
   const d = new Date(t * 1000);
-  const base = `${pad(d.getHours())}:${pad(d.getMinutes())}:${pad(d.getSeconds())}`;
-  return ms ? `${base}.${pad(d.getMilliseconds(), 3)}` : base;
+  const base = `${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())}:${pad(d.getUTCSeconds())}`;
+  return ms ? `${base}.${pad(d.getUTCMilliseconds(), 3)}` : base;
 }
 
 /** A value with its unit to 4 significant figures, with a true minus sign; "—" for a gap. */

@@ -5,5 +5,5 @@ export * from "./replay";
 export * from "./view";
 export * from "./describe";
 export * from "./marks";
-export * from "./local-time";
+export * from "./utc-input";
 export * from "./check";
