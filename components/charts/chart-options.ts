@@ -1,5 +1,5 @@
 import uPlot from "uplot";
-import { trim } from "@/lib/format/units";
+import { signedTrim } from "@/lib/format/units";
 import type { ChartAxis, ChartRefs, ChartSeries, UPlotChartProps } from "./chart-types";
 
 const AXIS_STROKE = "#94a3b8";
@@ -17,7 +17,7 @@ export function clock(t: number, ms: boolean): string {
 
 /** A value with its unit to 4 significant figures, with a true minus sign; "—" for a gap. */
 export function valueText(v: number | null, unit: string): string {
-  return v == null ? "—" : `${trim(v, 4).replace("-", "−")} ${unit}`.trim();
+  return v == null ? "—" : `${signedTrim(v, 4)} ${unit}`.trim();
 }
 
 /** An x value as the chart shows it: a clock time with ms on a time axis, else the value with its unit. */

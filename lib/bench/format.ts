@@ -1,9 +1,9 @@
-import { formatHz, trim } from "@/lib/format/units";
+import { formatHz, signedTrim } from "@/lib/format/units";
 
 /** A number to `digits` significant figures followed by its unit, or "—" when there is none. */
 export function withUnit(value: number | null | undefined, unit: string, digits = 3): string {
   if (value === null || value === undefined || Number.isNaN(value)) return "—";
-  const text = trim(value, digits).replace("-", "−");
+  const text = signedTrim(value, digits);
   return unit ? `${text} ${unit}` : text;
 }
 

@@ -1,4 +1,4 @@
-import { formatHz, trim } from "@/lib/format/units";
+import { formatHz, signedTrim, trim, withMinus } from "@/lib/format/units";
 
 /** The x axis of a chart as the cursors read it: time is in s since the epoch, log and linear are in `unit`. */
 export interface CursorAxis {
@@ -87,8 +87,6 @@ export function cursorReadout(data: readonly Column[], cursors: Pick<Cursors, "a
   };
 }
 
-const minus = (text: string) => text.replace("-", "−");
-
 /** The name of the x difference: Δt on a time axis, Δf on a frequency axis, Δx otherwise. */
 export function deltaName(axis: CursorAxis): "Δt" | "Δf" | "Δx" {
   if (axis.kind === "time" || axis.unit === "s" || axis.unit === "ms") return "Δt";
@@ -103,10 +101,10 @@ export function formatDelta(axis: CursorAxis, dx: number): string {
   if (deltaName(axis) === "Δt") {
     const seconds = axis.unit === "ms" && axis.kind !== "time" ? dx / 1000 : dx;
     const text = Math.abs(seconds) < 1 ? `${trim(seconds * 1000, 4)} ms` : `${trim(seconds, 4)} s`;
-    return seconds === 0 ? minus(text) : `${minus(text)} (1/Δt ${formatHz(1 / Math.abs(seconds))})`;
+    return seconds === 0 ? withMinus(text) : `${withMinus(text)} (1/Δt ${formatHz(1 / Math.abs(seconds))})`;
   }
-  if (axis.unit === "Hz") return minus(formatHz(dx));
-  return minus(`${trim(dx, 4)} ${axis.unit}`.trim());
+  if (axis.unit === "Hz") return withMinus(formatHz(dx));
+  return `${signedTrim(dx, 4)} ${axis.unit}`.trim();
 }
 
 /** The x of the data point nearest `x`, or null when x is off the data. */

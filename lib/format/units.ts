@@ -10,3 +10,13 @@ export function trim(value: number, digits = 4): string {
   if (value === 0) return "0";
   return String(Number(value.toPrecision(digits)));
 }
+
+/** A number's text with true minus signs (U+2212) for the hyphens of its sign and of its exponent ("−1.2e−15"). */
+export function withMinus(text: string): string {
+  return text.replaceAll("-", "−");
+}
+
+/** trim with true minus signs, for text people read (not for values they paste back). */
+export function signedTrim(value: number, digits = 4): string {
+  return withMinus(trim(value, digits));
+}

@@ -54,6 +54,8 @@ describe("chart cursors", () => {
     expect(formatDelta({ kind: "log", unit: "Hz" }, 120)).toBe("120 Hz");
     expect(formatDelta({ kind: "log", unit: "Hz" }, -1500)).toBe("−1.5 kHz");
     expect(formatDelta({ kind: "linear", unit: "mm" }, 0.123456)).toBe("0.1235 mm");
+    // Tiny differences keep their exponent, and its sign is a true minus too.
+    expect(formatDelta({ kind: "linear", unit: "V" }, -1.23456e-15)).toBe("−1.235e−15 V");
   });
 
   it("are placed by clicks: A, then B, then the nearer one moves", () => {
