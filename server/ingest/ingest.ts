@@ -1,4 +1,4 @@
-import { decodeSamples, MAX_PAYLOAD_BYTES, parseTopic, type SampleBatch } from "@/lib/protocol";
+import { decodeSamples, MAX_PAYLOAD_BYTES, parseTopic, samplesTopic, type SampleBatch } from "@/lib/protocol";
 import type { FaultLog } from "./fault-log";
 import { errorMessage } from "@/lib/errors";
 
@@ -11,6 +11,12 @@ export interface ChannelInfo {
 /** Where accepted batches go (the live pipeline). */
 export interface BatchSink {
   push(path: string, batch: SampleBatch): void;
+}
+
+/** The channel path of a samples topic, or null for any other topic. */
+function samplesPath(topic: string): string | null {
+  const parsed = parseTopic(topic);
+  return parsed?.kind === "samples" ? parsed.path : null;
 }
 
 /** Relative sample-rate difference tolerated between a message and its channel (covers float32 rounding). */
@@ -38,16 +44,37 @@ export function createIngest(deps: {
   accepts?: (path: string) => boolean;
 }): Ingest {
   const channels = new Map(deps.channels.map((c) => [c.path, c]));
+  /** Sample topics already read, with their channel: known channels only, so it holds at most one entry per channel. */
+  const knownTopics = new Map<string, ChannelInfo>();
   const lastSeq = new Map<string, number>();
   const accepted = { messages: 0, samples: 0 };
 
-  function handleUnsafe(topic: string, payload: Uint8Array): void {
-    const parsed = parseTopic(topic);
-    if (!parsed || parsed.kind !== "samples") return deps.faults.record(topic.slice(0, 128), "bad_topic");
-    const { path } = parsed;
-    if (payload.byteLength > MAX_PAYLOAD_BYTES) return deps.faults.record(path, "oversized", `${payload.byteLength} bytes`);
+  /** The channel of a sample topic (read once, then remembered), or null once the fault that refuses the message is recorded. */
+  function channelOfTopic(topic: string, payload: Uint8Array): ChannelInfo | null {
+    const known = knownTopics.get(topic);
+    const path = known ? known.path : samplesPath(topic);
+    if (path === null) {
+      deps.faults.record(topic.slice(0, 128), "bad_topic");
+      return null;
+    }
+    if (payload.byteLength > MAX_PAYLOAD_BYTES) {
+      deps.faults.record(path, "oversized", `${payload.byteLength} bytes`);
+      return null;
+    }
+    if (known) return known;
     const channel = channels.get(path);
-    if (!channel) return deps.faults.record(path, "unknown_channel");
+    if (!channel) {
+      deps.faults.record(path, "unknown_channel");
+      return null;
+    }
+    knownTopics.set(topic, channel);
+    return channel;
+  }
+
+  function handleUnsafe(topic: string, payload: Uint8Array): void {
+    const channel = channelOfTopic(topic, payload);
+    if (!channel) return;
+    const { path } = channel;
     if (deps.accepts && !deps.accepts(path)) return;
     const result = decodeSamples(payload);
     if (!result.ok) return deps.faults.record(path, result.fault);
@@ -69,6 +96,7 @@ export function createIngest(deps: {
     accepted,
     addChannel(info) {
       channels.set(info.path, info);
+      knownTopics.delete(samplesTopic(info.path));
       lastSeq.delete(info.path);
     },
     handle(topic, payload) {
