@@ -3,7 +3,7 @@ import { createDb } from "@/db/client";
 import { SESSION_TTL_SECONDS } from "@/lib/auth/session-config";
 import { appOrigin, appUrl, env } from "@/lib/env";
 import { demoDeviceCredential } from "@/lib/demo/device-credentials";
-import { MAX_CANDIDATES_PER_CLIENT } from "@/lib/protocol";
+import { localSidecarWsUrl, MAX_CANDIDATES_PER_CLIENT } from "@/lib/protocol";
 import { createWorkPool, poolSettings, workerEntry } from "@/lib/workers";
 import { startAlarms, type AlarmService } from "./alarms/service";
 import { consoleLogger, systemClock } from "./clock";
@@ -59,7 +59,7 @@ if (e.SIDECAR_ID && !e.MQTT_URL) {
 }
 // Partitioned (docs/scale-out.md): this sidecar filters the channels it holds leases on.
 const leases = e.SIDECAR_ID
-  ? { id: e.SIDECAR_ID, wsUrl: e.SIDECAR_WS_URL ?? `ws://127.0.0.1:${e.SIDECAR_PORT}/ws`, ttlMs: e.LEASE_TTL_MS, heartbeatMs: e.LEASE_HEARTBEAT_MS }
+  ? { id: e.SIDECAR_ID, wsUrl: e.SIDECAR_WS_URL ?? localSidecarWsUrl(e.SIDECAR_PORT), ttlMs: e.LEASE_TTL_MS, heartbeatMs: e.LEASE_HEARTBEAT_MS }
   : undefined;
 
 if (!e.MQTT_URL && e.REQUIRE_DEVICE_AUTH === "0") {

@@ -9,8 +9,9 @@ import { createAnnotation } from "./api";
 
 /**
  * Marks a moment or a span of a channel with a short note. `channels` offers a choice; with one
- * channel it is fixed. Times are typed in UTC, as every list and chart shows them. Without `defaultAt` (epoch ms) the time follows the clock until it is edited
- * ("Now" makes it follow again), so a note written on the live bench lands at the moment it is saved.
+ * channel it is fixed. Times are typed in UTC, as every list and chart shows them. Without
+ * `defaultAt` (epoch ms) the time follows the clock until it is edited ("Now" makes it follow
+ * again), so a note written on the live bench lands at the moment it is saved.
  */
 export function AnnotationForm({ channels, defaultAt }: { channels: { path: string; name: string }[]; defaultAt?: number }) {
   const client = useQueryClient();

@@ -48,6 +48,12 @@ const asciiDecoder = new TextDecoder("utf-8", { fatal: true });
 
 const padded = (n: number): number => (n + 3) & ~3;
 
+/** Where a frame's columns start, after the header and its names padded to 4 bytes. */
+const columnsAfter = (namesBytes: number): number => FRAME_HEADER_BYTES + padded(namesBytes);
+
+/** Bytes of a whole frame: header, padded names, and raw plus each trace as `points` float32 values. */
+const frameBytes = (namesBytes: number, points: number, traceCount: number): number => columnsAfter(namesBytes) + 4 * points * (1 + traceCount);
+
 /** Whether typed arrays on this machine store little-endian, as the wire does. */
 const LITTLE_ENDIAN = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1;
 
@@ -63,8 +69,8 @@ export function encodeFrame(frame: FrameMessage<ArrayLike<number>>): Uint8Array 
     if (frame.traces[id].length !== points) throw new Error(`trace '${id}' has ${frame.traces[id].length} points, raw has ${points}`);
   }
   const names = ascii.encode([frame.channel, ...ids].join("\n"));
-  const columnsAt = FRAME_HEADER_BYTES + padded(names.byteLength);
-  const bytes = new Uint8Array(columnsAt + 4 * points * (1 + ids.length));
+  const columnsAt = columnsAfter(names.byteLength);
+  const bytes = new Uint8Array(frameBytes(names.byteLength, points, ids.length));
   const view = new DataView(bytes.buffer);
   view.setUint8(0, FRAME_MAGIC);
   view.setUint8(1, FRAME_VERSION);
@@ -93,10 +99,7 @@ export type FrameDecodeResult = { ok: true; frame: FrameMessage } | { ok: false;
 /** Bytes of the frame that starts at `at` (its header read), or null when not even a header is left. */
 function frameLength(view: DataView, at: number): number | null {
   if (view.byteLength - at < FRAME_HEADER_BYTES) return null;
-  const traceCount = view.getUint8(at + 3);
-  const points = view.getUint32(at + 16, true);
-  const namesBytes = view.getUint32(at + 20, true);
-  return FRAME_HEADER_BYTES + padded(namesBytes) + 4 * points * (1 + traceCount);
+  return frameBytes(view.getUint32(at + 20, true), view.getUint32(at + 16, true), view.getUint8(at + 3));
 }
 
 /** Several encoded frames as one binary message (protocol 3), in order. */
@@ -156,8 +159,8 @@ export function decodeFrame(bytes: Uint8Array): FrameDecodeResult {
   if (traceCount > MAX_FRAME_TRACES || namesBytes > NAMES_MAX_BYTES) return { ok: false, reason: "too many traces" };
   if (points < 1 || samples < 1 || decimated !== bucketSamples > 0) return { ok: false, reason: "bad counts" };
   if (!Number.isFinite(t0) || !(sampleRateHz > 0 && Number.isFinite(sampleRateHz))) return { ok: false, reason: "bad time base" };
-  const columnsAt = FRAME_HEADER_BYTES + padded(namesBytes);
-  if (bytes.byteLength !== columnsAt + 4 * points * (1 + traceCount)) return { ok: false, reason: "length does not match the counts" };
+  const columnsAt = columnsAfter(namesBytes);
+  if (bytes.byteLength !== frameBytes(namesBytes, points, traceCount)) return { ok: false, reason: "length does not match the counts" };
   const names = readNames(bytes, namesBytes);
   if (!names || names.length !== traceCount + 1) return { ok: false, reason: "bad names block" };
   const [channel, ...ids] = names;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { sidecarHttpUrl } from "@/lib/protocol";
+import { localSidecarWsUrl, sidecarHttpUrl } from "@/lib/protocol";
 
 describe("sidecarHttpUrl", () => {
   it("answers on the host and port a sidecar advertises for its WebSocket, over HTTP or HTTPS to match", () => {
@@ -12,5 +12,10 @@ describe("sidecarHttpUrl", () => {
     expect(url.pathname).toBe("/recent");
     expect(url.searchParams.get("channel")).toBe("hydraulic-press/supply-node/supply-pressure");
     expect(url.searchParams.size).toBe(1);
+  });
+
+  it("finds the one sidecar on this host from its port, as it advertises itself without SIDECAR_WS_URL", () => {
+    expect(localSidecarWsUrl(3001)).toBe("ws://127.0.0.1:3001/ws");
+    expect(sidecarHttpUrl(localSidecarWsUrl(3001), "/overview")).toBe("http://127.0.0.1:3001/overview");
   });
 });

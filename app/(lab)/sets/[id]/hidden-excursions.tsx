@@ -9,7 +9,7 @@ import { db } from "@/db";
 import type { AlarmRule, FilterCheck } from "@/lib/alarms";
 import type { FilterDesign, FilterSpec } from "@/lib/dsp";
 import { env } from "@/lib/env";
-import { sidecarHttpUrl } from "@/lib/protocol";
+import { localSidecarWsUrl, sidecarHttpUrl } from "@/lib/protocol";
 import { decodeSamples } from "@/lib/recordings/samples";
 import { computeForRequest } from "@/lib/workers";
 import { errorMessage } from "@/lib/errors";
@@ -26,7 +26,7 @@ const SIDECAR_TIMEOUT_MS = 1_500;
 async function recentSamples(path: string): Promise<{ samples: Float64Array; sampleRateHz: number } | null> {
   try {
     const owner = (await channelOwners(db())).get(path);
-    const url = owner ? sidecarHttpUrl(owner.wsUrl, "/recent", { channel: path }) : `http://127.0.0.1:${env().SIDECAR_PORT}/recent?channel=${encodeURIComponent(path)}`;
+    const url = sidecarHttpUrl(owner?.wsUrl ?? localSidecarWsUrl(env().SIDECAR_PORT), "/recent", { channel: path });
     const res = await fetch(url, { cache: "no-store", signal: AbortSignal.timeout(SIDECAR_TIMEOUT_MS) });
     if (!res.ok) return null;
     return { samples: decodeSamples(new Uint8Array(await res.arrayBuffer())), sampleRateHz: Number(res.headers.get("x-sample-rate-hz")) };

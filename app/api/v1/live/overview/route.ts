@@ -1,7 +1,7 @@
 import { requireUser } from "@/app/_lib/auth";
 import { db } from "@/db";
 import { liveSidecars } from "@/db/queries/leases";
-import { liveOverviewSchema, mergeOverviews, sidecarHttpUrl, type LiveOverview } from "@/lib/protocol";
+import { liveOverviewSchema, localSidecarWsUrl, mergeOverviews, sidecarHttpUrl, type LiveOverview } from "@/lib/protocol";
 import { env } from "@/lib/env";
 import { AppError } from "@/lib/errors";
 import { handler } from "@/lib/http/handler";
@@ -34,7 +34,7 @@ export const GET = handler(async () => {
   await requireUser();
   const e = env();
   const sidecars = await liveSidecars(db(), e.LEASE_TTL_MS);
-  const urls = sidecars.length ? sidecars.map((s) => sidecarHttpUrl(s.wsUrl, "/overview")) : [`http://127.0.0.1:${e.SIDECAR_PORT}/overview`];
+  const urls = (sidecars.length ? sidecars.map((s) => s.wsUrl) : [localSidecarWsUrl(e.SIDECAR_PORT)]).map((ws) => sidecarHttpUrl(ws, "/overview"));
   // A sidecar that just died is listed until its heartbeat ages out: the others' channels still show.
   const answers = await Promise.allSettled(urls.map(sidecarOverview));
   const parts = answers.flatMap((a) => (a.status === "fulfilled" ? [a.value] : []));
