@@ -102,11 +102,14 @@ export class BenchPage {
     expect(near(await this.peaks(panel)), "the held spectrum still shows the peaks").toBe(true);
   }
 
-  /** Clicks "Notch" on a held panel's peak within 1 Hz of freqHz. */
-  async notchPeakNear(panel: Locator, freqHz: number): Promise<void> {
+  /** Clicks "Notch" on a held panel's peak within 1 Hz of freqHz; returns the frequency as the button names it, e.g. "49.99 Hz". */
+  async notchPeakNear(panel: Locator, freqHz: number): Promise<string> {
     const peak = (await this.peaks(panel)).find((p) => Math.abs(p.hz - freqHz) <= 1);
     expect(peak, `a peak near ${freqHz} Hz`).toBeDefined();
-    await panel.locator(`li[data-hz="${peak?.hz}"]`).getByRole("button", { name: /^Notch at/ }).click();
+    const button = panel.locator(`li[data-hz="${peak?.hz}"]`).getByRole("button", { name: /^Notch at/ });
+    const named = ((await button.getAttribute("aria-label")) ?? "").replace(/^Notch at /, "");
+    await button.click();
+    return named;
   }
 
   async setNumber(label: string, value: number): Promise<void> {
