@@ -17,7 +17,7 @@ export class GrowingColumn {
       grown.set(this.data.subarray(0, this.length));
       this.data = grown;
     }
-    for (let i = 0; i < values.length; i++) this.data[this.length + i] = values[i];
+    this.data.set(values, this.length);
     this.length = needed;
   }
 

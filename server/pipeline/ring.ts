@@ -8,14 +8,13 @@ export class SampleRing {
     this.data = new Float64Array(capacity);
   }
 
-  /** Appends values (only the newest `capacity` are kept), copied by index: short batches are the rule, and typed-array views would cost more than the copy. */
+  /** Appends values (only the newest `capacity` are kept) as at most two block copies. */
   push(values: Float64Array): void {
-    const skipped = Math.max(0, values.length - this.capacity);
-    let at = (this.written + skipped) % this.capacity;
-    for (let i = skipped; i < values.length; i++) {
-      this.data[at] = values[i];
-      if (++at === this.capacity) at = 0;
-    }
+    const kept = values.length > this.capacity ? values.subarray(values.length - this.capacity) : values;
+    const at = (this.written + values.length - kept.length) % this.capacity;
+    const first = Math.min(kept.length, this.capacity - at);
+    this.data.set(first === kept.length ? kept : kept.subarray(0, first), at);
+    if (first < kept.length) this.data.set(kept.subarray(first), 0);
     this.written += values.length;
   }
 
@@ -24,11 +23,10 @@ export class SampleRing {
     const held = Math.min(this.written, this.capacity);
     const count = Math.max(0, Math.min(n, held - endOffset));
     const out = new Float64Array(count);
-    let at = (this.written - endOffset - count) % this.capacity;
-    for (let i = 0; i < count; i++) {
-      out[i] = this.data[at];
-      if (++at === this.capacity) at = 0;
-    }
+    const at = (this.written - endOffset - count) % this.capacity;
+    const first = Math.min(count, this.capacity - at);
+    out.set(this.data.subarray(at, at + first));
+    if (first < count) out.set(this.data.subarray(0, count - first), first);
     return out;
   }
 }
