@@ -1,3 +1,4 @@
+import { Slab } from "./slab";
 import { isChannelPath } from "./topics";
 
 /**
@@ -43,7 +44,6 @@ export interface FrameMessage<Column extends ArrayLike<number> = Float32Array> {
   bucketSamples?: number;
 }
 
-const ascii = new TextEncoder();
 const asciiDecoder = new TextDecoder("utf-8", { fatal: true });
 
 const padded = (n: number): number => (n + 3) & ~3;
@@ -57,6 +57,9 @@ const frameBytes = (namesBytes: number, points: number, traceCount: number): num
 /** Whether typed arrays on this machine store little-endian, as the wire does. */
 const LITTLE_ENDIAN = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1;
 
+/** Encoded frames come from shared buffers (a frame is a kilobyte or two, and a sidecar writes thousands a second). */
+const frameSlab = new Slab();
+
 /** Encodes a frame as one binary message; throws on a frame no decoder would accept. */
 export function encodeFrame(frame: FrameMessage<ArrayLike<number>>): Uint8Array {
   const ids = Object.keys(frame.traces);
@@ -68,10 +71,11 @@ export function encodeFrame(frame: FrameMessage<ArrayLike<number>>): Uint8Array 
     if (!TRACE_ID.test(id)) throw new Error(`trace id must be 1–32 of A-Z a-z 0-9 _ - (got '${id}')`);
     if (frame.traces[id].length !== points) throw new Error(`trace '${id}' has ${frame.traces[id].length} points, raw has ${points}`);
   }
-  const names = ascii.encode([frame.channel, ...ids].join("\n"));
-  const columnsAt = columnsAfter(names.byteLength);
-  const bytes = new Uint8Array(frameBytes(names.byteLength, points, ids.length));
-  const view = new DataView(bytes.buffer);
+  // The names are ASCII (checked above): one byte a character, written straight into the frame.
+  const names = [frame.channel, ...ids].join("\n");
+  const columnsAt = columnsAfter(names.length);
+  const bytes = frameSlab.bytes(frameBytes(names.length, points, ids.length));
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   view.setUint8(0, FRAME_MAGIC);
   view.setUint8(1, FRAME_VERSION);
   view.setUint8(2, frame.decimated ? 1 : 0);
@@ -80,14 +84,14 @@ export function encodeFrame(frame: FrameMessage<ArrayLike<number>>): Uint8Array 
   view.setUint32(8, frame.samples, true);
   view.setUint32(12, frame.decimated ? (frame.bucketSamples ?? 0) : 0, true);
   view.setUint32(16, points, true);
-  view.setUint32(20, names.byteLength, true);
+  view.setUint32(20, names.length, true);
   view.setFloat64(24, frame.t0, true);
   view.setFloat64(32, frame.sampleRateHz, true);
-  bytes.set(names, FRAME_HEADER_BYTES);
+  for (let i = 0; i < names.length; i++) bytes[FRAME_HEADER_BYTES + i] = names.charCodeAt(i);
   let at = columnsAt;
   for (const column of [frame.raw, ...ids.map((id) => frame.traces[id])]) {
     // On a little-endian machine a float32 view writes the wire's bytes directly (columns are 4-byte aligned).
-    if (LITTLE_ENDIAN) new Float32Array(bytes.buffer, at, points).set(column);
+    if (LITTLE_ENDIAN) new Float32Array(bytes.buffer, bytes.byteOffset + at, points).set(column);
     else for (let i = 0; i < points; i++) view.setFloat32(at + 4 * i, column[i], true);
     at += 4 * points;
   }

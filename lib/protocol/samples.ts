@@ -1,5 +1,6 @@
 import { z } from "zod";
 import type { FaultKind } from "./faults";
+import { Slab } from "./slab";
 
 /** Largest sample payload accepted, in bytes; larger ones are refused unread. */
 export const MAX_PAYLOAD_BYTES = 64 * 1024;
@@ -56,6 +57,9 @@ function allFinite(values: Float64Array): boolean {
   return true;
 }
 
+/** Decoded values come from shared buffers: one message's few hundred bytes need no buffer of their own. */
+const valuesSlab = new Slab();
+
 /** Reads the binary v1 layout through a DataView on the payload's own bytes; allocates only the output. */
 export function decodeBinarySamples(payload: Uint8Array): DecodeResult {
   if (payload.byteLength < BINARY_HEADER_BYTES) return { ok: false, fault: "bad_length" };
@@ -67,7 +71,7 @@ export function decodeBinarySamples(payload: Uint8Array): DecodeResult {
   const t0 = view.getFloat64(8, true);
   const sampleRateHz = view.getFloat64(16, true);
   if (!Number.isFinite(t0) || !(sampleRateHz > 0 && Number.isFinite(sampleRateHz))) return { ok: false, fault: "bad_shape" };
-  const values = new Float64Array(count);
+  const values = valuesSlab.float64(count);
   for (let i = 0; i < count; i++) values[i] = view.getFloat32(BINARY_HEADER_BYTES + 4 * i, true);
   if (!allFinite(values)) return { ok: false, fault: "non_finite" };
   return { ok: true, batch: { seq: view.getUint32(4, true), t0, sampleRateHz, values } };
