@@ -164,6 +164,7 @@ export function createHub(opts: HubOptions): Hub {
   const clients = new Map<string, ClientState>();
   const views = new Map<string, ViewState>();
   const timers: Timer[] = [];
+  let metricsStart: Timer | null = null;
   let recheck: Promise<void> | null = null;
   const frameMs = opts.frameIntervalMs ?? 33;
   const metricsIntervalMs = opts.metricsIntervalMs ?? 1000;
@@ -472,13 +473,13 @@ export function createHub(opts: HubOptions): Hub {
     },
     start() {
       // Metrics are spread over the frame ticks within their budget, so the event loop never pauses
-      // for all of them at once and the frames keep their pace however many candidates there are.
-      timers.push(
-        opts.clock.setInterval(() => {
-          guarded("frame", hub.tick);
-          guarded("metrics", () => hub.metricsTick());
-        }, frameMs),
-      );
+      // for all of them at once and the frames keep their pace however many candidates there are;
+      // they run half a frame interval after the frames, so the two never hold the loop back to back.
+      timers.push(opts.clock.setInterval(() => guarded("frame", hub.tick), frameMs));
+      metricsStart = opts.clock.setTimeout(() => {
+        metricsStart = null;
+        timers.push(opts.clock.setInterval(() => guarded("metrics", () => hub.metricsTick()), frameMs));
+      }, frameMs / 2);
       timers.push(
         opts.clock.setInterval(() => {
           guarded("status", hub.statusTick);
@@ -487,6 +488,8 @@ export function createHub(opts: HubOptions): Hub {
       );
     },
     stop() {
+      if (metricsStart) opts.clock.clearTimeout(metricsStart);
+      metricsStart = null;
       for (const t of timers.splice(0)) opts.clock.clearInterval(t);
     },
   };
