@@ -4,8 +4,9 @@
  * (tests/bench/run.sh exports the latter): a role that may create databases; it creates and drops its own.
  *
  * The sidecar runs in this process (its CPU share comes from process.cpuUsage); devices and the
- * browser-like WebSocket client run in a child process so they are not counted. Latency is from
- * the publish of a message to the arrival of the frame that carries it, frame interval included.
+ * browser-like WebSocket client run in one child process, forked before the sidecar starts, so they
+ * are not counted. Each device publishes its eight channels every 20 ms at a phase of its own. Latency
+ * is from the publish of a message to the arrival of the frame that carries it, frame interval included.
  * Loopback only; the channel-count search is bounded and stops by itself. Last line: JSON.
  *
  * Then the partitioned set-up: CLUSTER_CHANNELS channels held by two sidecars (child processes, their
@@ -36,6 +37,7 @@ import { SIDECAR_NODE_FLAGS } from "@/server/run/sidecar-flags";
 
 const FS = 2000;
 const BATCH = 40; // 20 ms of samples per message
+const BATCH_MS = (BATCH / FS) * 1000;
 const CHANNELS_PER_DEVICE = 8;
 const CANDIDATES_PER_CHANNEL = 4;
 const MAIN_CHANNELS = 64;
@@ -114,9 +116,18 @@ async function openLoadSocket(
   return ws;
 }
 
-/** Child process: devices publishing binary batches and one engineer's WebSocket per sidecar with candidates on every channel. */
+/**
+ * Child process: devices publishing binary batches and one engineer's WebSocket per sidecar with
+ * candidates on every channel. Each device publishes its channels' batches every BATCH_MS at its own
+ * phase, spread evenly over the period, as independent devices do (not every device in the same instant).
+ */
 async function runLoad(job: LoadJob): Promise<LoadResult> {
-  const sentAt = new Map<string, number>();
+  const paths = job.targets.flatMap((t) => t.paths);
+  const n = paths.length;
+  const indexOf = new Map(paths.map((p, i) => [p, i]));
+  /** Publish time of every (seq, channel) of the run, NaN until published. */
+  const seqs = Math.ceil(((job.seconds + 4) * 1000) / BATCH_MS);
+  const sentAt = new Float64Array(seqs * n).fill(Number.NaN);
   const latencies: number[] = [];
   let receivedSamples = 0;
   const dropped = new Map<number, number>();
@@ -126,8 +137,8 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
     job.targets.map((target, k) =>
       openLoadSocket(target, job.cookie, (m) => {
         if (m.type === "frame") {
-          const t = sentAt.get(`${m.channel}#${m.seq}`);
-          if (m.seq >= window.first && m.seq <= window.last && t !== undefined) {
+          const t = m.seq < seqs ? sentAt[m.seq * n + (indexOf.get(m.channel) ?? Number.NaN)] : Number.NaN;
+          if (m.seq >= window.first && m.seq <= window.last && !Number.isNaN(t)) {
             latencies.push(performance.now() - t);
             receivedSamples += m.samples;
           }
@@ -137,45 +148,37 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
       }),
     ),
   );
-  const paths = job.targets.flatMap((t) => t.paths);
-  const devices = new Map<string, string[]>();
-  for (const p of paths) {
-    const device = p.split("/").slice(0, 2).join("/");
-    devices.set(device, [...(devices.get(device) ?? []), p]);
-  }
-  const clients = await Promise.all([...devices.keys()].map(() => mqtt.connectAsync(job.mqttUrl, { reconnectPeriod: 0 })));
+  const deviceOf = paths.map((p) => p.split("/").slice(0, 2).join("/"));
+  const devices = [...new Set(deviceOf)];
+  const channelsOf = devices.map((d) => paths.flatMap((p, c) => (deviceOf[c] === d ? [c] : [])));
+  const clients = await Promise.all(devices.map(() => mqtt.connectAsync(job.mqttUrl, { reconnectPeriod: 0 })));
+  const topics = paths.map(samplesTopic);
   const values = Float64Array.from({ length: BATCH }, (_, i) => Math.sin((2 * Math.PI * 50 * i) / FS) + 0.1 * Math.cos(i));
-  let seq = 0;
-  let published = 0;
-  let publishedSamples = 0;
-  const groups = [...devices.values()];
+  /** Device rounds made (seq × devices + device): device d's seq s is due at (s + d / devices) × BATCH_MS after the start. */
+  let made = 0;
+  let payload = { seq: -1, bytes: Buffer.alloc(0) };
   const started = performance.now();
-  // Publishes by elapsed time (one batch per 20 ms per channel), so timer drift does not lower the rate.
   const timer = setInterval(() => {
-    const due = Math.floor((performance.now() - started) / 20);
-    for (; seq < due; seq++) {
-      const measured = seq >= window.first && seq <= window.last;
-      clients.forEach((client, d) => {
-        for (const path of groups[d]) {
-          const payload = Buffer.from(encodeBinarySamples({ seq, t0: seq * 20, sampleRateHz: FS, values }));
-          sentAt.set(`${path}#${seq}`, performance.now());
-          client.publish(samplesTopic(path), payload);
-          if (measured) {
-            published++;
-            publishedSamples += BATCH;
-          }
-        }
-      });
+    const due = Math.min(seqs * devices.length, Math.floor(((performance.now() - started) * devices.length) / BATCH_MS));
+    for (; made < due; made++) {
+      const seq = Math.floor(made / devices.length);
+      const d = made % devices.length;
+      if (payload.seq !== seq) payload = { seq, bytes: Buffer.from(encodeBinarySamples({ seq, t0: seq * BATCH_MS, sampleRateHz: FS, values })) };
+      for (const c of channelsOf[d]) {
+        sentAt[seq * n + c] = performance.now();
+        clients[d].publish(topics[c], payload.bytes);
+      }
     }
-  }, 5);
+  }, 1);
+  const currentSeq = () => Math.floor(made / devices.length);
   await new Promise((r) => setTimeout(r, 1000)); // warm-up
-  window.first = seq;
+  window.first = currentSeq() + 1;
   process.send?.({ type: "measuring" });
   const cpu = process.cpuUsage();
   await new Promise((r) => setTimeout(r, job.seconds * 1000));
   const used = process.cpuUsage(cpu);
   const loadCpuShare = (used.user + used.system) / 1000 / (job.seconds * 1000);
-  window.last = seq - 1;
+  window.last = currentSeq() - 1;
   process.send?.({ type: "stopped" });
   await new Promise((r) => setTimeout(r, 1000)); // let the last frames arrive
   clearInterval(timer);
@@ -183,7 +186,8 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
   // Forced: an overloaded run may hold a backlog of QoS 0 publishes that would otherwise be flushed first.
   await Promise.all(clients.map((c) => c.endAsync(true)));
   const droppedFrames = [...dropped.values()].reduce((a, b) => a + b, 0);
-  return { published, publishedSamples, receivedSamples, latenciesMs: latencies, droppedFrames, loadCpuShare };
+  const published = Math.max(0, window.last - window.first + 1) * n;
+  return { published, publishedSamples: published * BATCH, receivedSamples, latenciesMs: latencies, droppedFrames, loadCpuShare };
 }
 
 /** CPU time (ms) this process has used: the in-process sidecar's. */
@@ -199,36 +203,64 @@ const childrenCpuMs = (pids: number[]) => (): number =>
     return sum + (Number(fields[11]) + Number(fields[12])) * 10;
   }, 0);
 
+type LoadEvent = { type: "measuring" } | { type: "stopped" } | { type: "result"; result: LoadResult };
+
+/**
+ * The load process, forked once before any sidecar starts in this process: a fork write-protects
+ * every page of the parent, so each page the parent writes afterwards takes a fault (about 13 µs in
+ * this VM; a minute of ring history is 240 pages a channel). A sidecar never forks; forking a load
+ * per run after the sidecar is up made its ring writes cost 25 times as much.
+ */
+function startLoadProcess() {
+  const child = fork(fileURLToPath(import.meta.url), ["--load"], { execArgv: ["--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
+  let listener: ((m: LoadEvent) => void) | null = null;
+  let failed: ((err: Error) => void) | null = null;
+  child.on("message", (m: LoadEvent) => listener?.(m));
+  child.on("error", (err) => failed?.(err));
+  child.on("exit", (code) => failed?.(new Error(`load process exited with ${code}`)));
+  return {
+    /** Runs one job; `onEvent` hears when the measured window opens and closes. */
+    run(job: LoadJob, onEvent: (m: LoadEvent) => void): Promise<LoadResult> {
+      return new Promise((resolve, reject) => {
+        failed = reject;
+        listener = (m) => {
+          onEvent(m);
+          if (m.type === "result") resolve(m.result);
+        };
+        child.send(job);
+      });
+    },
+    stop(): void {
+      failed = null;
+      child.kill("SIGKILL");
+    },
+  };
+}
+
+type LoadProcess = ReturnType<typeof startLoadProcess>;
+
 /**
  * One measured run; `cpuMs` reads the sidecars' CPU time (this process's when the sidecar runs here,
  * then its event loop delay is read too), `brokerCpuMs` an external broker's.
  */
-async function step(job: LoadJob, cpuMs: () => number = ownCpuMs, brokerCpuMs?: () => number) {
-  const child = fork(fileURLToPath(import.meta.url), ["--load"], { execArgv: ["--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
+async function step(load: LoadProcess, job: LoadJob, cpuMs: () => number = ownCpuMs, brokerCpuMs?: () => number) {
   let cpuStart = cpuMs();
   let brokerStart = brokerCpuMs?.() ?? 0;
   let wallStart = performance.now();
   let cpuShare = Number.NaN;
   let brokerCpuShare: number | null = null;
   const loopDelay = monitorEventLoopDelay({ resolution: 5 });
-  const result = await new Promise<LoadResult>((resolve, reject) => {
-    child.on("message", (m: { type: string; result?: LoadResult }) => {
-      if (m.type === "measuring") {
-        cpuStart = cpuMs();
-        brokerStart = brokerCpuMs?.() ?? 0;
-        wallStart = performance.now();
-        loopDelay.enable();
-      } else if (m.type === "stopped") {
-        cpuShare = (cpuMs() - cpuStart) / (performance.now() - wallStart);
-        if (brokerCpuMs) brokerCpuShare = Number(((brokerCpuMs() - brokerStart) / (performance.now() - wallStart)).toFixed(3));
-        loopDelay.disable();
-      } else if (m.type === "result" && m.result) {
-        resolve(m.result);
-      }
-    });
-    child.on("error", reject);
-    child.on("exit", (code) => code !== 0 && reject(new Error(`load process exited with ${code}`)));
-    child.send(job);
+  const result = await load.run(job, (m) => {
+    if (m.type === "measuring") {
+      cpuStart = cpuMs();
+      brokerStart = brokerCpuMs?.() ?? 0;
+      wallStart = performance.now();
+      loopDelay.enable();
+    } else if (m.type === "stopped") {
+      cpuShare = (cpuMs() - cpuStart) / (performance.now() - wallStart);
+      if (brokerCpuMs) brokerCpuShare = Number(((brokerCpuMs() - brokerStart) / (performance.now() - wallStart)).toFixed(3));
+      loopDelay.disable();
+    }
   });
   const sorted = [...result.latenciesMs].sort((a, b) => a - b);
   const coverage = result.publishedSamples ? result.receivedSamples / result.publishedSamples : 0;
@@ -260,7 +292,7 @@ function startLeaseSidecar(dbUrl: string, mqttUrl: string, id: string, port: num
 }
 
 /** CLUSTER_CHANNELS channels on CLUSTER_SIDECARS sidecars sharing one Debian mosquitto, once the leases are balanced. */
-async function clusterRun(db: Db, dbUrl: string, cookie: string, paths: string[]) {
+async function clusterRun(load: LoadProcess, db: Db, dbUrl: string, cookie: string, paths: string[]) {
   const broker = await mosquitto(undefined, Number(process.env.BENCH_MQTT_PORT ?? 18950));
   const basePort = Number(process.env.BENCH_SIDECAR_PORT ?? 3350);
   const ids = Array.from({ length: CLUSTER_SIDECARS }, (_, i) => `bench-${i}`);
@@ -281,7 +313,7 @@ async function clusterRun(db: Db, dbUrl: string, cookie: string, paths: string[]
       // Every stride-th channel, so a smaller run still spreads over both halves of the lab.
       paths: paths.filter((path, i) => i % stride === 0 && owners.get(path)?.sidecarId === id),
     }));
-    return await step({ mqttUrl: broker.url, targets, cookie, seconds: MAIN_SECONDS }, childrenCpuMs(children.map((c) => c.pid ?? 0)), childrenCpuMs([broker.pid() ?? 0]));
+    return await step(load, { mqttUrl: broker.url, targets, cookie, seconds: MAIN_SECONDS }, childrenCpuMs(children.map((c) => c.pid ?? 0)), childrenCpuMs([broker.pid() ?? 0]));
   } finally {
     for (const child of children) child.kill("SIGKILL");
     await broker.stop();
@@ -291,6 +323,16 @@ async function clusterRun(db: Db, dbUrl: string, cookie: string, paths: string[]
 async function main(): Promise<void> {
   const base = process.env.TEST_DATABASE_URL ?? process.env.MIGRATION_DATABASE_URL;
   if (!base) throw new Error("set TEST_DATABASE_URL or MIGRATION_DATABASE_URL to a PostgreSQL role that may create databases");
+  // First, before this process holds a sidecar (startLoadProcess says why).
+  const load = startLoadProcess();
+  try {
+    await measure(load, base);
+  } finally {
+    load.stop();
+  }
+}
+
+async function measure(load: LoadProcess, base: string): Promise<void> {
   const name = `tw_pipeline_bench_${process.pid}`;
   const admin = new pg.Client({ connectionString: base });
   await admin.connect();
@@ -334,12 +376,12 @@ async function main(): Promise<void> {
           cookie,
           seconds,
         });
-        const main = await step(job(MAIN_CHANNELS, MAIN_SECONDS));
+        const main = await step(load, job(MAIN_CHANNELS, MAIN_SECONDS));
         console.log(`${MAIN_CHANNELS} channels × ${FS} Hz × ${CANDIDATES_PER_CHANNEL} candidates:`, main);
         let largestSustained = main.sustained ? MAIN_CHANNELS : 0;
         const search = [];
         for (let n = MAIN_CHANNELS + STEP; main.sustained && n <= MAX_CHANNELS; n += STEP) {
-          const r = await step(job(n, STEP_SECONDS));
+          const r = await step(load, job(n, STEP_SECONDS));
           console.log(`${n} channels:`, r);
           search.push(r);
           if (!r.sustained) break;
@@ -365,7 +407,7 @@ async function main(): Promise<void> {
         await sidecar.close();
       }
     }
-    const cluster = await clusterRun(db, url.toString(), cookie, paths);
+    const cluster = await clusterRun(load, db, url.toString(), cookie, paths);
     console.log(`${CLUSTER_CHANNELS} channels on ${CLUSTER_SIDECARS} sidecars and mosquitto:`, cluster);
     console.log(JSON.stringify({ bench: "pipeline-cluster", sidecars: CLUSTER_SIDECARS, target: { channels: CLUSTER_CHANNELS, p99Ms: P99_LIMIT_MS }, ...cluster }));
   } finally {
@@ -376,15 +418,17 @@ async function main(): Promise<void> {
 }
 
 if (process.argv.includes("--load")) {
-  process.once("message", (job: LoadJob) => {
+  // Jobs come one at a time (each waits for the last result); the process ends with its parent.
+  process.on("message", (job: LoadJob) => {
     runLoad(job).then(
-      (result) => process.send?.({ type: "result", result }, () => process.exit(0)),
+      (result) => process.send?.({ type: "result", result }),
       (err: unknown) => {
         console.error(err);
         process.exit(1);
       },
     );
   });
+  process.on("disconnect", () => process.exit(0));
 } else if (!SIDECAR_NODE_FLAGS.every((flag) => process.execArgv.includes(flag))) {
   // The single sidecar runs in this process: run it with the Node flags npm start gives the sidecar.
   const again = spawn(process.execPath, [...SIDECAR_NODE_FLAGS, ...process.execArgv, fileURLToPath(import.meta.url)], { stdio: "inherit" });
