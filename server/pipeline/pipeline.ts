@@ -273,13 +273,13 @@ export function createPipeline(deps: {
     },
     drain(path) {
       const ch = channelOf(path);
-      const blocks = ch.pending.map(({ seq, lastSeq, t0, start, length, traces }) => ({
-        seq,
-        lastSeq,
-        t0,
-        raw: ch.staging.raw.view(start, start + length),
-        traces: new Map([...traces].map(([key, t]) => [key, t.column.view(t.start, t.start + length)])),
-      }));
+      if (!ch.pending.length) return [];
+      const blocks: PendingBlock[] = [];
+      for (const { seq, lastSeq, t0, start, length, traces } of ch.pending) {
+        const views = new Map<string, Float64Array>();
+        for (const [key, t] of traces) views.set(key, t.column.view(t.start, t.start + length));
+        blocks.push({ seq, lastSeq, t0, raw: ch.staging.raw.view(start, start + length), traces: views });
+      }
       ch.pending = [];
       emptyStaging(ch);
       return blocks;

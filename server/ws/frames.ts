@@ -21,15 +21,19 @@ function allFinite(values: Column): boolean {
   return true;
 }
 
+/** Samples [from, to) of a column, min/max decimated in buckets when bucket > 1 (a plain function: the frame path makes no closures). */
+function reduce(v: Float64Array, from: number, to: number, bucket: number): Column {
+  const part = from === 0 && to === v.length ? v : v.subarray(from, to);
+  return bucket === 1 ? part : minMaxDecimate(part, bucket);
+}
+
 function pick(view: ViewState, block: PendingBlock, from: number, to: number, bucket: number): FrameMessage<Column> {
-  const part = (v: Float64Array) => (from === 0 && to === v.length ? v : v.subarray(from, to));
-  const reduce = (v: Float64Array): Column => (bucket === 1 ? part(v) : minMaxDecimate(part(v), bucket));
   const traces: Record<string, Column> = {};
   for (const [key, id] of view.traceIds) {
     const trace = block.traces.get(key);
     if (!trace) continue;
     // A trace that diverged (an unstable candidate) is left out of the frame: the chart shows no NaN or ±∞.
-    const points = reduce(trace);
+    const points = reduce(trace, from, to, bucket);
     if (allFinite(points)) traces[id] = points;
   }
   const frame: FrameMessage<Column> = {
@@ -38,7 +42,7 @@ function pick(view: ViewState, block: PendingBlock, from: number, to: number, bu
     seq: block.lastSeq,
     t0: block.t0 + (from * 1000) / view.sampleRateHz,
     sampleRateHz: view.sampleRateHz,
-    raw: reduce(block.raw),
+    raw: reduce(block.raw, from, to, bucket),
     traces,
     samples: to - from,
     decimated: bucket > 1,
