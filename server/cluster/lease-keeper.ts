@@ -2,6 +2,9 @@ import type { Db } from "@/db/client";
 import { leaseRound, leaveSidecars, releaseLeases, type LeasedChannel } from "@/db/queries/leases";
 import type { Clock, Logger, Timer } from "../clock";
 
+/** Channels started at once when a sidecar takes over many. */
+const START_CONCURRENCY = 16;
+
 export interface LeaseKeeperOptions {
   db: Db;
   /** SIDECAR_ID: a key unique among the sidecars sharing the database. */
@@ -27,7 +30,7 @@ export interface LeaseKeeper {
   owns(path: string): boolean;
   /** Paths held and in force now. */
   owned(): string[];
-  /** One heartbeat round (the timer runs them; tests may call it). */
+  /** One heartbeat round, resolved once the channels it handed out have started (the timer runs rounds without waiting for starts; tests may call it). */
   round(): Promise<void>;
   start(): void;
   /** Stops every channel, gives up the leases and leaves, so the others take over at once. */
@@ -46,8 +49,13 @@ export function createLeaseKeeper(opts: LeaseKeeperOptions): LeaseKeeper {
   /** Stop this long before the lease's own expiry: timer lateness and clock-rate differences. */
   const marginMs = Math.max(opts.heartbeatMs, opts.ttlMs / 5);
   const running = new Map<string, LeasedChannel>();
+  /** Held channels not yet started, and the paths the last round held. */
+  const pending = new Map<string, LeasedChannel>();
+  const inStart = new Set<string>();
+  let held = new Set<string>();
   let validUntil = 0;
   let inFlight: Promise<void> | null = null;
+  let starting: Promise<void> | null = null;
   let timer: Timer | undefined;
   let closed = false;
 
@@ -64,50 +72,81 @@ export function createLeaseKeeper(opts: LeaseKeeperOptions): LeaseKeeper {
     await opts.stop(path).catch((err: unknown) => logger.warn(`stopping ${path}: ${err instanceof Error ? err.message : String(err)}`));
   }
 
+  /** Starts one held channel; one whose lease went (or lapsed) while it started is stopped again at once. */
+  async function startOne(channel: LeasedChannel): Promise<void> {
+    inStart.add(channel.path);
+    try {
+      await opts.start(channel);
+    } catch (err) {
+      logger.warn(`starting ${channel.path}: ${err instanceof Error ? err.message : String(err)}`);
+      return;
+    } finally {
+      inStart.delete(channel.path);
+    }
+    if (!closed && held.has(channel.path) && inForce()) running.set(channel.path, channel);
+    else await stopOne(channel.path);
+  }
+
+  /**
+   * Starts pending channels, START_CONCURRENCY at a time, beside the heartbeat rather than inside
+   * it: taking over hundreds of channels on a busy sidecar takes seconds (a database read and a
+   * subscription each), and renewals must go on meanwhile or the leases lapse before the last start.
+   */
+  async function startPending(): Promise<void> {
+    while (pending.size && !closed && inForce()) {
+      const batch = [...pending.values()].slice(0, START_CONCURRENCY);
+      for (const channel of batch) pending.delete(channel.path);
+      await Promise.all(batch.map(startOne));
+    }
+  }
+
   async function roundOnce(): Promise<void> {
     const startedAt = clock.now();
     const result = await leaseRound(opts.db, opts.id, opts.wsUrl, opts.ttlMs);
     if (closed) return;
     validUntil = startedAt + opts.ttlMs - marginMs;
-    const held = new Map(result.held.map((c) => [c.path, c]));
+    held = new Set(result.held.map((c) => c.path));
     for (const path of [...running.keys()]) if (!held.has(path)) await stopOne(path);
+    for (const path of [...pending.keys()]) if (!held.has(path)) pending.delete(path);
     if (result.surplus.length) {
       await releaseLeases(opts.db, opts.id, result.surplus.map((c) => c.channelId));
       logger.info(`released ${result.surplus.length} channels to the other sidecars (${result.sidecars} live)`);
     }
-    for (const channel of held.values()) {
-      if (running.has(channel.path) || !inForce()) continue;
-      try {
-        await opts.start(channel);
-        running.set(channel.path, channel);
-      } catch (err) {
-        logger.warn(`starting ${channel.path}: ${err instanceof Error ? err.message : String(err)}`);
-      }
-    }
+    for (const channel of result.held) if (!running.has(channel.path) && !inStart.has(channel.path)) pending.set(channel.path, channel);
+    starting ??= startPending().finally(() => {
+      starting = null;
+    });
     await opts.refresh?.([...running.values()]);
+  }
+
+  /** The heartbeat's renewal; channels it hands out start beside it (startPending). */
+  function renew(): Promise<void> {
+    inFlight ??= roundOnce()
+      .catch((err: unknown) => logger.warn(`lease round failed: ${err instanceof Error ? err.message : String(err)}`))
+      .finally(() => {
+        inFlight = null;
+      });
+    return inFlight;
   }
 
   const keeper: LeaseKeeper = {
     owns: (path) => running.has(path) && inForce(),
     owned: () => (inForce() ? [...running.keys()] : []),
-    round() {
-      inFlight ??= roundOnce()
-        .catch((err: unknown) => logger.warn(`lease round failed: ${err instanceof Error ? err.message : String(err)}`))
-        .finally(() => {
-          inFlight = null;
-        });
-      return inFlight;
+    async round() {
+      await renew();
+      await starting;
     },
     start() {
       timer = clock.setInterval(() => {
         if (!inForce()) void stopAll("leases not renewed in time (database unreachable?)");
-        void keeper.round();
+        void renew();
       }, opts.heartbeatMs);
     },
     async close() {
       closed = true;
       if (timer !== undefined) clock.clearInterval(timer);
       await inFlight;
+      await starting;
       validUntil = 0;
       await stopAll("shutting down");
       await leaveSidecars(opts.db, opts.id).catch((err: unknown) =>
