@@ -286,7 +286,11 @@ function startLeaseSidecar(dbUrl: string, mqttUrl: string, id: string, port: num
   const entry = fileURLToPath(new URL("../integration/support/lease-sidecar.ts", import.meta.url));
   const child = fork(entry, [dbUrl, mqttUrl, id, String(port), SECRET, "bench"], { execArgv: [...SIDECAR_NODE_FLAGS, "--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
   return new Promise((resolve, reject) => {
-    child.on("message", (m: { type: string }) => m.type === "ready" && resolve(child));
+    child.on("message", (m: { type: string; id?: string; m?: string }) => {
+      if (m.type === "ready") resolve(child);
+      // The sidecars' own log lines (lease moves, stopped channels) beside the figures they explain.
+      else if (m.type === "log") console.error(`[sidecar ${m.id}] ${m.m}`);
+    });
     child.once("exit", (code) => reject(new Error(`sidecar ${id} exited with ${code}`)));
   });
 }
