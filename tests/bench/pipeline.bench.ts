@@ -48,6 +48,8 @@ const STEP = 64;
 /** Channels of the partitioned run (two sidecars); BENCH_CLUSTER_CHANNELS runs a smaller one (512 divided by a power of two). */
 const CLUSTER_CHANNELS = Number(process.env.BENCH_CLUSTER_CHANNELS ?? 1024);
 const CLUSTER_SIDECARS = 2;
+/** The partitioned run's sidecars are fresh processes (the single one is warmed by the smaller steps before it). */
+const CLUSTER_WARMUP_SECONDS = 5;
 /** A step is sustained when p99 latency stays under this and no frame was dropped or lost. */
 const P99_LIMIT_MS = 50;
 const SECRET = "pipeline-bench-secret-0123456789abcdef0123456789";
@@ -65,6 +67,8 @@ interface LoadJob {
   targets: Array<{ wsUrl: string; paths: string[] }>;
   cookie: string;
   seconds: number;
+  /** Load before the measured window: the sidecars' code warms up and any start-up backlog drains. */
+  warmupSeconds: number;
 }
 
 interface LoadResult {
@@ -126,7 +130,7 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
   const n = paths.length;
   const indexOf = new Map(paths.map((p, i) => [p, i]));
   /** Publish time of every (seq, channel) of the run, NaN until published. */
-  const seqs = Math.ceil(((job.seconds + 4) * 1000) / BATCH_MS);
+  const seqs = Math.ceil(((job.warmupSeconds + job.seconds + 3) * 1000) / BATCH_MS);
   const sentAt = new Float64Array(seqs * n).fill(Number.NaN);
   const latencies: number[] = [];
   let receivedSamples = 0;
@@ -171,7 +175,7 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
     }
   }, 1);
   const currentSeq = () => Math.floor(made / devices.length);
-  await new Promise((r) => setTimeout(r, 1000)); // warm-up
+  await new Promise((r) => setTimeout(r, job.warmupSeconds * 1000));
   window.first = currentSeq() + 1;
   process.send?.({ type: "measuring" });
   const cpu = process.cpuUsage();
@@ -317,7 +321,7 @@ async function clusterRun(load: LoadProcess, db: Db, dbUrl: string, cookie: stri
       // Every stride-th channel, so a smaller run still spreads over both halves of the lab.
       paths: paths.filter((path, i) => i % stride === 0 && owners.get(path)?.sidecarId === id),
     }));
-    return await step(load, { mqttUrl: broker.url, targets, cookie, seconds: MAIN_SECONDS }, childrenCpuMs(children.map((c) => c.pid ?? 0)), childrenCpuMs([broker.pid() ?? 0]));
+    return await step(load, { mqttUrl: broker.url, targets, cookie, seconds: MAIN_SECONDS, warmupSeconds: CLUSTER_WARMUP_SECONDS }, childrenCpuMs(children.map((c) => c.pid ?? 0)), childrenCpuMs([broker.pid() ?? 0]));
   } finally {
     for (const child of children) child.kill("SIGKILL");
     await broker.stop();
@@ -379,6 +383,7 @@ async function measure(load: LoadProcess, base: string): Promise<void> {
           targets: [{ wsUrl: `ws://127.0.0.1:${sidecar.httpPort}/ws`, paths: paths.slice(0, n) }],
           cookie,
           seconds,
+          warmupSeconds: 1,
         });
         const main = await step(load, job(MAIN_CHANNELS, MAIN_SECONDS));
         console.log(`${MAIN_CHANNELS} channels × ${FS} Hz × ${CANDIDATES_PER_CHANNEL} candidates:`, main);
