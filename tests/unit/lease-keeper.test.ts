@@ -28,8 +28,8 @@ const clock: Clock = {
 };
 const channel = (i: number): LeasedChannel => ({ channelId: i, path: `lab/node/ch-${i}`, sampleRateHz: 1000 });
 
-/** A keeper whose channel starts each take `startMs` (a database read and a subscription on a busy sidecar). */
-function keeper(startMs: number) {
+/** A keeper whose channel starts each take `startMs` (a database read and a subscription on a busy sidecar), and stops `stopMs` (an unsubscription). */
+function keeper(startMs: number, stopMs = 0) {
   const started: string[] = [];
   const stopped: string[] = [];
   const warnings: string[] = [];
@@ -41,8 +41,14 @@ function keeper(startMs: number) {
     heartbeatMs: 1000,
     clock,
     logger: { info: () => undefined, warn: (m) => warnings.push(m) },
-    start: (c) => new Promise((resolve) => setTimeout(() => resolve(void started.push(c.path)), startMs)),
-    stop: async (path) => void stopped.push(path),
+    start: async (c) => {
+      if (startMs) await new Promise((resolve) => setTimeout(resolve, startMs));
+      started.push(c.path);
+    },
+    stop: async (path) => {
+      if (stopMs) await new Promise((resolve) => setTimeout(resolve, stopMs));
+      stopped.push(path);
+    },
   });
   return { k, started, stopped, warnings };
 }
@@ -66,6 +72,22 @@ describe("lease keeper", () => {
     expect(warnings).toEqual([]);
     expect(rounds).toBeGreaterThanOrEqual(19);
     await k.close();
+  });
+
+  it("gives up hundreds of channels in one renewal period however slow each unsubscription is", async () => {
+    holding = Array.from({ length: 200 }, (_, i) => channel(i));
+    const { k, stopped, warnings } = keeper(0, 400);
+    await k.round();
+    expect(k.owned()).toHaveLength(200);
+    k.start();
+    holding = holding.slice(0, 50); // 150 go to another sidecar: 60 s of unsubscriptions one after another
+    await vi.advanceTimersByTimeAsync(3000);
+    expect(stopped).toHaveLength(150);
+    expect(k.owned()).toHaveLength(50);
+    expect(warnings).toEqual([]);
+    const closing = k.close();
+    await vi.advanceTimersByTimeAsync(400);
+    await closing;
   });
 
   it("stops a channel whose lease went while it was starting instead of keeping it", async () => {
