@@ -1,6 +1,7 @@
 export * from "./canonical-json";
 export * from "./device";
 export * from "./faults";
+export * from "./finite";
 export * from "./frames";
 export * from "./samples";
 export * from "./topics";

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import type { FaultKind } from "./faults";
+import { allFinite } from "./finite";
 import { Slab } from "./slab";
 
 /** Largest sample payload accepted, in bytes; larger ones are refused unread. */
@@ -50,11 +51,6 @@ export function encodeBinarySamples(batch: { seq: number; t0: number; sampleRate
   view.setUint16(24, count, true);
   for (let i = 0; i < count; i++) view.setFloat32(BINARY_HEADER_BYTES + 4 * i, batch.values[i], true);
   return bytes;
-}
-
-function allFinite(values: Float64Array): boolean {
-  for (let i = 0; i < values.length; i++) if (values[i] - values[i] !== 0) return false;
-  return true;
 }
 
 /** Decoded values come from shared buffers: one message's few hundred bytes need no buffer of their own. */

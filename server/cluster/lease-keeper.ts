@@ -49,9 +49,11 @@ export function createLeaseKeeper(opts: LeaseKeeperOptions): LeaseKeeper {
   /** Stop this long before the lease's own expiry: timer lateness and clock-rate differences. */
   const marginMs = Math.max(opts.heartbeatMs, opts.ttlMs / 5);
   const running = new Map<string, LeasedChannel>();
-  /** Held channels not yet started, and the paths the last round held. */
+  /** Held channels waiting to start. */
   const pending = new Map<string, LeasedChannel>();
+  /** Channels whose start is under way. */
   const inStart = new Set<string>();
+  /** Paths the last round held. */
   let held = new Set<string>();
   let validUntil = 0;
   let inFlight: Promise<void> | null = null;

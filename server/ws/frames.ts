@@ -1,4 +1,4 @@
-import type { FrameMessage } from "@/lib/protocol";
+import { allFinite, type FrameMessage } from "@/lib/protocol";
 import { minMaxDecimate } from "../pipeline/decimate";
 import type { PendingBlock } from "../pipeline/pipeline";
 
@@ -15,11 +15,6 @@ export interface ViewState {
 
 /** A frame's column: a view of the block's samples, or their min/max decimation. */
 type Column = Float64Array | number[];
-
-function allFinite(values: Column): boolean {
-  for (let i = 0; i < values.length; i++) if (!Number.isFinite(values[i])) return false;
-  return true;
-}
 
 /** Samples [from, to) of a column, min/max decimated in buckets when bucket > 1 (a plain function: the frame path makes no closures). */
 function reduce(v: Float64Array, from: number, to: number, bucket: number): Column {

@@ -152,10 +152,14 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
       }),
     ),
   );
-  const deviceOf = paths.map((p) => p.split("/").slice(0, 2).join("/"));
-  const devices = [...new Set(deviceOf)];
-  const channelsOf = devices.map((d) => paths.flatMap((p, c) => (deviceOf[c] === d ? [c] : [])));
-  const clients = await Promise.all(devices.map(() => mqtt.connectAsync(job.mqttUrl, { reconnectPeriod: 0 })));
+  /** Each device's channels (indexes into paths), devices in order of first appearance. */
+  const byDevice = new Map<string, number[]>();
+  paths.forEach((p, c) => {
+    const device = p.split("/").slice(0, 2).join("/");
+    byDevice.set(device, [...(byDevice.get(device) ?? []), c]);
+  });
+  const channelsOf = [...byDevice.values()];
+  const clients = await Promise.all(channelsOf.map(() => mqtt.connectAsync(job.mqttUrl, { reconnectPeriod: 0 })));
   const topics = paths.map(samplesTopic);
   const values = Float64Array.from({ length: BATCH }, (_, i) => Math.sin((2 * Math.PI * 50 * i) / FS) + 0.1 * Math.cos(i));
   /** Device rounds made (seq × devices + device): device d's seq s is due at (s + d / devices) × BATCH_MS after the start. */
@@ -163,10 +167,10 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
   let payload = { seq: -1, bytes: Buffer.alloc(0) };
   const started = performance.now();
   const timer = setInterval(() => {
-    const due = Math.min(seqs * devices.length, Math.floor(((performance.now() - started) * devices.length) / BATCH_MS));
+    const due = Math.min(seqs * channelsOf.length, Math.floor(((performance.now() - started) * channelsOf.length) / BATCH_MS));
     for (; made < due; made++) {
-      const seq = Math.floor(made / devices.length);
-      const d = made % devices.length;
+      const seq = Math.floor(made / channelsOf.length);
+      const d = made % channelsOf.length;
       if (payload.seq !== seq) payload = { seq, bytes: Buffer.from(encodeBinarySamples({ seq, t0: seq * BATCH_MS, sampleRateHz: FS, values })) };
       for (const c of channelsOf[d]) {
         sentAt[seq * n + c] = performance.now();
@@ -174,7 +178,7 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
       }
     }
   }, 1);
-  const currentSeq = () => Math.floor(made / devices.length);
+  const currentSeq = () => Math.floor(made / channelsOf.length);
   await new Promise((r) => setTimeout(r, job.warmupSeconds * 1000));
   window.first = currentSeq() + 1;
   process.send?.({ type: "measuring" });
