@@ -22,15 +22,25 @@ export interface MessageBus {
   close(): Promise<void>;
 }
 
-/** Whether a topic matches a filter (MQTT 3.1.1 §4.7: `+` one level, `#` the rest; `$share/<group>/` stripped, MQTT 5.0 §4.8.2). */
-export function topicMatches(filter: string, topic: string): boolean {
+/**
+ * A topic filter's matcher (MQTT 3.1.1 §4.7: `+` one level, `#` the rest and its parent level;
+ * `$share/<group>/` stripped, MQTT 5.0 §4.8.2). The filter is split once; a topic is walked level by
+ * level in place, so matching a message allocates nothing.
+ */
+export function topicFilter(filter: string): (topic: string) => boolean {
   const plain = filter.startsWith("$share/") ? filter.split("/").slice(2).join("/") : filter;
-  const f = plain.split("/");
-  const t = topic.split("/");
-  for (let i = 0; i < f.length; i++) {
-    if (f[i] === "#") return true;
-    if (i >= t.length) return false;
-    if (f[i] !== "+" && f[i] !== t[i]) return false;
-  }
-  return f.length === t.length;
+  const levels = plain.split("/");
+  return (topic) => {
+    /** Start of the topic level compared next; topic.length + 1 once every level is consumed. */
+    let at = 0;
+    for (const level of levels) {
+      if (level === "#") return true;
+      if (at > topic.length) return false;
+      const slash = topic.indexOf("/", at);
+      const end = slash < 0 ? topic.length : slash;
+      if (level !== "+" && (end - at !== level.length || !topic.startsWith(level, at))) return false;
+      at = end + 1;
+    }
+    return at === topic.length + 1;
+  };
 }

@@ -1,6 +1,6 @@
 import mqtt, { type IClientOptions, type MqttClient } from "mqtt";
 import type { Clock, Logger } from "../clock";
-import { topicMatches, type BusState, type MessageBus, type MessageHandler } from "./bus";
+import { topicFilter, type BusState, type MessageBus, type MessageHandler } from "./bus";
 
 export interface MqttBusOptions {
   url: string;
@@ -36,7 +36,7 @@ export function connectMqttBus(opts: MqttBusOptions): MessageBus & { client: Mqt
   const random = opts.random ?? Math.random;
   const { initial, max } = opts.backoffMs ?? { initial: 250, max: 10_000 };
   /** Filters with wildcards are matched one by one; plain topics (a channel's samples) by one map lookup. */
-  const handlers: Array<{ filter: string; handler: MessageHandler }> = [];
+  const handlers: Array<{ filter: string; matches: (topic: string) => boolean; handler: MessageHandler }> = [];
   const exact = new Map<string, MessageHandler[]>();
   const listeners: Array<(s: BusState) => void> = [];
   let state: BusState = "reconnecting";
@@ -75,7 +75,7 @@ export function connectMqttBus(opts: MqttBusOptions): MessageBus & { client: Mqt
   });
   client.on("message", (topic, payload) => {
     for (const handler of exact.get(topic) ?? []) handler(topic, payload);
-    for (const h of handlers) if (topicMatches(h.filter, topic)) h.handler(topic, payload);
+    for (const h of handlers) if (h.matches(topic)) h.handler(topic, payload);
   });
   client.on("error", (err) => opts.logger.warn(`MQTT: ${err.message}`));
   client.on("close", () => {
@@ -95,7 +95,7 @@ export function connectMqttBus(opts: MqttBusOptions): MessageBus & { client: Mqt
       return state;
     },
     async subscribe(filter, handler) {
-      if (/[+#]/.test(filter) || filter.startsWith("$share/")) handlers.push({ filter, handler });
+      if (/[+#]/.test(filter) || filter.startsWith("$share/")) handlers.push({ filter, matches: topicFilter(filter), handler });
       else exact.set(filter, [...(exact.get(filter) ?? []), handler]);
       if (client.connected) await client.subscribeAsync(filter, { qos: 0 });
     },

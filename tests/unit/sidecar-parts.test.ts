@@ -1,7 +1,8 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { findPeaks, welch } from "@/lib/dsp";
 import { backoffDelay } from "@/server/broker/mqtt-bus";
-import { topicMatches } from "@/server/broker/bus";
+import { topicFilter } from "@/server/broker/bus";
 import { systemClock, type Clock } from "@/server/clock";
 import { createSignalSource } from "@/server/demo-rig/signals";
 import { RECIPES } from "@/server/demo-rig/recipes";
@@ -38,10 +39,46 @@ describe("sidecar parts", () => {
   });
 
   it("matches MQTT wildcards and strips a shared-subscription prefix", () => {
-    expect(topicMatches("tapwright/v1/+/+/+/samples", "tapwright/v1/a/b/c/samples")).toBe(true);
-    expect(topicMatches("$share/g/tapwright/v1/+/+/+/samples", "tapwright/v1/a/b/c/samples")).toBe(true);
-    expect(topicMatches("tapwright/v1/+/+/+/samples", "tapwright/v1/a/b/samples")).toBe(false);
-    expect(topicMatches("tapwright/#", "tapwright/v1/a")).toBe(true);
+    expect(topicFilter("tapwright/v1/+/+/+/samples")("tapwright/v1/a/b/c/samples")).toBe(true);
+    expect(topicFilter("$share/g/tapwright/v1/+/+/+/samples")("tapwright/v1/a/b/c/samples")).toBe(true);
+    expect(topicFilter("tapwright/v1/+/+/+/samples")("tapwright/v1/a/b/samples")).toBe(false);
+    expect(topicFilter("tapwright/#")("tapwright/v1/a")).toBe(true);
+  });
+
+  // OASIS, MQTT Version 3.1.1 (2014), §4.7.1.2 and §4.7.1.3: the standard's own examples.
+  it.each([
+    ["sport/tennis/player1/#", "sport/tennis/player1", true],
+    ["sport/tennis/player1/#", "sport/tennis/player1/ranking", true],
+    ["sport/tennis/player1/#", "sport/tennis/player1/score/wimbledon", true],
+    ["sport/#", "sport", true],
+    ["sport/tennis/+", "sport/tennis/player1", true],
+    ["sport/tennis/+", "sport/tennis/player1/ranking", false],
+    ["sport/+", "sport", false],
+    ["sport/+", "sport/", true],
+    ["+/+", "/finance", true],
+    ["/+", "/finance", true],
+    ["+", "/finance", false],
+  ])("filter %s on topic %s: %s", (filter, topic, expected) => {
+    expect(topicFilter(filter)(topic)).toBe(expected);
+  });
+
+  it("matches as the level-by-level reading of the standard does, on random filters and topics", () => {
+    /** §4.7 read literally: split both into levels and compare them in turn. */
+    const byLevels = (filter: string, topic: string) => {
+      const f = filter.split("/");
+      const t = topic.split("/");
+      for (let i = 0; i < f.length; i++) {
+        if (f[i] === "#") return true;
+        if (i >= t.length) return false;
+        if (f[i] !== "+" && f[i] !== t[i]) return false;
+      }
+      return f.length === t.length;
+    };
+    const level = fc.constantFrom("", "a", "b", "ab");
+    const filterLevels = fc.array(fc.constantFrom("", "a", "b", "ab", "+"), { minLength: 1, maxLength: 5 });
+    const filters = fc.tuple(filterLevels, fc.boolean()).map(([levels, hash]) => [...levels, ...(hash ? ["#"] : [])].join("/"));
+    const topics = fc.array(level, { minLength: 1, maxLength: 6 }).map((levels) => levels.join("/"));
+    fc.assert(fc.property(filters, topics, (filter, topic) => topicFilter(filter)(topic) === byLevels(filter, topic)), { numRuns: 5000, seed: 20261204 });
   });
 
   const f64 = (...values: number[]) => Float64Array.from(values);
