@@ -9,13 +9,15 @@
  * is from the publish of a message to the arrival of the frame that carries it, frame interval included.
  * Loopback only; the channel-count search is bounded and stops by itself. Last line: JSON.
  *
- * Then the partitioned set-up: CLUSTER_CHANNELS channels held by two sidecars (child processes, their
- * CPU read from /proc) on one Debian mosquitto (BENCH_MQTT_PORT, default 18950), the browser-like
- * client connected to both, each channel on the socket of its owner (from the leases).
+ * Then the partitioned set-up: first its floor (the same devices and broker, a bare subscriber per
+ * sidecar in its place, floorRun), then CLUSTER_CHANNELS channels held by two sidecars (child
+ * processes, their CPU read from /proc) on one Debian mosquitto (BENCH_MQTT_PORT, default 18950), the
+ * browser-like client connected to both, each channel on the socket of its owner (from the leases).
  * BENCH_CLUSTER_ONLY=1 runs the partitioned set-up alone.
  */
 import { fork, spawn, type ChildProcess } from "node:child_process";
 import { readFileSync } from "node:fs";
+import { availableParallelism } from "node:os";
 import { monitorEventLoopDelay } from "node:perf_hooks";
 import { fileURLToPath } from "node:url";
 import { sealData } from "iron-session";
@@ -63,8 +65,8 @@ const CANDIDATES = [
 
 interface LoadJob {
   mqttUrl: string;
-  /** One WebSocket per sidecar, with the channels it holds. */
-  targets: Array<{ wsUrl: string; paths: string[] }>;
+  /** One WebSocket per sidecar, with the channels it holds; no socket where wsUrl is null (the floor run's bare subscribers). */
+  targets: Array<{ wsUrl: string | null; paths: string[] }>;
   cookie: string;
   seconds: number;
   /** Load before the measured window: the sidecars' code warms up and any start-up backlog drains. */
@@ -88,7 +90,7 @@ function quantile(sorted: number[], q: number): number {
 
 /** One engineer's WebSocket to a sidecar with candidates on each of its channels; resolves once all are added. */
 async function openLoadSocket(
-  target: LoadJob["targets"][number],
+  target: { wsUrl: string; paths: string[] },
   cookie: string,
   onMessage: (m: ServerMessage) => void,
 ): Promise<WebSocket> {
@@ -137,20 +139,20 @@ async function runLoad(job: LoadJob): Promise<LoadResult> {
   const dropped = new Map<number, number>();
   /** Sequence numbers published inside the measured window. */
   const window = { first: Infinity, last: Infinity };
+  /** Frames and status from sidecar k's socket. */
+  const heard = (k: number) => (m: ServerMessage) => {
+    if (m.type === "frame") {
+      const t = m.seq < seqs ? sentAt[m.seq * n + (indexOf.get(m.channel) ?? Number.NaN)] : Number.NaN;
+      if (m.seq >= window.first && m.seq <= window.last && !Number.isNaN(t)) {
+        latencies.push(performance.now() - t);
+        receivedSamples += m.samples;
+      }
+    } else if (m.type === "status") {
+      dropped.set(k, Math.max(dropped.get(k) ?? 0, m.droppedFrames));
+    }
+  };
   const sockets = await Promise.all(
-    job.targets.map((target, k) =>
-      openLoadSocket(target, job.cookie, (m) => {
-        if (m.type === "frame") {
-          const t = m.seq < seqs ? sentAt[m.seq * n + (indexOf.get(m.channel) ?? Number.NaN)] : Number.NaN;
-          if (m.seq >= window.first && m.seq <= window.last && !Number.isNaN(t)) {
-            latencies.push(performance.now() - t);
-            receivedSamples += m.samples;
-          }
-        } else if (m.type === "status") {
-          dropped.set(k, Math.max(dropped.get(k) ?? 0, m.droppedFrames));
-        }
-      }),
-    ),
+    job.targets.flatMap(({ wsUrl, paths }, k) => (wsUrl === null ? [] : [openLoadSocket({ wsUrl, paths }, job.cookie, heard(k))])),
   );
   /** Each device's channels (indexes into paths), devices in order of first appearance. */
   const byDevice = new Map<string, number[]>();
@@ -248,28 +250,47 @@ function startLoadProcess() {
 type LoadProcess = ReturnType<typeof startLoadProcess>;
 
 /**
+ * CPU shares over the load's measured window: each meter reads a CPU time in ms, and a share is
+ * its growth over the window's wall time (1 = one core busy).
+ */
+function windowShares<K extends string>(meters: Record<K, () => number>) {
+  const keys = Object.keys(meters) as K[];
+  const read = () => Object.fromEntries(keys.map((k) => [k, meters[k]()])) as Record<K, number>;
+  let start = { at: performance.now(), cpu: read() };
+  let shares: Record<K, number> | null = null;
+  return {
+    open(): void {
+      start = { at: performance.now(), cpu: read() };
+    },
+    close(): void {
+      const wall = performance.now() - start.at;
+      const cpu = read();
+      shares = Object.fromEntries(keys.map((k) => [k, Number(((cpu[k] - start.cpu[k]) / wall).toFixed(3))])) as Record<K, number>;
+    },
+    get shares(): Record<K, number> {
+      if (!shares) throw new Error("the measured window did not close");
+      return shares;
+    },
+  };
+}
+
+/**
  * One measured run; `cpuMs` reads the sidecars' CPU time (this process's when the sidecar runs here,
  * then its event loop delay is read too), `brokerCpuMs` an external broker's.
  */
 async function step(load: LoadProcess, job: LoadJob, cpuMs: () => number = ownCpuMs, brokerCpuMs?: () => number) {
-  let cpuStart = cpuMs();
-  let brokerStart = brokerCpuMs?.() ?? 0;
-  let wallStart = performance.now();
-  let cpuShare = Number.NaN;
-  let brokerCpuShare: number | null = null;
+  const meter = windowShares({ sidecars: cpuMs, broker: brokerCpuMs ?? (() => Number.NaN) });
   const loopDelay = monitorEventLoopDelay({ resolution: 5 });
   const result = await load.run(job, (m) => {
     if (m.type === "measuring") {
-      cpuStart = cpuMs();
-      brokerStart = brokerCpuMs?.() ?? 0;
-      wallStart = performance.now();
+      meter.open();
       loopDelay.enable();
     } else if (m.type === "stopped") {
-      cpuShare = (cpuMs() - cpuStart) / (performance.now() - wallStart);
-      if (brokerCpuMs) brokerCpuShare = Number(((brokerCpuMs() - brokerStart) / (performance.now() - wallStart)).toFixed(3));
+      meter.close();
       loopDelay.disable();
     }
   });
+  const cpuShare = meter.shares.sidecars;
   const sorted = [...result.latenciesMs].sort((a, b) => a - b);
   const coverage = result.publishedSamples ? result.receivedSamples / result.publishedSamples : 0;
   const p99 = quantile(sorted, 0.99);
@@ -278,11 +299,11 @@ async function step(load: LoadProcess, job: LoadJob, cpuMs: () => number = ownCp
     messagesPerSecond: Math.round(result.published / job.seconds),
     p50Ms: Number(quantile(sorted, 0.5).toFixed(2)),
     p99Ms: Number(p99.toFixed(2)),
-    sidecarCpuShare: Number(cpuShare.toFixed(3)),
+    sidecarCpuShare: cpuShare,
     sidecarCpuPerChannel: Number((cpuShare / job.targets.reduce((n, t) => n + t.paths.length, 0)).toFixed(5)),
     sidecarLoopDelayP99Ms: cpuMs === ownCpuMs ? Number((loopDelay.percentile(99) / 1e6).toFixed(1)) : null,
     loadCpuShare: Number(result.loadCpuShare.toFixed(3)),
-    brokerCpuShare,
+    brokerCpuShare: brokerCpuMs ? meter.shares.broker : null,
     droppedFrames: result.droppedFrames,
     sampleCoverage: Number(coverage.toFixed(4)),
     sustained: p99 < P99_LIMIT_MS && result.droppedFrames === 0 && coverage > 0.99,
@@ -303,6 +324,85 @@ function startLeaseSidecar(dbUrl: string, mqttUrl: string, id: string, port: num
   });
 }
 
+/** The partitioned run's CLUSTER_CHANNELS channels: every stride-th, so a smaller run still spreads over both halves of the lab. */
+function clusterPaths(paths: string[]): string[] {
+  const stride = Math.max(1, Math.floor(paths.length / CLUSTER_CHANNELS));
+  return paths.filter((_, i) => i % stride === 0);
+}
+
+/** A bare subscriber process (bare-subscriber.ts) holding the sample topics of `paths`; resolves once subscribed. */
+async function startBareSubscriber(mqttUrl: string, paths: string[]) {
+  const entry = fileURLToPath(new URL("./bare-subscriber.ts", import.meta.url));
+  const child = fork(entry, [mqttUrl], { execArgv: ["--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
+  const reply = <T>(type: string) =>
+    new Promise<T>((resolve, reject) => {
+      const onMessage = (m: { type: string } & T) => {
+        if (m.type !== type) return;
+        child.off("message", onMessage);
+        resolve(m);
+      };
+      child.on("message", onMessage);
+      child.once("exit", (code) => reject(new Error(`bare subscriber exited with ${code}`)));
+    });
+  const ready = reply<object>("ready");
+  child.send({ type: "subscribe", paths });
+  await ready;
+  return {
+    pid: child.pid ?? 0,
+    mark: () => child.send({ type: "mark" }),
+    /** Messages received between the two marks. */
+    async report(): Promise<number> {
+      const answer = reply<{ messages: number }>("report");
+      child.send({ type: "report" });
+      return (await answer).messages;
+    },
+    stop: () => child.kill("SIGKILL"),
+  };
+}
+
+/**
+ * The machine's floor under the partitioned run: the same devices and Debian mosquitto at
+ * CLUSTER_CHANNELS channels, with one bare subscriber per sidecar in its place (mqtt.js receiving
+ * and counting, no filtering, no frames). What broker, load and bare subscribers take of the cores
+ * no sidecar can have; a message the broker does not deliver here no sidecar gets either.
+ * Subscribers mark the window when the load reports it, so the delivered share is good to a frame's
+ * worth of messages at either end (about 0.2 % of a 10 s window).
+ */
+async function floorRun(load: LoadProcess, paths: string[]) {
+  const broker = await mosquitto(undefined, Number(process.env.BENCH_MQTT_PORT ?? 18950));
+  const chosen = clusterPaths(paths);
+  const share = chosen.length / CLUSTER_SIDECARS;
+  const parts = Array.from({ length: CLUSTER_SIDECARS }, (_, i) => chosen.slice(i * share, (i + 1) * share));
+  const subscribers = await Promise.all(parts.map((part) => startBareSubscriber(broker.url, part)));
+  try {
+    const meter = windowShares({ broker: childrenCpuMs([broker.pid() ?? 0]), subscribers: childrenCpuMs(subscribers.map((s) => s.pid)) });
+    const job = { mqttUrl: broker.url, targets: parts.map((part) => ({ wsUrl: null, paths: part })), cookie: "", seconds: MAIN_SECONDS, warmupSeconds: CLUSTER_WARMUP_SECONDS };
+    const result = await load.run(job, (m) => {
+      if (m.type === "result") return;
+      for (const s of subscribers) s.mark();
+      if (m.type === "measuring") meter.open();
+      else meter.close();
+    });
+    const delivered = (await Promise.all(subscribers.map((s) => s.report()))).reduce((a, b) => a + b, 0);
+    const { broker: brokerCpuShare, subscribers: subscribersCpuShare } = meter.shares;
+    const floorCpuShare = Number((brokerCpuShare + subscribersCpuShare + result.loadCpuShare).toFixed(3));
+    return {
+      channels: chosen.length,
+      messagesPerSecond: Math.round(result.published / MAIN_SECONDS),
+      deliveredShare: Number((delivered / result.published).toFixed(4)),
+      brokerCpuShare,
+      loadCpuShare: Number(result.loadCpuShare.toFixed(3)),
+      subscribersCpuShare,
+      floorCpuShare,
+      cores: availableParallelism(),
+      coresLeftForSidecars: Number((availableParallelism() - floorCpuShare).toFixed(3)),
+    };
+  } finally {
+    for (const s of subscribers) s.stop();
+    await broker.stop();
+  }
+}
+
 /** CLUSTER_CHANNELS channels on CLUSTER_SIDECARS sidecars sharing one Debian mosquitto, once the leases are balanced. */
 async function clusterRun(load: LoadProcess, db: Db, dbUrl: string, cookie: string, paths: string[]) {
   const broker = await mosquitto(undefined, Number(process.env.BENCH_MQTT_PORT ?? 18950));
@@ -312,7 +412,7 @@ async function clusterRun(load: LoadProcess, db: Db, dbUrl: string, cookie: stri
   try {
     for (const [i, id] of ids.entries()) children.push(await startLeaseSidecar(dbUrl, broker.url, id, basePort + i));
     const share = paths.length / CLUSTER_SIDECARS;
-    const stride = Math.max(1, Math.floor(paths.length / CLUSTER_CHANNELS));
+    const chosen = clusterPaths(paths);
     const end = Date.now() + 60_000;
     let owners = await channelOwners(db);
     while (owners.size < paths.length || ids.some((id) => [...owners.values()].filter((o) => o.sidecarId === id).length !== share)) {
@@ -322,8 +422,7 @@ async function clusterRun(load: LoadProcess, db: Db, dbUrl: string, cookie: stri
     }
     const targets = ids.map((id, i) => ({
       wsUrl: `ws://127.0.0.1:${basePort + i}/ws`,
-      // Every stride-th channel, so a smaller run still spreads over both halves of the lab.
-      paths: paths.filter((path, i) => i % stride === 0 && owners.get(path)?.sidecarId === id),
+      paths: chosen.filter((path) => owners.get(path)?.sidecarId === id),
     }));
     return await step(load, { mqttUrl: broker.url, targets, cookie, seconds: MAIN_SECONDS, warmupSeconds: CLUSTER_WARMUP_SECONDS }, childrenCpuMs(children.map((c) => c.pid ?? 0)), childrenCpuMs([broker.pid() ?? 0]));
   } finally {
@@ -420,6 +519,9 @@ async function measure(load: LoadProcess, base: string): Promise<void> {
         await sidecar.close();
       }
     }
+    const floor = await floorRun(load, paths);
+    console.log(`Floor of ${CLUSTER_CHANNELS} channels: mosquitto, devices and bare subscribers without sidecars:`, floor);
+    console.log(JSON.stringify({ bench: "pipeline-floor", ...floor }));
     const cluster = await clusterRun(load, db, url.toString(), cookie, paths);
     console.log(`${CLUSTER_CHANNELS} channels on ${CLUSTER_SIDECARS} sidecars and mosquitto:`, cluster);
     console.log(JSON.stringify({ bench: "pipeline-cluster", sidecars: CLUSTER_SIDECARS, target: { channels: CLUSTER_CHANNELS, p99Ms: P99_LIMIT_MS }, ...cluster }));
