@@ -55,6 +55,14 @@ describe("binary frames (protocol 2)", () => {
     expect(bytes.byteLength).toBe(FRAME_HEADER_BYTES + Math.ceil(names / 4) * 4 + 4 * 3 * 3);
   });
 
+  it("writes each column as little-endian IEEE 754 binary32, whatever the machine's byte order", () => {
+    const bytes = encodeFrame(frame);
+    const columns = FRAME_HEADER_BYTES + Math.ceil(`${frame.channel}\nproduction\ncand-1`.length / 4) * 4;
+    // IEEE Std 754-2019, §3.4 (binary32: sign, 8-bit exponent biased by 127, 23-bit fraction):
+    // 1 = 0x3F800000, −2.5 = 0xC0200000, 3.25 = 0x40500000; least significant byte first on the wire.
+    expect(Array.from(bytes.subarray(columns, columns + 12))).toEqual([0x00, 0x00, 0x80, 0x3f, 0x00, 0x00, 0x20, 0xc0, 0x00, 0x00, 0x50, 0x40]);
+  });
+
   it("refuses malformed input with a reason", () => {
     const good = encodeFrame(frame);
     const with_ = (edit: (b: Uint8Array, v: DataView) => void) => {
