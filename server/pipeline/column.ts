@@ -10,7 +10,7 @@ export class GrowingColumn {
     this.data = new Float64Array(Math.max(1, capacity));
   }
 
-  append(values: ArrayLike<number>): void {
+  append(values: Float64Array): void {
     const needed = this.length + values.length;
     if (needed > this.data.length) {
       const grown = new Float64Array(Math.max(needed, 2 * this.data.length));
