@@ -88,7 +88,9 @@ export function encodeFrame(frame: FrameMessage<ArrayLike<number>>): Uint8Array 
   let at = columnsAt;
   // Little-endian float32 through the DataView on any machine, as the decoder reads them: one path, and in
   // V8 no slower than a Float32Array view per column (0.41 against 0.49 µs for five 66-point columns).
-  for (const column of [frame.raw, ...ids.map((id) => frame.traces[id])]) {
+  // Raw (c = −1), then each trace in name order, without building an array of them per frame.
+  for (let c = -1; c < ids.length; c++) {
+    const column = c < 0 ? frame.raw : frame.traces[ids[c]];
     for (let i = 0; i < points; i++, at += 4) view.setFloat32(at, column[i], true);
   }
   return bytes;

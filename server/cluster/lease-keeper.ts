@@ -104,7 +104,11 @@ export function createLeaseKeeper(opts: LeaseKeeperOptions): LeaseKeeper {
    */
   async function startPending(): Promise<void> {
     while (pending.size && !closed && inForce()) {
-      const batch = [...pending.values()].slice(0, START_CONCURRENCY);
+      const batch: LeasedChannel[] = [];
+      for (const channel of pending.values()) {
+        if (batch.length === START_CONCURRENCY) break;
+        batch.push(channel);
+      }
       for (const channel of batch) pending.delete(channel.path);
       await Promise.all(batch.map(startOne));
     }

@@ -336,13 +336,15 @@ async function startBareSubscriber(mqttUrl: string, paths: string[]) {
   const child = fork(entry, [mqttUrl], { execArgv: ["--import", "tsx"], stdio: ["ignore", "inherit", "inherit", "ipc"] });
   const reply = <T>(type: string) =>
     new Promise<T>((resolve, reject) => {
+      const onExit = (code: number | null) => reject(new Error(`bare subscriber exited with ${code}`));
       const onMessage = (m: { type: string } & T) => {
         if (m.type !== type) return;
         child.off("message", onMessage);
+        child.off("exit", onExit);
         resolve(m);
       };
       child.on("message", onMessage);
-      child.once("exit", (code) => reject(new Error(`bare subscriber exited with ${code}`)));
+      child.once("exit", onExit);
     });
   const ready = reply<object>("ready");
   child.send({ type: "subscribe", paths });
